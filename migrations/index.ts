@@ -1,0 +1,11 @@
+import type { Migration } from 'kysely';
+import * as m0001 from './0001_create_schema';
+
+/**
+ * Every migration, by name, in order. Listed by hand (one line per new file) because the same
+ * list must be found by `vite dev`, vitest, tsx scripts and the adapter-node bundle alike, and
+ * only a static import works in all four. A unit test fails when a file here is not listed.
+ */
+export const migrations: Record<string, Migration> = {
+	'0001_create_schema': m0001
+};

@@ -1,0 +1,24 @@
+/** One field that differs between two versions of an entry. */
+export interface FieldChange {
+	field: string;
+	before: unknown;
+	after: unknown;
+}
+
+function same(a: unknown, b: unknown): boolean {
+	return JSON.stringify(a) === JSON.stringify(b);
+}
+
+/**
+ * Field-by-field differences between two versions' data, in the order the fields appear
+ * (fields only one side has count as changed from or to null).
+ */
+export function diffEntryData(
+	before: Record<string, unknown>,
+	after: Record<string, unknown>
+): FieldChange[] {
+	const fields = [...new Set([...Object.keys(before), ...Object.keys(after)])];
+	return fields
+		.filter((f) => !same(before[f] ?? null, after[f] ?? null))
+		.map((field) => ({ field, before: before[field] ?? null, after: after[field] ?? null }));
+}

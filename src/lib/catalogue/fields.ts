@@ -1,0 +1,103 @@
+import { formatAngstrom, formatKelvin, formatMv, formatSpin } from '$lib/format';
+import { REFERENCE_ELECTRODE_LABELS, type ReferenceElectrode } from '$lib/science/referenceElectrodes';
+import {
+	COFACTOR_KIND_LABELS,
+	DISTANCE_METHOD_LABELS,
+	POTENTIAL_METHOD_LABELS,
+	SPIN_METHOD_LABELS,
+	type CofactorKind,
+	type DistanceMethod,
+	type PotentialMethod,
+	type SpinMethod
+} from '$lib/schemas/vocabulary';
+
+/** How each field of an entry's data is named and shown, with its unit. */
+
+export const FIELD_LABELS: Record<string, string> = {
+	name: 'Name',
+	organism: 'Organism',
+	uniprot: 'UniProtKB',
+	structureIds: 'Structures',
+	description: 'Description',
+	proteinAccession: 'Protein',
+	label: 'Label',
+	cofactorKind: 'Cofactor kind',
+	ligation: 'Ligation',
+	chainId: 'Chain',
+	residues: 'Residues',
+	coordinatesA: 'Centroid (Å)',
+	centreAccession: 'Centre',
+	couple: 'Couple',
+	emMvShe: 'Em (normalised)',
+	reportedValue: 'Value as reported',
+	reportedUnit: 'Unit as reported',
+	referenceElectrode: 'Reference electrode',
+	ph: 'pH',
+	temperatureK: 'Temperature',
+	ionicStrengthM: 'Ionic strength',
+	buffer: 'Buffer',
+	method: 'Method',
+	nElectrons: 'n (electrons)',
+	uncertaintyMv: 'Uncertainty',
+	sourceAccession: 'Source',
+	note: 'Note',
+	oxidationLevel: 'Oxidation level',
+	spinS: 'Spin S',
+	gValues: 'g-values',
+	centreAAccession: 'Centre A',
+	centreBAccession: 'Centre B',
+	edgeToEdgeA: 'Edge-to-edge distance',
+	centreToCentreA: 'Centre-to-centre distance',
+	structureId: 'Structure',
+	sourceKind: 'Kind',
+	doi: 'DOI',
+	pubmedId: 'PubMed ID',
+	title: 'Title',
+	authors: 'Authors',
+	journal: 'Journal',
+	year: 'Year'
+};
+
+export function fieldLabel(field: string): string {
+	return FIELD_LABELS[field] ?? field;
+}
+
+/** A field's value as text with its unit; null/empty shows as an em dash. */
+export function formatField(field: string, value: unknown, kind?: string): string {
+	if (value === null || value === undefined || (Array.isArray(value) && value.length === 0)) return '—';
+	switch (field) {
+		case 'emMvShe':
+			return `${formatMv(value as number, 1)} vs SHE`;
+		case 'uncertaintyMv':
+			return `± ${formatMv(value as number)}`;
+		case 'temperatureK':
+			return formatKelvin(value as number);
+		case 'ionicStrengthM':
+			return `${value} M`;
+		case 'edgeToEdgeA':
+		case 'centreToCentreA':
+			return formatAngstrom(value as number);
+		case 'referenceElectrode':
+			return REFERENCE_ELECTRODE_LABELS[value as ReferenceElectrode] ?? String(value);
+		case 'cofactorKind':
+			return COFACTOR_KIND_LABELS[value as CofactorKind] ?? String(value);
+		case 'spinS':
+			return formatSpin(value as number);
+		case 'gValues':
+			return (value as number[]).map((g) => g.toFixed(3)).join(', ');
+		case 'coordinatesA': {
+			const c = value as { x: number; y: number; z: number };
+			return `(${c.x}, ${c.y}, ${c.z})`;
+		}
+		case 'method':
+			return (
+				(kind === 'spin_record'
+					? SPIN_METHOD_LABELS[value as SpinMethod]
+					: kind === 'distance'
+						? DISTANCE_METHOD_LABELS[value as DistanceMethod]
+						: POTENTIAL_METHOD_LABELS[value as PotentialMethod]) ?? String(value)
+			);
+	}
+	if (Array.isArray(value)) return value.join(field === 'authors' ? '; ' : ', ');
+	return String(value);
+}

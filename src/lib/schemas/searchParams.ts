@@ -1,0 +1,64 @@
+import { z } from 'zod';
+
+/** Field errors as the API and forms report them: field name → messages. */
+export type FieldErrors = Record<string, string[]>;
+
+export type ParamsResult<T> = { ok: true; data: T } | { ok: false; fields: FieldErrors };
+
+/**
+ * Reads URL query parameters into a zod object schema. Keys listed in `listKeys` may repeat or
+ * hold comma-separated values and arrive as arrays; every other key must appear at most once.
+ * Empty values count as absent. Unknown keys are errors, so a typo never silently widens a query.
+ */
+export function parseSearchParams<S extends z.ZodObject>(
+	schema: S,
+	params: URLSearchParams,
+	listKeys: readonly string[] = []
+): ParamsResult<z.infer<S>> {
+	const record: Record<string, string | string[]> = {};
+	const fields: FieldErrors = {};
+	const known = new Set(Object.keys(schema.shape));
+	for (const key of new Set(params.keys())) {
+		if (!known.has(key)) {
+			fields[key] = [`unknown parameter; expected one of ${[...known].join(', ')}`];
+			continue;
+		}
+		const values = params
+			.getAll(key)
+			.flatMap((v) => (listKeys.includes(key) ? v.split(',') : [v]))
+			.map((v) => v.trim())
+			.filter((v) => v !== '');
+		if (values.length === 0) continue;
+		if (listKeys.includes(key)) record[key] = values;
+		else if (values.length > 1) fields[key] = ['given more than once; expected a single value'];
+		else record[key] = values[0] as string;
+	}
+	const parsed = schema.safeParse(record);
+	if (!parsed.success) {
+		for (const issue of parsed.error.issues) {
+			const key = String(issue.path[0] ?? '_');
+			(fields[key] ??= []).push(issue.message);
+		}
+	}
+	if (Object.keys(fields).length > 0 || !parsed.success) return { ok: false, fields };
+	return { ok: true, data: parsed.data };
+}
+
+/** A number from a query string, within bounds, with a message that names them. */
+export function queryNumber(min: number, max: number, unit = '') {
+	const range = `${min}${unit} to ${max}${unit}`;
+	return z.coerce
+		.number({ error: `expected a number from ${range}` })
+		.refine(Number.isFinite, `expected a number from ${range}`)
+		.refine((v) => v >= min && v <= max, `expected a number from ${range}`);
+}
+
+/** A whole number from a query string, within bounds. */
+export function queryInteger(min: number, max: number) {
+	return z.coerce
+		.number({ error: `expected a whole number from ${min} to ${max}` })
+		.refine(
+			(v) => Number.isInteger(v) && v >= min && v <= max,
+			`expected a whole number from ${min} to ${max}`
+		);
+}

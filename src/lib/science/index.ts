@@ -1,0 +1,4 @@
+// Hopline's science engine: pure functions, no I/O. Each file documents its equations and sources.
+export * from './constants';
+export * from './units';
+export * from './referenceElectrodes';

@@ -1,0 +1,27 @@
+import type { RequestEvent } from '@sveltejs/kit';
+import { EntryNotFoundError, InvalidEntryDataError } from '../catalogue/errors';
+import { apiError } from './respond';
+
+/**
+ * Wraps an API handler so that every failure leaves in the API's one error shape: domain
+ * errors map to their codes here, anything unexpected is logged with an id and becomes a 500
+ * that reveals nothing internal.
+ */
+export function apiHandler<E extends RequestEvent>(handler: (event: E) => Promise<Response>) {
+	return async (event: E): Promise<Response> => {
+		try {
+			return await handler(event);
+		} catch (err) {
+			if (err instanceof EntryNotFoundError) return apiError('not_found', err.message);
+			if (err instanceof InvalidEntryDataError) {
+				return apiError('bad_request', err.message, { [err.field]: [err.message] });
+			}
+			const errorId = crypto.randomUUID();
+			console.error(`[api ${errorId}] ${event.request.method} ${event.url.pathname}`, err);
+			return Response.json(
+				{ error: { code: 'internal_error', message: 'Internal error; quote the error id when reporting it.', errorId } },
+				{ status: 500 }
+			);
+		}
+	};
+}

@@ -1,0 +1,160 @@
+import type { Kysely } from 'kysely';
+import type { EntryView } from '$lib/catalogue/dto';
+import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
+import { COFACTOR_KIND_LABELS, type CofactorKind, type EntryKind } from '$lib/schemas/vocabulary';
+import type { Database } from '../db/schema';
+import { EntryNotFoundError } from './errors';
+import { entryRowIsVisible, type Viewer } from './visibility';
+
+/** Reading one entry at one approved version, as permalinks show it. */
+
+async function findVisibleEntry(db: Kysely<Database>, accession: string, viewer: Viewer | null) {
+	const entry = await db
+		.selectFrom('entry')
+		.selectAll()
+		.where('accession', '=', accession)
+		.executeTakeFirst();
+	if (!entry || !entryRowIsVisible(entry, viewer)) throw new EntryNotFoundError(accession);
+	return entry;
+}
+
+async function approvedVersions(db: Kysely<Database>, entryId: number) {
+	return db
+		.selectFrom('entry_version')
+		.select(['version', 'approved_at', 'change_note', 'data'])
+		.where('entry_id', '=', entryId)
+		.where('status', '=', 'approved')
+		.orderBy('version', 'asc')
+		.execute();
+}
+
+/** A short human title for an entry of any kind, from the latest projection. */
+async function titleOf(db: Kysely<Database>, entryId: number, kind: EntryKind): Promise<string> {
+	switch (kind) {
+		case 'protein': {
+			const p = await db.selectFrom('protein').select('name').where('entry_id', '=', entryId).executeTakeFirst();
+			return p?.name ?? 'Protein';
+		}
+		case 'centre': {
+			const c = await db
+				.selectFrom('centre')
+				.innerJoin('protein', 'protein.entry_id', 'centre.protein_entry_id')
+				.select(['centre.label', 'centre.cofactor_kind', 'protein.name'])
+				.where('centre.entry_id', '=', entryId)
+				.executeTakeFirst();
+			if (!c) return 'Centre';
+			const kindLabel = COFACTOR_KIND_LABELS[c.cofactor_kind as CofactorKind] ?? c.cofactor_kind;
+			return `${c.label} (${kindLabel}) · ${c.name}`;
+		}
+		case 'source': {
+			const s = await db
+				.selectFrom('source')
+				.select(['authors', 'year', 'title'])
+				.where('entry_id', '=', entryId)
+				.executeTakeFirst();
+			if (!s) return 'Source';
+			const authors = JSON.parse(s.authors) as string[];
+			const first = (authors[0] ?? '').split(',')[0];
+			return `${first}${authors.length > 1 ? ' et al.' : ''}${s.year ? ` (${s.year})` : ''}: ${s.title}`;
+		}
+		case 'potential': {
+			const p = await db
+				.selectFrom('potential')
+				.innerJoin('centre', 'centre.entry_id', 'potential.centre_entry_id')
+				.select(['potential.couple', 'centre.label'])
+				.where('potential.entry_id', '=', entryId)
+				.executeTakeFirst();
+			return p ? `Em of ${p.couple}, centre ${p.label}` : 'Potential';
+		}
+		case 'spin_record': {
+			const r = await db
+				.selectFrom('spin_record')
+				.innerJoin('centre', 'centre.entry_id', 'spin_record.centre_entry_id')
+				.select(['spin_record.oxidation_level', 'centre.label'])
+				.where('spin_record.entry_id', '=', entryId)
+				.executeTakeFirst();
+			return r ? `Spin state of ${r.oxidation_level}, centre ${r.label}` : 'Spin record';
+		}
+		case 'distance': {
+			const d = await db
+				.selectFrom('distance')
+				.innerJoin('centre as a', 'a.entry_id', 'distance.centre_a_entry_id')
+				.innerJoin('centre as b', 'b.entry_id', 'distance.centre_b_entry_id')
+				.select(['a.label as a', 'b.label as b'])
+				.where('distance.entry_id', '=', entryId)
+				.executeTakeFirst();
+			return d ? `Distance ${d.a} – ${d.b}` : 'Distance';
+		}
+	}
+}
+
+/**
+ * The entry at `version` (latest approved when omitted), with its version history and the
+ * entries its data refers to.
+ * @throws {EntryNotFoundError} for an unknown or invisible accession, or a missing version.
+ */
+export async function getEntryView(
+	db: Kysely<Database>,
+	accession: string,
+	version: number | undefined,
+	viewer: Viewer | null
+): Promise<EntryView> {
+	const entry = await findVisibleEntry(db, accession, viewer);
+	const versions = await approvedVersions(db, entry.id);
+	const latest = versions.at(-1);
+	if (!latest) throw new EntryNotFoundError(accession);
+	const chosen = version === undefined ? latest : versions.find((v) => v.version === version);
+	if (!chosen) throw new EntryNotFoundError(accession, version);
+	const data = JSON.parse(chosen.data) as Record<string, unknown>;
+
+	const references: EntryView['references'] = {};
+	for (const [field, value] of Object.entries(data)) {
+		if (!field.endsWith('Accession') || typeof value !== 'string') continue;
+		const ref = await db
+			.selectFrom('entry')
+			.select(['id', 'kind', 'visibility', 'embargo_until', 'group_id'])
+			.where('accession', '=', value)
+			.executeTakeFirst();
+		if (!ref || !entryRowIsVisible(ref, viewer)) continue;
+		references[field] = { accession: value, kind: ref.kind, title: await titleOf(db, ref.id, ref.kind) };
+	}
+
+	return {
+		accession,
+		kind: entry.kind,
+		visibility: entry.visibility,
+		isDemo: entry.is_demo === 1,
+		version: chosen.version as number,
+		latestVersion: latest.version as number,
+		approvedAt: chosen.approved_at ?? '',
+		changeNote: chosen.change_note,
+		data,
+		versions: versions.map((v) => ({
+			version: v.version as number,
+			approvedAt: v.approved_at ?? '',
+			changeNote: v.change_note
+		})),
+		references,
+		title: await titleOf(db, entry.id, entry.kind)
+	};
+}
+
+/**
+ * What changed from one approved version to another.
+ * @throws {EntryNotFoundError} when the entry or either version does not exist.
+ */
+export async function compareVersions(
+	db: Kysely<Database>,
+	accession: string,
+	from: number,
+	to: number,
+	viewer: Viewer | null
+): Promise<{ changes: FieldChange[]; from: number; to: number }> {
+	const entry = await findVisibleEntry(db, accession, viewer);
+	const versions = await approvedVersions(db, entry.id);
+	const a = versions.find((v) => v.version === from);
+	const b = versions.find((v) => v.version === to);
+	if (!a) throw new EntryNotFoundError(accession, from);
+	if (!b) throw new EntryNotFoundError(accession, to);
+	return { changes: diffEntryData(JSON.parse(a.data), JSON.parse(b.data)), from, to };
+}

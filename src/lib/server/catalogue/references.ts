@@ -1,0 +1,64 @@
+import type { Kysely } from 'kysely';
+import { COUPLES_BY_KIND, type CofactorKind, type EntryKind } from '$lib/schemas/vocabulary';
+import type { Database } from '../db/schema';
+import { InvalidEntryDataError } from './errors';
+
+/**
+ * Resolves an accession named in a version's data to the id of an approved entry of the
+ * expected kind, or explains precisely why it cannot.
+ */
+export async function resolveReference(
+	db: Kysely<Database>,
+	field: string,
+	accession: string,
+	expected: EntryKind
+): Promise<number> {
+	const row = await db
+		.selectFrom('entry')
+		.select(['id', 'kind'])
+		.where('accession', '=', accession)
+		.executeTakeFirst();
+	if (!row) throw new InvalidEntryDataError(field, `no entry ${accession}`);
+	if (row.kind !== expected) {
+		throw new InvalidEntryDataError(field, `${accession} is a ${row.kind}, expected a ${expected}`);
+	}
+	const approved = await db
+		.selectFrom('entry_version')
+		.select('id')
+		.where('entry_id', '=', row.id)
+		.where('status', '=', 'approved')
+		.executeTakeFirst();
+	if (!approved) {
+		throw new InvalidEntryDataError(field, `${accession} has no approved version yet`);
+	}
+	return row.id;
+}
+
+export async function resolveOptionalReference(
+	db: Kysely<Database>,
+	field: string,
+	accession: string | null,
+	expected: EntryKind
+): Promise<number | null> {
+	return accession === null ? null : resolveReference(db, field, accession, expected);
+}
+
+/** A potential's couple must be one its centre's cofactor kind can have ('other' takes any). */
+export async function assertCoupleFitsCentre(
+	db: Kysely<Database>,
+	centreEntryId: number,
+	couple: string
+): Promise<void> {
+	const centre = await db
+		.selectFrom('centre')
+		.select('cofactor_kind')
+		.where('entry_id', '=', centreEntryId)
+		.executeTakeFirstOrThrow();
+	const allowed = COUPLES_BY_KIND[centre.cofactor_kind as CofactorKind] ?? [];
+	if (allowed.length > 0 && !allowed.includes(couple)) {
+		throw new InvalidEntryDataError(
+			'couple',
+			`"${couple}" is not a couple of a ${centre.cofactor_kind} centre; expected one of ${allowed.join(', ')}`
+		);
+	}
+}

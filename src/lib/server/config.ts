@@ -1,0 +1,30 @@
+import { z } from 'zod';
+
+/**
+ * The app's whole configuration, parsed once from the environment. Nothing else reads
+ * process.env, so every setting is documented here and validated at start-up.
+ */
+const configSchema = z.object({
+	DATABASE_PATH: z.string().min(1).default('./data/hopline.sqlite'),
+	DATA_DIR: z.string().min(1).default('./data'),
+	/** Load the invented demo scenario into an empty database at start-up. */
+	HOPLINE_DEMO: z
+		.enum(['true', 'false', '1', '0', ''])
+		.default('false')
+		.transform((v) => v === 'true' || v === '1'),
+	/** Upper bound of rows one API page may return. */
+	API_MAX_LIMIT: z.coerce.number().int().min(10).max(10_000).default(500)
+});
+
+export type Config = z.infer<typeof configSchema>;
+
+export function parseConfig(env: Record<string, string | undefined>): Config {
+	const parsed = configSchema.safeParse(env);
+	if (!parsed.success) {
+		const problems = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
+		throw new Error(`Invalid configuration:\n  ${problems.join('\n  ')}`);
+	}
+	return parsed.data;
+}
+
+export const config: Config = parseConfig(process.env);

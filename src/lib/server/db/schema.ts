@@ -1,0 +1,337 @@
+import type { Generated, Selectable } from 'kysely';
+
+/**
+ * The one description of the SQLite schema as Kysely sees it (see migrations/ for the DDL).
+ * Row types elsewhere derive from this with Selectable<…>; never write a parallel row type.
+ * Auth.js's four tables keep the names and camelCase columns its adapter requires.
+ */
+export interface Database {
+	User: UserTable;
+	Account: AccountTable;
+	Session: SessionTable;
+	VerificationToken: VerificationTokenTable;
+	research_group: ResearchGroupTable;
+	group_member: GroupMemberTable;
+	entry: EntryTable;
+	entry_version: EntryVersionTable;
+	submission: SubmissionTable;
+	review: ReviewTable;
+	submission_comment: SubmissionCommentTable;
+	attachment: AttachmentTable;
+	calculation: CalculationTable;
+	calculation_input: CalculationInputTable;
+	release: ReleaseTable;
+	release_entry: ReleaseEntryTable;
+	audit_log: AuditLogTable;
+	saved_search: SavedSearchTable;
+	api_token: ApiTokenTable;
+	catalogue_state: CatalogueStateTable;
+	source: SourceTable;
+	protein: ProteinTable;
+	centre: CentreTable;
+	potential: PotentialTable;
+	spin_record: SpinRecordTable;
+	distance: DistanceTable;
+}
+
+export type Role = 'reader' | 'contributor' | 'curator' | 'admin';
+export type EntryKind = 'protein' | 'centre' | 'potential' | 'spin_record' | 'distance' | 'source';
+export type Visibility = 'public' | 'group' | 'embargoed';
+export type VersionStatus =
+	| 'draft'
+	| 'submitted'
+	| 'returned'
+	| 'approved'
+	| 'rejected'
+	| 'withdrawn';
+export type SubmissionStatus =
+	| 'draft'
+	| 'submitted'
+	| 'returned'
+	| 'approved'
+	| 'partially_approved'
+	| 'rejected'
+	| 'withdrawn';
+
+export interface UserTable {
+	id: Generated<string>;
+	name: string | null;
+	email: string | null;
+	emailVerified: string | null;
+	image: string | null;
+	role: Generated<Role>;
+	passwordHash: string | null;
+	createdAt: Generated<string>;
+	disabledAt: string | null;
+}
+
+export interface AccountTable {
+	id: Generated<string>;
+	userId: string;
+	type: string;
+	provider: string;
+	providerAccountId: string;
+	refresh_token: string | null;
+	access_token: string | null;
+	expires_at: number | null;
+	token_type: string | null;
+	scope: string | null;
+	id_token: string | null;
+	session_state: string | null;
+}
+
+export interface SessionTable {
+	id: Generated<string>;
+	userId: string;
+	sessionToken: string;
+	expires: string;
+}
+
+export interface VerificationTokenTable {
+	identifier: string;
+	token: string;
+	expires: string;
+}
+
+export interface ResearchGroupTable {
+	id: Generated<number>;
+	slug: string;
+	name: string;
+	created_at: Generated<string>;
+}
+
+export interface GroupMemberTable {
+	group_id: number;
+	user_id: string;
+	is_manager: Generated<number>;
+	joined_at: Generated<string>;
+}
+
+export interface EntryTable {
+	id: Generated<number>;
+	accession: string;
+	kind: EntryKind;
+	visibility: Generated<Visibility>;
+	group_id: number | null;
+	embargo_until: string | null;
+	is_demo: Generated<number>;
+	created_by: string | null;
+	created_at: Generated<string>;
+	merged_into_entry_id: number | null;
+}
+
+export interface EntryVersionTable {
+	id: Generated<number>;
+	entry_id: number;
+	version: number | null;
+	status: VersionStatus;
+	/** JSON of the entity's stored schema (src/lib/schemas), validated on write and read. */
+	data: string;
+	change_note: string | null;
+	submission_id: number | null;
+	based_on_version: number | null;
+	created_by: string | null;
+	created_at: Generated<string>;
+	approved_by: string | null;
+	approved_at: string | null;
+}
+
+export interface SubmissionTable {
+	id: Generated<number>;
+	channel: 'form' | 'csv' | 'seed';
+	status: Generated<SubmissionStatus>;
+	title: string;
+	submitted_by: string | null;
+	content_sha256: string | null;
+	row_count: number | null;
+	created_at: Generated<string>;
+	updated_at: Generated<string>;
+	submitted_at: string | null;
+}
+
+export interface ReviewTable {
+	id: Generated<number>;
+	submission_id: number;
+	reviewer_id: string;
+	decision: 'approve' | 'return' | 'reject';
+	comment: string | null;
+	created_at: Generated<string>;
+}
+
+export interface SubmissionCommentTable {
+	id: Generated<number>;
+	submission_id: number;
+	entry_version_id: number | null;
+	author_id: string;
+	body: string;
+	created_at: Generated<string>;
+}
+
+export interface AttachmentTable {
+	id: Generated<number>;
+	entry_id: number;
+	entry_version_id: number | null;
+	kind: 'epr_spectrum' | 'voltammogram' | 'titration_plot' | 'optical_spectrum' | 'other';
+	caption: string;
+	sha256: string;
+	media_type: string;
+	byte_size: number;
+	width: number;
+	height: number;
+	thumb_sha256: string | null;
+	uploaded_by: string | null;
+	created_at: Generated<string>;
+}
+
+export interface CalculationTable {
+	id: Generated<number>;
+	slug: string;
+	kind: string;
+	title: string;
+	inputs: string;
+	result: string;
+	engine_version: string;
+	visibility: Generated<'public' | 'group' | 'private'>;
+	created_by: string | null;
+	created_at: Generated<string>;
+}
+
+export interface CalculationInputTable {
+	calculation_id: number;
+	entry_version_id: number;
+}
+
+export interface ReleaseTable {
+	id: Generated<number>;
+	number: number;
+	title: string;
+	notes: string | null;
+	entry_count: number;
+	manifest_sha256: string;
+	created_by: string | null;
+	created_at: Generated<string>;
+}
+
+export interface ReleaseEntryTable {
+	release_id: number;
+	entry_version_id: number;
+}
+
+export interface AuditLogTable {
+	id: Generated<number>;
+	at: Generated<string>;
+	actor_id: string | null;
+	action: string;
+	entry_id: number | null;
+	submission_id: number | null;
+	before: string | null;
+	after: string | null;
+	detail: string | null;
+}
+
+export interface SavedSearchTable {
+	id: Generated<number>;
+	user_id: string;
+	name: string;
+	query: string;
+	created_at: Generated<string>;
+}
+
+export interface ApiTokenTable {
+	id: Generated<number>;
+	user_id: string;
+	name: string;
+	token_sha256: string;
+	created_at: Generated<string>;
+	last_used_at: string | null;
+	revoked_at: string | null;
+}
+
+export interface CatalogueStateTable {
+	id: number;
+	revision: number;
+}
+
+export interface SourceTable {
+	entry_id: number;
+	version: number;
+	source_kind: string;
+	doi: string | null;
+	pubmed_id: string | null;
+	title: string;
+	/** JSON array of author names as "Family, Given". */
+	authors: string;
+	journal: string | null;
+	year: number | null;
+}
+
+export interface ProteinTable {
+	entry_id: number;
+	version: number;
+	name: string;
+	organism: string;
+	uniprot: string | null;
+	/** JSON array of structure identifiers. */
+	structure_ids: string;
+	revision: number;
+}
+
+export interface CentreTable {
+	entry_id: number;
+	version: number;
+	protein_entry_id: number;
+	label: string;
+	cofactor_kind: string;
+	ligation: string | null;
+	chain_id: string | null;
+	/** JSON array of residue numbers. */
+	residues: string;
+	revision: number;
+}
+
+export interface PotentialTable {
+	entry_id: number;
+	version: number;
+	centre_entry_id: number;
+	couple: string;
+	em_mv_she: number;
+	reported_value: number;
+	reported_unit: string;
+	reference_electrode: string;
+	ph: number | null;
+	temperature_k: number | null;
+	ionic_strength_m: number | null;
+	buffer: string | null;
+	method: string;
+	n_electrons: number;
+	uncertainty_mv: number | null;
+	source_entry_id: number | null;
+}
+
+export interface SpinRecordTable {
+	entry_id: number;
+	version: number;
+	centre_entry_id: number;
+	oxidation_level: string;
+	spin_s: number;
+	/** JSON array of principal g-values, largest first. */
+	g_values: string;
+	temperature_k: number | null;
+	method: string;
+	source_entry_id: number | null;
+}
+
+export interface DistanceTable {
+	entry_id: number;
+	version: number;
+	centre_a_entry_id: number;
+	centre_b_entry_id: number;
+	edge_to_edge_a: number;
+	centre_to_centre_a: number | null;
+	structure_id: string;
+	method: string;
+	source_entry_id: number | null;
+}
+
+export type EntryRow = Selectable<EntryTable>;
+export type EntryVersionRow = Selectable<EntryVersionTable>;

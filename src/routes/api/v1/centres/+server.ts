@@ -1,0 +1,16 @@
+import { centreCsvRow } from '$lib/catalogue/csvRows';
+import { centreApiQuerySchema } from '$lib/schemas/catalogueQuery';
+import { apiHandler } from '$lib/server/api/handler';
+import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
+import { listCentres } from '$lib/server/catalogue/lists';
+import { db } from '$lib/server/db';
+import type { RequestHandler } from './$types';
+
+/** GET /api/v1/centres — redox centres, by text, cofactor kind, organism and protein. */
+export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
+	const query = parseApiQuery(url, centreApiQuerySchema);
+	if (!query.ok) return badQuery(query.fields);
+	const { sort, order, limit, cursor, format, ...filter } = query.data;
+	const page = await listCentres(db, filter, { sort, order, limit, offset: offsetOf(cursor) }, locals.viewer);
+	return respondWithPage(url, page, format, centreCsvRow, 'centres');
+});

@@ -1,0 +1,16 @@
+import { proteinCsvRow } from '$lib/catalogue/csvRows';
+import { proteinApiQuerySchema } from '$lib/schemas/catalogueQuery';
+import { apiHandler } from '$lib/server/api/handler';
+import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
+import { listProteins } from '$lib/server/catalogue/lists';
+import { db } from '$lib/server/db';
+import type { RequestHandler } from './$types';
+
+/** GET /api/v1/proteins — proteins and complexes, by text and organism. */
+export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
+	const query = parseApiQuery(url, proteinApiQuerySchema);
+	if (!query.ok) return badQuery(query.fields);
+	const { sort, order, limit, cursor, format, ...filter } = query.data;
+	const page = await listProteins(db, filter, { sort, order, limit, offset: offsetOf(cursor) }, locals.viewer);
+	return respondWithPage(url, page, format, proteinCsvRow, 'proteins');
+});

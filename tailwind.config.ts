@@ -1,0 +1,32 @@
+import type { Config } from 'tailwindcss';
+
+// Hopline's visual identity lives here and nowhere else: a deep teal ink on warm paper,
+// amber for the electron (accent), rust and teal for oxidised and reduced levels.
+export default {
+	content: ['./src/**/*.{html,js,svelte,ts}'],
+	theme: {
+		extend: {
+			colors: {
+				ink: { DEFAULT: '#12343b', soft: '#3d5a60', faint: '#7b9296' },
+				paper: { DEFAULT: '#fbfaf6', deep: '#f1eee4', line: '#ddd8c8' },
+				spark: { DEFAULT: '#f2b33d', deep: '#b9801a', pale: '#fdf1d6' },
+				oxidised: '#b4532a',
+				reduced: '#2a7f8f',
+				caution: { DEFAULT: '#8a4b08', pale: '#fff4e0' },
+				danger: { DEFAULT: '#9b1c1c', pale: '#fdecec' }
+			},
+			fontFamily: {
+				sans: ['"Noto Sans"', 'system-ui', 'sans-serif'],
+				mono: ['ui-monospace', 'SFMono-Regular', 'Menlo', 'monospace']
+			},
+			fontSize: {
+				xs: ['0.75rem', '1.1rem'],
+				sm: ['0.875rem', '1.35rem'],
+				base: ['1rem', '1.6rem'],
+				lg: ['1.2rem', '1.75rem'],
+				xl: ['1.5rem', '2rem'],
+				'2xl': ['2rem', '2.5rem']
+			}
+		}
+	}
+} satisfies Config;
