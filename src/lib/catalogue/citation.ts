@@ -35,11 +35,13 @@ function dateParts(d: Date): [number, number, number] {
 
 /** Escapes the characters BibTeX treats specially in field values. */
 export function escapeBibtex(text: string): string {
-	return text
-		.replace(/\\/g, '\\textbackslash{}')
-		.replace(/([{}%&#_$])/g, '\\$1')
-		.replace(/~/g, '\\textasciitilde{}')
-		.replace(/\^/g, '\\textasciicircum{}');
+	// One pass, so that the braces of a replacement are never escaped again.
+	const replacements: Record<string, string> = {
+		'\\': '\\textbackslash{}',
+		'~': '\\textasciitilde{}',
+		'^': '\\textasciicircum{}'
+	};
+	return text.replace(/[\\{}%&#_$~^]/g, (ch) => replacements[ch] ?? `\\${ch}`);
 }
 
 /** RIS values are single lines; line breaks would start a new tag. */

@@ -49,6 +49,12 @@ const accessors: Record<PotentialColumn, (p: PotentialDto) => string | number | 
 
 export const columns = helper.columns(
 	(Object.keys(COLUMN_LABELS) as PotentialColumn[]).map((id) =>
-		helper.accessor(accessors[id], { id, header: COLUMN_LABELS[id], enableSorting: sortable(id) })
+		helper.accessor(accessors[id], {
+			id,
+			header: COLUMN_LABELS[id],
+			enableSorting: sortable(id),
+			// A first click always sorts ascending (most negative Em first), whatever the column holds.
+			sortDescFirst: false
+		})
 	)
 );

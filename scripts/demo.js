@@ -1,0 +1,38 @@
+// `npm run demo`: builds the app, then serves it on an embedded SQLite file loaded with the
+// invented demo scenario (migrated and seeded at start-up when empty), and prints the URL.
+import { spawn, spawnSync } from 'node:child_process';
+
+const port = process.env.PORT ?? '3000';
+const host = process.env.HOST ?? '127.0.0.1';
+const origin = process.env.ORIGIN ?? `http://${host === '0.0.0.0' ? '127.0.0.1' : host}:${port}`;
+
+const build = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], { stdio: 'inherit' });
+if (build.status !== 0) process.exit(build.status ?? 1);
+
+const server = spawn(process.execPath, ['build'], {
+	stdio: ['ignore', 'inherit', 'inherit'],
+	env: {
+		...process.env,
+		PORT: port,
+		HOST: host,
+		ORIGIN: origin,
+		HOPLINE_DEMO: 'true',
+		DATABASE_PATH: process.env.DATABASE_PATH ?? './data/demo.sqlite'
+	}
+});
+for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => server.kill(signal));
+server.on('exit', (code) => process.exit(code ?? 0));
+
+// Say where to go once the server answers.
+for (let i = 0; i < 100; i++) {
+	try {
+		const res = await fetch(`${origin}/api/v1/facets`);
+		if (res.ok) {
+			console.log(`\nHopline demo is running at ${origin}  (Ctrl+C stops it)\n`);
+			break;
+		}
+	} catch {
+		// not listening yet
+	}
+	await new Promise((r) => setTimeout(r, 300));
+}

@@ -1,0 +1,118 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
+import type { PotentialDto, Page as ApiPage } from '$lib/catalogue/dto';
+import { launchChromium } from '../support/browser';
+
+const base = inject('baseUrl');
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+
+beforeAll(async () => {
+	browser = await launchChromium();
+});
+afterAll(async () => browser?.close());
+beforeEach(async () => {
+	await context?.close();
+	context = await browser.newContext({ baseURL: base });
+	await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: base });
+	page = await context.newPage();
+});
+
+async function emColumn(): Promise<number[]> {
+	const texts = await page.locator('tbody tr td:nth-child(7) span.font-medium').allTextContents();
+	return texts.map((t) => Number(t.replace('−', '-').replace(/[^\d.-]/g, '')));
+}
+
+describe('catalogue in Chromium', () => {
+	it('searches a cofactor kind from the home page', async () => {
+		await page.goto('/');
+		await page.getByRole('link', { name: '[4Fe-4S]', exact: true }).click();
+		await page.waitForURL(/\/search\?kind=fe4s4/);
+		const kinds = await page.locator('tbody tr td:nth-child(5)').allTextContents();
+		expect(kinds.length).toBeGreaterThan(0);
+		expect(new Set(kinds.map((k) => k.trim()))).toEqual(new Set(['[4Fe-4S]']));
+		await page.screenshot({ path: 'test-results/search-kind.png', fullPage: true });
+	});
+
+	it('filters by Em range, fetching rows from the read API in the browser', async () => {
+		await page.goto('/search?kind=fe4s4');
+		await page.getByLabel('from').first().waitFor();
+		await page.locator('input[name=emMin]').fill('-300');
+		await page.locator('input[name=emMax]').fill('-200');
+		const apiCall = page.waitForRequest((r) => r.url().includes('/api/v1/potentials') && r.url().includes('emMin=-300'));
+		await page.getByRole('button', { name: 'Apply filters' }).click();
+		await apiCall;
+		await page.waitForURL(/emMin=-300/);
+		const values = await emColumn();
+		expect(values.length).toBeGreaterThan(0);
+		for (const v of values) {
+			expect(v).toBeGreaterThanOrEqual(-300);
+			expect(v).toBeLessThanOrEqual(-200);
+		}
+		// Sorting by a column header keeps the filters and puts the order in the URL.
+		await page.getByRole('button', { name: /Em \(mV vs SHE\)/ }).click();
+		await page.waitForURL(/sort=em/);
+		await page.waitForFunction(() => document.querySelector('th[aria-sort="ascending"]') !== null);
+		const sorted = await emColumn();
+		expect(sorted).toEqual([...sorted].sort((a, b) => a - b));
+		expect(page.url()).toContain('emMax=-200');
+	});
+
+	it('hides a column and keeps that in a shareable URL', async () => {
+		await page.goto('/search');
+		await page.getByText('Columns').click();
+		await page.getByLabel('Organism', { exact: true }).last().uncheck();
+		await page.waitForURL(/hide=organism/);
+		const shared = page.url();
+		const other = await context.newPage();
+		await other.goto(shared);
+		await expect(other.locator('thead th', { hasText: 'Organism' }).count()).resolves.toBe(0);
+	});
+
+	it('opens an entry, then an older version by permalink, and copies its BibTeX', async () => {
+		const list = (await (await fetch(`${base}/api/v1/potentials?limit=500`)).json()) as ApiPage<PotentialDto>;
+		const revised = list.items.find((p) => p.version >= 3);
+		expect(revised, 'the demo has an entry with three versions').toBeDefined();
+		const accession = revised?.accession ?? '';
+
+		await page.goto(`/search?q=${accession}`);
+		await page.getByRole('link', { name: accession, exact: true }).click();
+		await page.waitForURL(new RegExp(`/e/${accession}$`));
+		await expect(page.getByTestId('entry-version').textContent()).resolves.toBe(`version ${revised?.version}`);
+		await expect(page.getByTestId('newer-version-notice').count()).resolves.toBe(0);
+
+		await page.goto(`/e/${accession}/v1`);
+		await expect(page.getByTestId('entry-version').textContent()).resolves.toBe('version 1');
+		await expect(page.getByTestId('newer-version-notice').textContent()).resolves.toContain(
+			`newer version exists: version ${revised?.version}`
+		);
+		await page.getByRole('button', { name: 'Copy' }).click();
+		await page.getByRole('button', { name: 'Copied' }).waitFor();
+		const clipboard = await page.evaluate(() => navigator.clipboard.readText());
+		expect(clipboard).toMatch(new RegExp(`^@misc\\{hopline_${accession}_v1,`));
+		expect(clipboard).toContain(`url = {${base}/e/${accession}/v1}`);
+		expect(clipboard).toContain(`urldate = {${new Date().toISOString().slice(0, 10)}}`);
+		await page.screenshot({ path: 'test-results/old-version.png', fullPage: true });
+
+		await page.getByRole('link', { name: 'what changed' }).click();
+		await page.getByTestId('diff-table').waitFor();
+		await expect(page.getByTestId('diff-table').textContent()).resolves.toContain('Value as reported');
+	});
+
+	it('shows a 404 page with a search box for an unknown accession', async () => {
+		const response = await page.goto('/e/HL999999');
+		expect(response?.status()).toBe(404);
+		await expect(page.getByRole('search').count()).resolves.toBe(1);
+		const v = await page.goto('/e/HL000001/v77');
+		expect(v?.status()).toBe(404);
+	});
+
+	it('explains malformed filters on the page', async () => {
+		const response = await page.goto('/search?emMin=cold&phMax=99');
+		expect(response?.status()).toBe(400);
+		const text = await page.locator('main').textContent();
+		expect(text).toContain('emMin');
+		expect(text).toContain('phMax');
+	});
+});
