@@ -9,7 +9,12 @@ const config = {
 		typescript: {
 			// Type-check the scripts, seed and benchmarks with the app.
 			config: (tsconfig) => {
-				tsconfig.include.push('../seed/**/*.ts', '../scripts/**/*.ts', '../bench/**/*.ts');
+				tsconfig.include.push(
+					'../seed/**/*.ts',
+					'../scripts/**/*.ts',
+					'../bench/**/*.ts',
+					'../tailwind.config.ts'
+				);
 				return tsconfig;
 			}
 		},

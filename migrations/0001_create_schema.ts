@@ -356,15 +356,30 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addColumn('residues', 'text', (c) => c.notNull())
 		.addColumn('revision', 'integer', (c) => c.notNull())
 		.execute();
-	await db.schema.createIndex('centre_by_protein').on('centre').column('protein_entry_id').execute();
+	await db.schema
+		.createIndex('centre_by_protein')
+		.on('centre')
+		.column('protein_entry_id')
+		.execute();
 	await db.schema.createIndex('centre_by_kind').on('centre').column('cofactor_kind').execute();
 	await db.schema.createIndex('centre_by_revision').on('centre').column('revision').execute();
 
+	// Potentials are the rows people search, so their read model also carries what the search
+	// filters and sorts on (centre, protein, organism) and when the row became visible to all,
+	// so that a search touches one table. Kept in step by the projection on every approval.
 	await db.schema
 		.createTable('potential')
 		.addColumn('entry_id', 'integer', (c) => c.primaryKey().references('entry.id'))
+		.addColumn('accession', 'text', (c) => c.notNull())
 		.addColumn('version', 'integer', (c) => c.notNull())
 		.addColumn('centre_entry_id', 'integer', (c) => c.notNull().references('entry.id'))
+		.addColumn('centre_accession', 'text', (c) => c.notNull())
+		.addColumn('centre_label', 'text', (c) => c.notNull())
+		.addColumn('cofactor_kind', 'text', (c) => c.notNull())
+		.addColumn('protein_entry_id', 'integer', (c) => c.notNull().references('entry.id'))
+		.addColumn('protein_accession', 'text', (c) => c.notNull())
+		.addColumn('protein_name', 'text', (c) => c.notNull())
+		.addColumn('organism', 'text', (c) => c.notNull())
 		.addColumn('couple', 'text', (c) => c.notNull())
 		.addColumn('em_mv_she', 'real', (c) => c.notNull())
 		.addColumn('reported_value', 'real', (c) => c.notNull())
@@ -378,11 +393,42 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addColumn('n_electrons', 'integer', (c) => c.notNull())
 		.addColumn('uncertainty_mv', 'real')
 		.addColumn('source_entry_id', 'integer', (c) => c.references('entry.id'))
+		.addColumn('is_demo', 'integer', (c) => c.notNull())
+		// When the potential, its centre and its protein are all visible to everyone (ISO 8601);
+		// null while any of them is group-only. Group members also see rows of group_id.
+		.addColumn('public_from', 'text')
+		.addColumn('group_id', 'integer', (c) => c.references('research_group.id'))
 		.execute();
-	await db.schema.createIndex('potential_by_centre').on('potential').column('centre_entry_id').execute();
-	await db.schema.createIndex('potential_by_em').on('potential').column('em_mv_she').execute();
-	await db.schema.createIndex('potential_by_ph').on('potential').column('ph').execute();
-	await db.schema.createIndex('potential_by_method').on('potential').column('method').execute();
+	const potentialIndexes: [string, string[]][] = [
+		['potential_by_centre', ['centre_entry_id']],
+		['potential_by_protein', ['protein_entry_id']],
+		['potential_by_em', ['em_mv_she']],
+		['potential_by_kind_em', ['cofactor_kind', 'em_mv_she']],
+		['potential_by_name', ['protein_name', 'centre_label', 'couple', 'entry_id']],
+		['potential_by_organism', ['organism']],
+		['potential_by_ph', ['ph']],
+		['potential_by_temperature', ['temperature_k']],
+		['potential_by_method', ['method']],
+		['potential_by_accession', ['accession']],
+		// Covers every filter of a search, so counting matches never reads the wide table rows.
+		[
+			'potential_filter_cover',
+			[
+				'public_from',
+				'em_mv_she',
+				'ph',
+				'temperature_k',
+				'cofactor_kind',
+				'method',
+				'organism',
+				'centre_entry_id',
+				'group_id'
+			]
+		]
+	];
+	for (const [name, columns] of potentialIndexes) {
+		await db.schema.createIndex(name).on('potential').columns(columns).execute();
+	}
 
 	await db.schema
 		.createTable('spin_record')

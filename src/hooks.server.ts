@@ -26,6 +26,7 @@ export const handle: Handle = sequence(attachRequestFacts);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	const errorId = event.locals.requestId ?? crypto.randomUUID();
-	if (status >= 500) console.error(`[${errorId}] ${event.request.method} ${event.url.pathname}`, error);
+	if (status >= 500)
+		console.error(`[${errorId}] ${event.request.method} ${event.url.pathname}`, error);
 	return { message: status >= 500 ? 'Something went wrong on our side.' : message, errorId };
 };

@@ -22,7 +22,9 @@ describe('read API over HTTP (production build)', () => {
 		let path: string | null = '/api/v1/potentials?limit=7';
 		let total = 0;
 		while (path) {
-			const body = (await (await get(path)).json()) as Page<PotentialDto> & { links: { next: string | null } };
+			const body = (await (await get(path)).json()) as Page<PotentialDto> & {
+				links: { next: string | null };
+			};
 			total = body.total;
 			for (const p of body.items) seen.add(p.accession);
 			path = body.links.next;
@@ -30,11 +32,19 @@ describe('read API over HTTP (production build)', () => {
 		expect(seen.size).toBe(total);
 	});
 	it('answers bad parameters with 400 naming each field', async () => {
-		const res = await get('/api/v1/potentials?emMin=low&phMax=15&kind=fe5s5&sort=colour&limit=9999');
+		const res = await get(
+			'/api/v1/potentials?emMin=low&phMax=15&kind=fe5s5&sort=colour&limit=9999'
+		);
 		expect(res.status).toBe(400);
 		const body = (await res.json()) as ApiErrorBody;
 		expect(body.error.code).toBe('bad_request');
-		expect(Object.keys(body.error.fields ?? {}).sort()).toEqual(['emMin', 'kind', 'limit', 'phMax', 'sort']);
+		expect(Object.keys(body.error.fields ?? {}).sort()).toEqual([
+			'emMin',
+			'kind',
+			'limit',
+			'phMax',
+			'sort'
+		]);
 	});
 	it('answers an unknown accession or version with 404 in the same shape', async () => {
 		const missing = await get('/api/v1/entries/HL999999');
@@ -58,14 +68,26 @@ describe('read API over HTTP (production build)', () => {
 		expect(rows).toHaveLength(5);
 	});
 	it('serves other resources with their own filters', async () => {
-		for (const path of ['/api/v1/proteins', '/api/v1/centres?kind=heme_c', '/api/v1/spin-records?spin=0.5', '/api/v1/distances?edgeMax=10']) {
+		for (const path of [
+			'/api/v1/proteins',
+			'/api/v1/centres?kind=heme_c',
+			'/api/v1/spin-records?spin=0.5',
+			'/api/v1/distances?edgeMax=10'
+		]) {
 			const res = await get(path);
 			expect(res.status, path).toBe(200);
 			expect(((await res.json()) as Page<unknown>).total, path).toBeGreaterThan(0);
 		}
 	});
 	it('never crashes a page on odd URLs', async () => {
-		for (const path of ['/search?emMin=%00', '/search?page=-1', '/search?kind=' + 'x'.repeat(5000), '/e/HL000001/v0', '/e/%E0%A4%A', '/search?q=%5B%5D%28%29%2A']) {
+		for (const path of [
+			'/search?emMin=%00',
+			'/search?page=-1',
+			'/search?kind=' + 'x'.repeat(5000),
+			'/e/HL000001/v0',
+			'/e/%E0%A4%A',
+			'/search?q=%5B%5D%28%29%2A'
+		]) {
 			const res = await get(path);
 			expect(res.status, path).toBeLessThan(500);
 		}

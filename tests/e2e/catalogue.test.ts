@@ -40,7 +40,9 @@ describe('catalogue in Chromium', () => {
 		await page.getByLabel('from').first().waitFor();
 		await page.locator('input[name=emMin]').fill('-300');
 		await page.locator('input[name=emMax]').fill('-200');
-		const apiCall = page.waitForRequest((r) => r.url().includes('/api/v1/potentials') && r.url().includes('emMin=-300'));
+		const apiCall = page.waitForRequest(
+			(r) => r.url().includes('/api/v1/potentials') && r.url().includes('emMin=-300')
+		);
 		await page.getByRole('button', { name: 'Apply filters' }).click();
 		await apiCall;
 		await page.waitForURL(/emMin=-300/);
@@ -71,7 +73,9 @@ describe('catalogue in Chromium', () => {
 	});
 
 	it('opens an entry, then an older version by permalink, and copies its BibTeX', async () => {
-		const list = (await (await fetch(`${base}/api/v1/potentials?limit=500`)).json()) as ApiPage<PotentialDto>;
+		const list = (await (
+			await fetch(`${base}/api/v1/potentials?limit=500`)
+		).json()) as ApiPage<PotentialDto>;
 		const revised = list.items.find((p) => p.version >= 3);
 		expect(revised, 'the demo has an entry with three versions').toBeDefined();
 		const accession = revised?.accession ?? '';
@@ -79,7 +83,9 @@ describe('catalogue in Chromium', () => {
 		await page.goto(`/search?q=${accession}`);
 		await page.getByRole('link', { name: accession, exact: true }).click();
 		await page.waitForURL(new RegExp(`/e/${accession}$`));
-		await expect(page.getByTestId('entry-version').textContent()).resolves.toBe(`version ${revised?.version}`);
+		await expect(page.getByTestId('entry-version').textContent()).resolves.toBe(
+			`version ${revised?.version}`
+		);
 		await expect(page.getByTestId('newer-version-notice').count()).resolves.toBe(0);
 
 		await page.goto(`/e/${accession}/v1`);
@@ -97,7 +103,9 @@ describe('catalogue in Chromium', () => {
 
 		await page.getByRole('link', { name: 'what changed' }).click();
 		await page.getByTestId('diff-table').waitFor();
-		await expect(page.getByTestId('diff-table').textContent()).resolves.toContain('Value as reported');
+		await expect(page.getByTestId('diff-table').textContent()).resolves.toContain(
+			'Value as reported'
+		);
 	});
 
 	it('shows a 404 page with a search box for an unknown accession', async () => {

@@ -28,7 +28,8 @@ async function freePort(): Promise<number> {
  * scenario, for the HTTP and browser tests. `npm test` builds before it runs.
  */
 export default async function setup(project: TestProject) {
-	if (!existsSync('build/index.js')) throw new Error('No production build: run `npm run build` first.');
+	if (!existsSync('build/index.js'))
+		throw new Error('No production build: run `npm run build` first.');
 	const dir = mkdtempSync(join(tmpdir(), 'hopline-e2e-'));
 	const port = await freePort();
 	const baseUrl = `http://127.0.0.1:${port}`;

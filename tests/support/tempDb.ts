@@ -7,7 +7,11 @@ import { migrateToLatest } from '$lib/server/db/migrate';
 import type { Database } from '$lib/server/db/schema';
 
 /** A fresh SQLite file migrated by the production migration path; remove() deletes it. */
-export async function createTempDatabase(): Promise<{ db: Kysely<Database>; path: string; remove: () => Promise<void> }> {
+export async function createTempDatabase(): Promise<{
+	db: Kysely<Database>;
+	path: string;
+	remove: () => Promise<void>;
+}> {
 	const dir = mkdtempSync(join(tmpdir(), 'hopline-test-'));
 	const path = join(dir, 'test.sqlite');
 	const db = openDatabase(path);

@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { accessionNumber, formatAccession, isAccession, parseVersionSegment, permalinkPath } from '$lib/schemas/accession';
+import {
+	accessionNumber,
+	formatAccession,
+	isAccession,
+	parseVersionSegment,
+	permalinkPath
+} from '$lib/schemas/accession';
 import { match as matchAccession } from '../../src/params/accession';
 import { match as matchVersion } from '../../src/params/version';
 import { decodeCursor, encodeCursor } from '$lib/schemas/pagination';
@@ -12,7 +18,8 @@ describe('accessions', () => {
 	});
 	it('recognises only the exact form', () => {
 		expect(isAccession('HL000001')).toBe(true);
-		for (const bad of ['HL1', 'hl000001', 'HL0000001', 'HL00000A', ' HL000001']) expect(isAccession(bad)).toBe(false);
+		for (const bad of ['HL1', 'hl000001', 'HL0000001', 'HL00000A', ' HL000001'])
+			expect(isAccession(bad)).toBe(false);
 	});
 	it('reads the number back', () => expect(accessionNumber('HL000042')).toBe(42));
 	it('builds permalinks', () => {
@@ -37,6 +44,7 @@ describe('route matchers', () => {
 describe('cursors', () => {
 	it('round-trip an offset', () => expect(decodeCursor(encodeCursor(300))).toBe(300));
 	it('reject anything else', () => {
-		for (const bad of ['', 'abc', '!!', encodeCursor(1).slice(1), btoa('o:-1')]) expect(decodeCursor(bad)).toBeNull();
+		for (const bad of ['', 'abc', '!!', encodeCursor(1).slice(1), btoa('o:-1')])
+			expect(decodeCursor(bad)).toBeNull();
 	});
 });

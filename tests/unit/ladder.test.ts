@@ -14,7 +14,11 @@ const centre = (n: number): CentreDto => ({
 	residues: [],
 	isDemo: false
 });
-const ref = (c: CentreDto) => ({ accession: c.accession, label: c.label, cofactorKind: c.cofactorKind });
+const ref = (c: CentreDto) => ({
+	accession: c.accession,
+	label: c.label,
+	cofactorKind: c.cofactorKind
+});
 const potential = (c: CentreDto, em: number, ph: number): PotentialDto => ({
 	accession: `HL0002${c.accession.slice(-2)}${ph}`,
 	version: 1,
@@ -48,11 +52,22 @@ const distance = (a: CentreDto, b: CentreDto, edge: number): DistanceDto => ({
 });
 
 describe('energy ladder', () => {
-	const [c1, c2, c3, c4, c5] = [1, 2, 3, 4, 5].map(centre) as [CentreDto, CentreDto, CentreDto, CentreDto, CentreDto];
+	const [c1, c2, c3, c4, c5] = [1, 2, 3, 4, 5].map(centre) as [
+		CentreDto,
+		CentreDto,
+		CentreDto,
+		CentreDto,
+		CentreDto
+	];
 	it('follows the longest chain, from the low-potential end, skipping hops over 14 Å', () => {
 		const ladder = buildLadder(
 			[c3, c1, c2, c4, c5],
-			[potential(c1, 50, 7), potential(c2, -100, 7), potential(c3, -300, 7), potential(c4, -200, 7)],
+			[
+				potential(c1, 50, 7),
+				potential(c2, -100, 7),
+				potential(c3, -300, 7),
+				potential(c4, -200, 7)
+			],
 			[distance(c1, c2, 9), distance(c2, c3, 11), distance(c3, c4, 8), distance(c4, c5, 20)]
 		);
 		expect(ladder.steps.map((s) => s.label)).toEqual(['C4', 'C3', 'C2', 'C1']);
@@ -60,7 +75,11 @@ describe('energy ladder', () => {
 		expect(ladder.branches.map((b) => b.label)).toEqual(['C5']);
 	});
 	it('takes the potential nearest pH 7 as representative', () => {
-		const ladder = buildLadder([c1, c2], [potential(c1, -400, 9), potential(c1, -350, 7.2)], [distance(c1, c2, 10)]);
+		const ladder = buildLadder(
+			[c1, c2],
+			[potential(c1, -400, 9), potential(c1, -350, 7.2)],
+			[distance(c1, c2, 10)]
+		);
 		expect(ladder.steps.find((s) => s.label === 'C1')?.emMv).toBe(-350);
 	});
 });

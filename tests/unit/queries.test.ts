@@ -4,7 +4,8 @@ import { parseSearchParams } from '$lib/schemas/searchParams';
 import { apiParamsForPage, searchHref } from '$lib/catalogue/searchUrl';
 import { decodeCursor } from '$lib/schemas/pagination';
 
-const parse = (qs: string) => parseSearchParams(potentialApiQuery, new URLSearchParams(qs), LIST_KEYS);
+const parse = (qs: string) =>
+	parseSearchParams(potentialApiQuery, new URLSearchParams(qs), LIST_KEYS);
 
 describe('catalogue query parameters', () => {
 	it('accepts lists as repeats or commas', () => {
@@ -26,12 +27,17 @@ describe('catalogue query parameters', () => {
 		expect(!r.ok && r.fields.emMin?.[0]).toMatch(/more than once/);
 	});
 	it('rejects cursors it did not issue', () => expect(parse('cursor=zzz').ok).toBe(false));
-	it('ignores empty values, as an empty form field sends', () => expect(parse('emMin=&q=').ok).toBe(true));
+	it('ignores empty values, as an empty form field sends', () =>
+		expect(parse('emMin=&q=').ok).toBe(true));
 });
 
 describe('search page URL state', () => {
 	it('maps page and size onto limit and cursor', () => {
-		const r = parseSearchParams(potentialPageQuery, new URLSearchParams('kind=fe4s4&page=3&size=50'), LIST_KEYS);
+		const r = parseSearchParams(
+			potentialPageQuery,
+			new URLSearchParams('kind=fe4s4&page=3&size=50'),
+			LIST_KEYS
+		);
 		expect(r.ok).toBe(true);
 		if (!r.ok) return;
 		const api = apiParamsForPage(r.data);

@@ -13,10 +13,14 @@ describe('reference electrode offsets at 25 °C', () => {
 	// Bard & Faulkner, Electrochemical Methods, 2nd ed. (2001), Table C.2: SCE 0.2412 V vs SHE (from memory).
 	it('SCE is +241.2 mV vs SHE', () => expect(electrodeOffsetMv('SCE')).toBeCloseTo(241.2, 6));
 	// Sawyer, Sobkowiak & Roberts, Electrochemistry for Chemists, 2nd ed. (1995), Table 5.1 (from memory).
-	it('Ag/AgCl in saturated KCl is +197 mV vs SHE', () => expect(electrodeOffsetMv('AgAgCl_sat')).toBe(197));
-	it('Ag/AgCl in 3 M KCl is +210 mV vs SHE', () => expect(electrodeOffsetMv('AgAgCl_3M')).toBe(210));
-	it('Ag/AgCl in 3.5 M KCl is +205 mV vs SHE', () => expect(electrodeOffsetMv('AgAgCl_3.5M')).toBe(205));
-	it('Ag/AgCl in 1 M KCl is +235 mV vs SHE', () => expect(electrodeOffsetMv('AgAgCl_1M')).toBe(235));
+	it('Ag/AgCl in saturated KCl is +197 mV vs SHE', () =>
+		expect(electrodeOffsetMv('AgAgCl_sat')).toBe(197));
+	it('Ag/AgCl in 3 M KCl is +210 mV vs SHE', () =>
+		expect(electrodeOffsetMv('AgAgCl_3M')).toBe(210));
+	it('Ag/AgCl in 3.5 M KCl is +205 mV vs SHE', () =>
+		expect(electrodeOffsetMv('AgAgCl_3.5M')).toBe(205));
+	it('Ag/AgCl in 1 M KCl is +235 mV vs SHE', () =>
+		expect(electrodeOffsetMv('AgAgCl_1M')).toBe(235));
 	// NHE taken equal to SHE: common practice, no source.
 	it('NHE equals SHE', () => expect(electrodeOffsetMv('NHE')).toBe(0));
 });
@@ -32,7 +36,8 @@ describe('SCE temperature law', () => {
 });
 
 describe('toSHE / fromSHE', () => {
-	it('converts a potential vs Ag/AgCl (sat. KCl) to SHE', () => expect(toSHE(-600, 'AgAgCl_sat')).toBe(-403));
+	it('converts a potential vs Ag/AgCl (sat. KCl) to SHE', () =>
+		expect(toSHE(-600, 'AgAgCl_sat')).toBe(-403));
 	it('converts from SHE to SCE', () => expect(fromSHE(0, 'SCE')).toBeCloseTo(-241.2, 9));
 	it('rejects an unknown electrode', () =>
 		expect(() => toSHE(0, 'Hg/HgO' as never)).toThrow(/unknown reference electrode/));
@@ -52,7 +57,8 @@ describe('toSHE / fromSHE', () => {
 describe('units and constants', () => {
 	it('converts volts to millivolts', () => expect(potentialToMv(-0.42, 'V')).toBeCloseTo(-420, 9));
 	it('converts °C to K', () => expect(temperatureToK(25, 'C')).toBeCloseTo(298.15, 9));
-	it('rejects temperatures below absolute zero', () => expect(() => temperatureToK(-300, 'C')).toThrow(RangeError));
+	it('rejects temperatures below absolute zero', () =>
+		expect(() => temperatureToK(-300, 'C')).toThrow(RangeError));
 	// CODATA 2018: F = 96 485.332 12 C/mol, R = 8.314 462 618 J/(mol K) (both exact).
 	it('derives F and R to CODATA 2018', () => {
 		expect(FARADAY_C_PER_MOL).toBeCloseTo(96485.33212, 4);

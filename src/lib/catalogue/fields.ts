@@ -1,5 +1,8 @@
 import { formatAngstrom, formatKelvin, formatMv, formatSpin } from '$lib/format';
-import { REFERENCE_ELECTRODE_LABELS, type ReferenceElectrode } from '$lib/science/referenceElectrodes';
+import {
+	REFERENCE_ELECTRODE_LABELS,
+	type ReferenceElectrode
+} from '$lib/science/referenceElectrodes';
 import {
 	COFACTOR_KIND_LABELS,
 	DISTANCE_METHOD_LABELS,
@@ -64,7 +67,8 @@ export function fieldLabel(field: string): string {
 
 /** A field's value as text with its unit; null/empty shows as an em dash. */
 export function formatField(field: string, value: unknown, kind?: string): string {
-	if (value === null || value === undefined || (Array.isArray(value) && value.length === 0)) return '—';
+	if (value === null || value === undefined || (Array.isArray(value) && value.length === 0))
+		return '—';
 	switch (field) {
 		case 'emMvShe':
 			return `${formatMv(value as number, 1)} vs SHE`;

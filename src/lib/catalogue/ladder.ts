@@ -51,7 +51,10 @@ function representative(potentials: PotentialDto[]): PotentialDto | null {
 	return best;
 }
 
-function farthest(start: string, adjacency: Map<string, string[]>): { node: string; parent: Map<string, string> } {
+function farthest(
+	start: string,
+	adjacency: Map<string, string[]>
+): { node: string; parent: Map<string, string> } {
 	const parent = new Map<string, string>();
 	const seen = new Set([start]);
 	let queue = [start];
@@ -72,9 +75,14 @@ function farthest(start: string, adjacency: Map<string, string[]>): { node: stri
 	return { node: last, parent };
 }
 
-export function buildLadder(centres: CentreDto[], potentials: PotentialDto[], distances: DistanceDto[]): Ladder {
+export function buildLadder(
+	centres: CentreDto[],
+	potentials: PotentialDto[],
+	distances: DistanceDto[]
+): Ladder {
 	const byCentre = new Map<string, PotentialDto[]>();
-	for (const p of potentials) byCentre.set(p.centre.accession, [...(byCentre.get(p.centre.accession) ?? []), p]);
+	for (const p of potentials)
+		byCentre.set(p.centre.accession, [...(byCentre.get(p.centre.accession) ?? []), p]);
 	const step = (c: CentreDto): LadderStep => {
 		const p = representative(byCentre.get(c.accession) ?? []);
 		return {
@@ -109,7 +117,8 @@ export function buildLadder(centres: CentreDto[], potentials: PotentialDto[], di
 		const end = farthest(c.accession, adjacency).node;
 		const { node: other, parent } = farthest(end, adjacency);
 		const candidate = [other];
-		while (candidate.at(-1) !== end) candidate.push(parent.get(candidate.at(-1) as string) as string);
+		while (candidate.at(-1) !== end)
+			candidate.push(parent.get(candidate.at(-1) as string) as string);
 		for (const id of parent.keys()) covered.add(id);
 		covered.add(end);
 		if (candidate.length > path.length) path = candidate;

@@ -3,7 +3,20 @@ import { encodeCursor } from '$lib/schemas/pagination';
 
 /** Translating the search page's URL state into API requests and new page URLs. */
 
-const FILTER_KEYS = ['q', 'kind', 'organism', 'method', 'emMin', 'emMax', 'phMin', 'phMax', 'tMin', 'tMax', 'protein', 'centre'] as const;
+const FILTER_KEYS = [
+	'q',
+	'kind',
+	'organism',
+	'method',
+	'emMin',
+	'emMax',
+	'phMin',
+	'phMax',
+	'tMin',
+	'tMax',
+	'protein',
+	'centre'
+] as const;
 
 /** The API query that returns exactly the rows the search page shows. */
 export function apiParamsForPage(query: PotentialPageQuery): URLSearchParams {

@@ -12,7 +12,11 @@ import { COFACTOR_KINDS, DISTANCE_METHODS, POTENTIAL_METHODS, SPIN_METHODS } fro
 export const LIST_KEYS = ['kind', 'organism', 'method', 'hide'] as const;
 
 const text = z.string().trim().max(200, 'at most 200 characters');
-const kinds = z.array(z.enum(COFACTOR_KINDS, { error: `expected a cofactor kind: ${COFACTOR_KINDS.join(', ')}` })).max(COFACTOR_KINDS.length);
+const kinds = z
+	.array(
+		z.enum(COFACTOR_KINDS, { error: `expected a cofactor kind: ${COFACTOR_KINDS.join(', ')}` })
+	)
+	.max(COFACTOR_KINDS.length);
 const organisms = z.array(text).max(20, 'at most 20 organisms');
 
 const emBound = queryNumber(-2000, 2000, ' mV');
@@ -24,7 +28,10 @@ function ordered(
 	highKey: string
 ): [(v: Record<string, unknown>) => boolean, { path: string[]; message: string }] {
 	return [
-		(v) => typeof v[lowKey] !== 'number' || typeof v[highKey] !== 'number' || (v[lowKey] as number) <= (v[highKey] as number),
+		(v) =>
+			typeof v[lowKey] !== 'number' ||
+			typeof v[highKey] !== 'number' ||
+			(v[lowKey] as number) <= (v[highKey] as number),
 		{ path: [lowKey], message: `${lowKey} must not exceed ${highKey}` }
 	];
 }
@@ -33,7 +40,11 @@ export const potentialFilterSchema = z.object({
 	q: text.optional(),
 	kind: kinds.optional(),
 	organism: organisms.optional(),
-	method: z.array(z.enum(POTENTIAL_METHODS, { error: `expected a method: ${POTENTIAL_METHODS.join(', ')}` })).optional(),
+	method: z
+		.array(
+			z.enum(POTENTIAL_METHODS, { error: `expected a method: ${POTENTIAL_METHODS.join(', ')}` })
+		)
+		.optional(),
 	emMin: emBound.optional(),
 	emMax: emBound.optional(),
 	phMin: phBound.optional(),
@@ -63,7 +74,10 @@ const order = z.enum(['asc', 'desc'], { error: 'expected asc or desc' });
 const cursor = z
 	.string()
 	.max(64)
-	.refine((c) => decodeCursor(c) !== null, 'not a cursor issued by this API; pass nextCursor back unchanged');
+	.refine(
+		(c) => decodeCursor(c) !== null,
+		'not a cursor issued by this API; pass nextCursor back unchanged'
+	);
 const format = z.enum(['json', 'csv'], { error: 'expected json or csv' });
 
 export const API_DEFAULT_LIMIT = 100;
@@ -78,7 +92,9 @@ function withOrderedBounds<T extends z.ZodObject>(schema: T) {
 }
 
 export const potentialApiQuerySchema = potentialFilterSchema.extend({
-	sort: z.enum(POTENTIAL_SORTS, { error: `expected one of ${POTENTIAL_SORTS.join(', ')}` }).optional(),
+	sort: z
+		.enum(POTENTIAL_SORTS, { error: `expected one of ${POTENTIAL_SORTS.join(', ')}` })
+		.optional(),
 	order: order.optional(),
 	limit: limit.default(API_DEFAULT_LIMIT),
 	cursor: cursor.optional(),
@@ -107,14 +123,23 @@ export type PotentialColumn = (typeof POTENTIAL_COLUMNS)[number];
 export const PAGE_SIZES = [25, 50, 100] as const;
 
 export const potentialPageQuerySchema = potentialFilterSchema.extend({
-	sort: z.enum(POTENTIAL_SORTS, { error: `expected one of ${POTENTIAL_SORTS.join(', ')}` }).optional(),
+	sort: z
+		.enum(POTENTIAL_SORTS, { error: `expected one of ${POTENTIAL_SORTS.join(', ')}` })
+		.optional(),
 	order: order.optional(),
 	page: queryInteger(1, 100_000).default(1),
 	size: z.coerce
 		.number()
-		.refine((n) => (PAGE_SIZES as readonly number[]).includes(n), `expected one of ${PAGE_SIZES.join(', ')}`)
+		.refine(
+			(n) => (PAGE_SIZES as readonly number[]).includes(n),
+			`expected one of ${PAGE_SIZES.join(', ')}`
+		)
 		.default(25),
-	hide: z.array(z.enum(POTENTIAL_COLUMNS, { error: `expected column names: ${POTENTIAL_COLUMNS.join(', ')}` })).optional()
+	hide: z
+		.array(
+			z.enum(POTENTIAL_COLUMNS, { error: `expected column names: ${POTENTIAL_COLUMNS.join(', ')}` })
+		)
+		.optional()
 });
 export const potentialPageQuery = withOrderedBounds(potentialPageQuerySchema);
 export type PotentialPageQuery = z.infer<typeof potentialPageQuerySchema>;
@@ -152,7 +177,9 @@ export const spinRecordApiQuerySchema = z.object({
 	organism: organisms.optional(),
 	protein: accessionField.optional(),
 	centre: accessionField.optional(),
-	method: z.array(z.enum(SPIN_METHODS, { error: `expected a method: ${SPIN_METHODS.join(', ')}` })).optional(),
+	method: z
+		.array(z.enum(SPIN_METHODS, { error: `expected a method: ${SPIN_METHODS.join(', ')}` }))
+		.optional(),
 	spin: queryNumber(0, 5).optional(),
 	sort: z.enum(SPIN_SORTS, { error: `expected one of ${SPIN_SORTS.join(', ')}` }).optional(),
 	...paging
@@ -160,17 +187,20 @@ export const spinRecordApiQuerySchema = z.object({
 export type SpinRecordApiQuery = z.infer<typeof spinRecordApiQuerySchema>;
 
 export const DISTANCE_SORTS = ['accession', 'edge', 'centre'] as const;
-export const distanceApiQuerySchema = z
-	.object({
-		organism: organisms.optional(),
-		protein: accessionField.optional(),
-		centre: accessionField.optional(),
-		method: z.array(z.enum(DISTANCE_METHODS, { error: `expected a method: ${DISTANCE_METHODS.join(', ')}` })).optional(),
-		edgeMin: queryNumber(0, 100, ' Å').optional(),
-		edgeMax: queryNumber(0, 100, ' Å').optional(),
-		sort: z.enum(DISTANCE_SORTS, { error: `expected one of ${DISTANCE_SORTS.join(', ')}` }).optional(),
-		...paging
-	});
+export const distanceApiQuerySchema = z.object({
+	organism: organisms.optional(),
+	protein: accessionField.optional(),
+	centre: accessionField.optional(),
+	method: z
+		.array(z.enum(DISTANCE_METHODS, { error: `expected a method: ${DISTANCE_METHODS.join(', ')}` }))
+		.optional(),
+	edgeMin: queryNumber(0, 100, ' Å').optional(),
+	edgeMax: queryNumber(0, 100, ' Å').optional(),
+	sort: z
+		.enum(DISTANCE_SORTS, { error: `expected one of ${DISTANCE_SORTS.join(', ')}` })
+		.optional(),
+	...paging
+});
 export const distanceApiQuery = distanceApiQuerySchema.refine(...ordered('edgeMin', 'edgeMax'));
 export type DistanceApiQuery = z.infer<typeof distanceApiQuerySchema>;
 

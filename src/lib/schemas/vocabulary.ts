@@ -130,7 +130,12 @@ export const SPIN_METHOD_LABELS: Record<SpinMethod, string> = {
 	computed: 'computed estimate (not a measurement)'
 };
 
-export const DISTANCE_METHODS = ['crystal_structure', 'cryo_em_structure', 'nmr_structure', 'structural_model'] as const;
+export const DISTANCE_METHODS = [
+	'crystal_structure',
+	'cryo_em_structure',
+	'nmr_structure',
+	'structural_model'
+] as const;
 export type DistanceMethod = (typeof DISTANCE_METHODS)[number];
 
 export const DISTANCE_METHOD_LABELS: Record<DistanceMethod, string> = {
@@ -146,7 +151,14 @@ export type SourceKind = (typeof SOURCE_KINDS)[number];
 export const VISIBILITIES = ['public', 'group', 'embargoed'] as const;
 export type Visibility = (typeof VISIBILITIES)[number];
 
-export const ENTRY_KINDS = ['protein', 'centre', 'potential', 'spin_record', 'distance', 'source'] as const;
+export const ENTRY_KINDS = [
+	'protein',
+	'centre',
+	'potential',
+	'spin_record',
+	'distance',
+	'source'
+] as const;
 export type EntryKind = (typeof ENTRY_KINDS)[number];
 
 export const ENTRY_KIND_LABELS: Record<EntryKind, string> = {

@@ -12,7 +12,11 @@ import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/schemas/catalogueQue
  * The search table's features and columns. Sorting and paging run on the server (manual
  * mode); the table coordinates their state, which the page keeps in the URL.
  */
-export const features = tableFeatures({ rowSortingFeature, rowPaginationFeature, columnVisibilityFeature });
+export const features = tableFeatures({
+	rowSortingFeature,
+	rowPaginationFeature,
+	columnVisibilityFeature
+});
 
 const helper = createColumnHelper<typeof features, PotentialDto>();
 const sortable = (id: PotentialColumn) => (POTENTIAL_SORTS as readonly string[]).includes(id);

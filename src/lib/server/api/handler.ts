@@ -19,7 +19,13 @@ export function apiHandler<E extends RequestEvent>(handler: (event: E) => Promis
 			const errorId = crypto.randomUUID();
 			console.error(`[api ${errorId}] ${event.request.method} ${event.url.pathname}`, err);
 			return Response.json(
-				{ error: { code: 'internal_error', message: 'Internal error; quote the error id when reporting it.', errorId } },
+				{
+					error: {
+						code: 'internal_error',
+						message: 'Internal error; quote the error id when reporting it.',
+						errorId
+					}
+				},
 				{ status: 500 }
 			);
 		}

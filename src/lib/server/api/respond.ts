@@ -18,7 +18,10 @@ export function badQuery(fields: FieldErrors): Response {
 	return apiError('bad_request', `Invalid query parameter(s): ${names}`, fields);
 }
 
-export function parseApiQuery<S extends z.ZodObject>(url: URL, schema: S): ParamsResult<z.infer<S>> {
+export function parseApiQuery<S extends z.ZodObject>(
+	url: URL,
+	schema: S
+): ParamsResult<z.infer<S>> {
 	return parseSearchParams(schema, url.searchParams, LIST_KEYS);
 }
 

@@ -3,7 +3,8 @@ import { formatAccession } from '$lib/schemas/accession';
 import { parseEntryData } from '$lib/schemas/entryData';
 import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
-import { VersionStateError } from './errors';
+import { InvalidEntryDataError, VersionStateError } from './errors';
+import { refreshPotentialRows } from './potentialRows';
 import { projectApprovedVersion } from './projection';
 
 /**
@@ -142,4 +143,65 @@ export async function latestApprovedVersionNumber(
 		.where('status', '=', 'approved')
 		.executeTakeFirst();
 	return row?.latest ?? null;
+}
+
+export interface VisibilityChange {
+	visibility: Visibility;
+	groupId: number | null;
+	embargoUntil: string | null;
+}
+
+/**
+ * Changes who may see an entry and brings every read-model row that depends on it in step,
+ * in the caller's transaction. Embargoed entries need a date; group-only ones a group.
+ * @throws {InvalidEntryDataError} when the combination is incomplete.
+ */
+export async function setEntryVisibility(
+	trx: Kysely<Database>,
+	entryId: number,
+	change: VisibilityChange,
+	actorId: string | null = null
+): Promise<void> {
+	if (change.visibility === 'embargoed' && !change.embargoUntil) {
+		throw new InvalidEntryDataError(
+			'embargoUntil',
+			'an embargoed entry needs the date it becomes public'
+		);
+	}
+	if (change.visibility === 'group' && change.groupId === null) {
+		throw new InvalidEntryDataError('groupId', 'a group-only entry needs its group');
+	}
+	const before = await trx
+		.selectFrom('entry')
+		.select(['kind', 'visibility', 'group_id', 'embargo_until'])
+		.where('id', '=', entryId)
+		.executeTakeFirstOrThrow();
+	await trx
+		.updateTable('entry')
+		.set({
+			visibility: change.visibility,
+			group_id: change.groupId,
+			embargo_until: change.embargoUntil
+		})
+		.where('id', '=', entryId)
+		.execute();
+	const column =
+		before.kind === 'potential'
+			? 'entry_id'
+			: before.kind === 'centre'
+				? 'centre_entry_id'
+				: before.kind === 'protein'
+					? 'protein_entry_id'
+					: null;
+	if (column) await refreshPotentialRows(trx, { column, entryId });
+	await trx
+		.insertInto('audit_log')
+		.values({
+			actor_id: actorId,
+			action: 'entry.visibility',
+			entry_id: entryId,
+			before: JSON.stringify(before),
+			after: JSON.stringify(change)
+		})
+		.execute();
 }

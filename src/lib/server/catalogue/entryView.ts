@@ -8,6 +8,52 @@ import { entryRowIsVisible, type Viewer } from './visibility';
 
 /** Reading one entry at one approved version, as permalinks show it. */
 
+/** Entries an entry of this kind depends on: seeing it requires seeing them. */
+async function dependencies(
+	db: Kysely<Database>,
+	entryId: number,
+	kind: EntryKind
+): Promise<number[]> {
+	const centresOf = async (ids: number[]) => {
+		const rows = await db
+			.selectFrom('centre')
+			.select('protein_entry_id')
+			.where('entry_id', 'in', ids.length ? ids : [-1])
+			.execute();
+		return [...ids, ...rows.map((r) => r.protein_entry_id)];
+	};
+	switch (kind) {
+		case 'centre':
+			return (await centresOf([entryId])).slice(1);
+		case 'potential': {
+			const p = await db
+				.selectFrom('potential')
+				.select('centre_entry_id')
+				.where('entry_id', '=', entryId)
+				.executeTakeFirst();
+			return p ? centresOf([p.centre_entry_id]) : [];
+		}
+		case 'spin_record': {
+			const r = await db
+				.selectFrom('spin_record')
+				.select('centre_entry_id')
+				.where('entry_id', '=', entryId)
+				.executeTakeFirst();
+			return r ? centresOf([r.centre_entry_id]) : [];
+		}
+		case 'distance': {
+			const d = await db
+				.selectFrom('distance')
+				.select(['centre_a_entry_id', 'centre_b_entry_id'])
+				.where('entry_id', '=', entryId)
+				.executeTakeFirst();
+			return d ? centresOf([d.centre_a_entry_id, d.centre_b_entry_id]) : [];
+		}
+		default:
+			return [];
+	}
+}
+
 async function findVisibleEntry(db: Kysely<Database>, accession: string, viewer: Viewer | null) {
 	const entry = await db
 		.selectFrom('entry')
@@ -15,6 +61,15 @@ async function findVisibleEntry(db: Kysely<Database>, accession: string, viewer:
 		.where('accession', '=', accession)
 		.executeTakeFirst();
 	if (!entry || !entryRowIsVisible(entry, viewer)) throw new EntryNotFoundError(accession);
+	const needed = await dependencies(db, entry.id, entry.kind);
+	if (needed.length > 0) {
+		const rows = await db
+			.selectFrom('entry')
+			.select(['visibility', 'embargo_until', 'group_id'])
+			.where('id', 'in', needed)
+			.execute();
+		if (!rows.every((r) => entryRowIsVisible(r, viewer))) throw new EntryNotFoundError(accession);
+	}
 	return entry;
 }
 
@@ -32,7 +87,11 @@ async function approvedVersions(db: Kysely<Database>, entryId: number) {
 async function titleOf(db: Kysely<Database>, entryId: number, kind: EntryKind): Promise<string> {
 	switch (kind) {
 		case 'protein': {
-			const p = await db.selectFrom('protein').select('name').where('entry_id', '=', entryId).executeTakeFirst();
+			const p = await db
+				.selectFrom('protein')
+				.select('name')
+				.where('entry_id', '=', entryId)
+				.executeTakeFirst();
 			return p?.name ?? 'Protein';
 		}
 		case 'centre': {
@@ -116,7 +175,11 @@ export async function getEntryView(
 			.where('accession', '=', value)
 			.executeTakeFirst();
 		if (!ref || !entryRowIsVisible(ref, viewer)) continue;
-		references[field] = { accession: value, kind: ref.kind, title: await titleOf(db, ref.id, ref.kind) };
+		references[field] = {
+			accession: value,
+			kind: ref.kind,
+			title: await titleOf(db, ref.id, ref.kind)
+		};
 	}
 
 	return {

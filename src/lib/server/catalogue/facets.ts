@@ -1,30 +1,25 @@
 import type { Kysely } from 'kysely';
 import type { CatalogueFacets } from '$lib/catalogue/dto';
 import type { Database } from '../db/schema';
-import { entryIsVisible, type Viewer } from './visibility';
-
+import { entryIsVisible, potentialIsVisible, type Viewer } from './visibility';
 
 /** Counts of visible potentials per cofactor kind, organism and method, and overall totals. */
-export async function catalogueFacets(db: Kysely<Database>, viewer: Viewer | null): Promise<CatalogueFacets> {
+export async function catalogueFacets(
+	db: Kysely<Database>,
+	viewer: Viewer | null
+): Promise<CatalogueFacets> {
 	const visiblePotentials = db
 		.selectFrom('potential as p')
-		.innerJoin('entry as e', 'e.id', 'p.entry_id')
-		.innerJoin('centre as c', 'c.entry_id', 'p.centre_entry_id')
-		.innerJoin('entry as ce', 'ce.id', 'c.entry_id')
-		.innerJoin('protein as pr', 'pr.entry_id', 'c.protein_entry_id')
-		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')
-		.where((eb) =>
-			eb.and([entryIsVisible(eb, 'e', viewer), entryIsVisible(eb, 'ce', viewer), entryIsVisible(eb, 'pe', viewer)])
-		);
-	const count = (column: 'c.cofactor_kind' | 'pr.organism' | 'p.method') =>
+		.where((eb) => potentialIsVisible(eb, 'p', viewer));
+	const count = (column: 'p.cofactor_kind' | 'p.organism' | 'p.method') =>
 		visiblePotentials
 			.select([`${column} as value`, (eb) => eb.fn.countAll<number>().as('count')])
 			.groupBy(column)
 			.orderBy('count', 'desc')
 			.execute();
 	const [kinds, organisms, methods] = await Promise.all([
-		count('c.cofactor_kind'),
-		count('pr.organism'),
+		count('p.cofactor_kind'),
+		count('p.organism'),
 		count('p.method')
 	]);
 	const proteins = await db

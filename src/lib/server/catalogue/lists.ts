@@ -41,8 +41,12 @@ export async function listProteins(
 		);
 	}
 	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
-	const { n } = await query.select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
-	const column = { accession: 'pe.accession', name: 'pr.name', organism: 'pr.organism' }[options.sort ?? 'name'];
+	const { n } = await query
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.executeTakeFirstOrThrow();
+	const column = { accession: 'pe.accession', name: 'pr.name', organism: 'pr.organism' }[
+		options.sort ?? 'name'
+	];
 	const rows = await query
 		.select((eb) => [
 			'pe.accession as protein_accession',
@@ -63,16 +67,14 @@ export async function listProteins(
 		.limit(options.limit)
 		.offset(options.offset)
 		.execute();
-	const items = rows.map(
-		(r): ProteinDto => ({
-			...toProteinRef(r),
-			version: r.version,
-			uniprot: r.uniprot,
-			structureIds: JSON.parse(r.structure_ids) as string[],
-			centreCount: Number(r.centre_count ?? 0),
-			isDemo: r.is_demo === 1
-		})
-	);
+	const items = rows.map((r): ProteinDto => ({
+		...toProteinRef(r),
+		version: r.version,
+		uniprot: r.uniprot,
+		structureIds: JSON.parse(r.structure_ids) as string[],
+		centreCount: Number(r.centre_count ?? 0),
+		isDemo: r.is_demo === 1
+	}));
 	return pageOf(items, Number(n), options.offset);
 }
 
@@ -93,11 +95,14 @@ export async function listCentres(
 		const a = text.accession;
 		query = query.where((eb) => eb.or([eb('ce.accession', '=', a), eb('pe.accession', '=', a)]));
 	}
-	if (text.kind === 'centres') query = query.where('c.entry_id', 'in', text.ids.length > 0 ? text.ids : [-1]);
+	if (text.kind === 'centres')
+		query = query.where('c.entry_id', 'in', text.ids.length > 0 ? text.ids : [-1]);
 	if (filter.kind?.length) query = query.where('c.cofactor_kind', 'in', filter.kind);
 	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
 	if (filter.protein) query = query.where('pe.accession', '=', filter.protein);
-	const { n } = await query.select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
+	const { n } = await query
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.executeTakeFirstOrThrow();
 	const columns = {
 		accession: ['ce.accession'],
 		protein: ['pr.name', 'c.entry_id'],
@@ -117,21 +122,24 @@ export async function listCentres(
 		'pr.name as protein_name',
 		'pr.organism'
 	]);
-	for (const column of columns) ordered = ordered.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'));
-	const rows = await ordered.orderBy('c.entry_id').limit(options.limit).offset(options.offset).execute();
-	const items = rows.map(
-		(r): CentreDto => ({
-			accession: r.accession,
-			version: r.version,
-			label: r.label,
-			cofactorKind: r.cofactor_kind as CofactorKind,
-			protein: toProteinRef(r),
-			ligation: r.ligation,
-			chainId: r.chain_id,
-			residues: JSON.parse(r.residues) as number[],
-			isDemo: r.is_demo === 1
-		})
-	);
+	for (const column of columns)
+		ordered = ordered.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'));
+	const rows = await ordered
+		.orderBy('c.entry_id')
+		.limit(options.limit)
+		.offset(options.offset)
+		.execute();
+	const items = rows.map((r): CentreDto => ({
+		accession: r.accession,
+		version: r.version,
+		label: r.label,
+		cofactorKind: r.cofactor_kind as CofactorKind,
+		protein: toProteinRef(r),
+		ligation: r.ligation,
+		chainId: r.chain_id,
+		residues: JSON.parse(r.residues) as number[],
+		isDemo: r.is_demo === 1
+	}));
 	return pageOf(items, Number(n), options.offset);
 }
 
@@ -161,10 +169,15 @@ export async function listSpinRecords(
 	if (filter.centre) query = query.where('ce.accession', '=', filter.centre);
 	if (filter.method?.length) query = query.where('r.method', 'in', filter.method);
 	if (filter.spin !== undefined) query = query.where('r.spin_s', '=', filter.spin);
-	const { n } = await query.select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
-	const column = { accession: 'e.accession', centre: 'c.label', spin: 'r.spin_s', temperature: 'r.temperature_k' }[
-		options.sort ?? 'accession'
-	];
+	const { n } = await query
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.executeTakeFirstOrThrow();
+	const column = {
+		accession: 'e.accession',
+		centre: 'c.label',
+		spin: 'r.spin_s',
+		temperature: 'r.temperature_k'
+	}[options.sort ?? 'accession'];
 	const rows = await query
 		.leftJoin('source as s', 's.entry_id', 'r.source_entry_id')
 		.leftJoin('entry as se', 'se.id', 'r.source_entry_id')
@@ -198,7 +211,10 @@ export async function listSpinRecords(
 
 export async function listDistances(
 	db: Kysely<Database>,
-	filter: Pick<DistanceApiQuery, 'organism' | 'protein' | 'centre' | 'method' | 'edgeMin' | 'edgeMax'>,
+	filter: Pick<
+		DistanceApiQuery,
+		'organism' | 'protein' | 'centre' | 'method' | 'edgeMin' | 'edgeMax'
+	>,
 	options: ListOptions<'accession' | 'edge' | 'centre'>,
 	viewer: Viewer | null
 ): Promise<Page<DistanceDto>> {
@@ -228,8 +244,12 @@ export async function listDistances(
 	if (filter.method?.length) query = query.where('d.method', 'in', filter.method);
 	if (filter.edgeMin !== undefined) query = query.where('d.edge_to_edge_a', '>=', filter.edgeMin);
 	if (filter.edgeMax !== undefined) query = query.where('d.edge_to_edge_a', '<=', filter.edgeMax);
-	const { n } = await query.select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
-	const column = { accession: 'e.accession', edge: 'd.edge_to_edge_a', centre: 'a.label' }[options.sort ?? 'accession'];
+	const { n } = await query
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.executeTakeFirstOrThrow();
+	const column = { accession: 'e.accession', edge: 'd.edge_to_edge_a', centre: 'a.label' }[
+		options.sort ?? 'accession'
+	];
 	const rows = await query
 		.leftJoin('source as s', 's.entry_id', 'd.source_entry_id')
 		.leftJoin('entry as se', 'se.id', 'd.source_entry_id')
@@ -264,7 +284,10 @@ export async function listDistances(
 }
 
 /** Organisms present in the visible catalogue, for the organism facet. */
-export async function listOrganisms(db: Kysely<Database>, viewer: Viewer | null): Promise<string[]> {
+export async function listOrganisms(
+	db: Kysely<Database>,
+	viewer: Viewer | null
+): Promise<string[]> {
 	const rows = await db
 		.selectFrom('protein as pr')
 		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')

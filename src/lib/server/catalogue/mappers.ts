@@ -93,7 +93,8 @@ export function toPotentialDto(r: PotentialRowColumns): PotentialDto {
 	};
 }
 
-export interface SpinRecordRowColumns extends CentreRefColumns, ProteinRefColumns, SourceRefColumns {
+export interface SpinRecordRowColumns
+	extends CentreRefColumns, ProteinRefColumns, SourceRefColumns {
 	accession: string;
 	version: number;
 	oxidation_level: string;
@@ -140,8 +141,16 @@ export function toDistanceDto(r: DistanceRowColumns): DistanceDto {
 	return {
 		accession: r.accession,
 		version: r.version,
-		centreA: toCentreRef({ centre_accession: r.a_accession, centre_label: r.a_label, cofactor_kind: r.a_kind }),
-		centreB: toCentreRef({ centre_accession: r.b_accession, centre_label: r.b_label, cofactor_kind: r.b_kind }),
+		centreA: toCentreRef({
+			centre_accession: r.a_accession,
+			centre_label: r.a_label,
+			cofactor_kind: r.a_kind
+		}),
+		centreB: toCentreRef({
+			centre_accession: r.b_accession,
+			centre_label: r.b_label,
+			cofactor_kind: r.b_kind
+		}),
 		protein: toProteinRef(r),
 		edgeToEdgeA: r.edge_to_edge_a,
 		centreToCentreA: r.centre_to_centre_a,

@@ -6,7 +6,7 @@ import type { Database } from '../db/schema';
 import { toPotentialDto } from './mappers';
 import { nullsLast } from './sortOrder';
 import { resolveTextQuery } from './textMatch';
-import { entryIsVisible, type Viewer } from './visibility';
+import { potentialIsVisible, type Viewer } from './visibility';
 
 export interface ListOptions<S extends string> {
 	sort?: S;
@@ -16,10 +16,10 @@ export interface ListOptions<S extends string> {
 }
 
 const SORT_COLUMNS: Record<Exclude<PotentialSort, 'relevance'>, string[]> = {
-	accession: ['e.accession'],
-	protein: ['pr.name', 'c.label', 'p.couple'],
-	centre: ['c.label', 'pr.name'],
-	kind: ['c.cofactor_kind', 'pr.name', 'c.label'],
+	accession: ['p.entry_id'],
+	protein: ['p.protein_name', 'p.centre_label', 'p.couple'],
+	centre: ['p.centre_label', 'p.protein_name'],
+	kind: ['p.cofactor_kind', 'p.protein_name', 'p.centre_label'],
 	couple: ['p.couple'],
 	em: ['p.em_mv_she'],
 	ph: ['p.ph'],
@@ -27,47 +27,26 @@ const SORT_COLUMNS: Record<Exclude<PotentialSort, 'relevance'>, string[]> = {
 	method: ['p.method']
 };
 
-function baseQuery(db: Kysely<Database>, viewer: Viewer | null) {
-	return db
-		.selectFrom('potential as p')
-		.innerJoin('entry as e', 'e.id', 'p.entry_id')
-		.innerJoin('centre as c', 'c.entry_id', 'p.centre_entry_id')
-		.innerJoin('entry as ce', 'ce.id', 'c.entry_id')
-		.innerJoin('protein as pr', 'pr.entry_id', 'c.protein_entry_id')
-		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')
-		.where((eb) =>
-			eb.and([
-				entryIsVisible(eb, 'e', viewer),
-				entryIsVisible(eb, 'ce', viewer),
-				entryIsVisible(eb, 'pe', viewer)
-			])
-		);
-}
-
-/**
- * Potentials matching the catalogue filters, one page at a time, with the total count.
- * Text finds centres through the search index; everything else is filtered in SQL.
- */
-export async function listPotentials(
+/** The filtered, visible potentials (no sorting or paging yet), on the one read-model table. */
+async function filteredPotentials(
 	db: Kysely<Database>,
 	filter: PotentialFilter,
-	options: ListOptions<PotentialSort>,
 	viewer: Viewer | null
-): Promise<Page<PotentialDto>> {
+) {
 	const text = await resolveTextQuery(db, filter.q);
-	if (text.kind === 'centres' && text.ids.length === 0) {
-		return { items: [], total: 0, nextCursor: null };
-	}
-
-	let query = baseQuery(db, viewer);
+	let query = db.selectFrom('potential as p').where((eb) => potentialIsVisible(eb, 'p', viewer));
 	if (text.kind === 'accession') {
 		const a = text.accession;
 		query = query.where((eb) =>
-			eb.or([eb('e.accession', '=', a), eb('ce.accession', '=', a), eb('pe.accession', '=', a)])
+			eb.or([
+				eb('p.accession', '=', a),
+				eb('p.centre_accession', '=', a),
+				eb('p.protein_accession', '=', a)
+			])
 		);
 	}
-	if (filter.kind?.length) query = query.where('c.cofactor_kind', 'in', filter.kind);
-	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
+	if (filter.kind?.length) query = query.where('p.cofactor_kind', 'in', filter.kind);
+	if (filter.organism?.length) query = query.where('p.organism', 'in', filter.organism);
 	if (filter.method?.length) query = query.where('p.method', 'in', filter.method);
 	if (filter.emMin !== undefined) query = query.where('p.em_mv_she', '>=', filter.emMin);
 	if (filter.emMax !== undefined) query = query.where('p.em_mv_she', '<=', filter.emMax);
@@ -75,28 +54,52 @@ export async function listPotentials(
 	if (filter.phMax !== undefined) query = query.where('p.ph', '<=', filter.phMax);
 	if (filter.tMin !== undefined) query = query.where('p.temperature_k', '>=', filter.tMin);
 	if (filter.tMax !== undefined) query = query.where('p.temperature_k', '<=', filter.tMax);
-	if (filter.protein) query = query.where('pe.accession', '=', filter.protein);
-	if (filter.centre) query = query.where('ce.accession', '=', filter.centre);
+	if (filter.protein) query = query.where('p.protein_accession', '=', filter.protein);
+	if (filter.centre) query = query.where('p.centre_accession', '=', filter.centre);
+	return { query, text };
+}
 
+/**
+ * Potentials matching the catalogue filters, one page at a time, with the total count.
+ * Text finds centres through the search index; everything else is filtered in SQL on the
+ * denormalised potential read model, so a search reads one table.
+ */
+export async function listPotentials(
+	db: Kysely<Database>,
+	filter: PotentialFilter,
+	options: ListOptions<PotentialSort>,
+	viewer: Viewer | null
+): Promise<Page<PotentialDto>> {
+	const { query, text } = await filteredPotentials(db, filter, viewer);
+	if (text.kind === 'centres' && text.ids.length === 0) {
+		return { items: [], total: 0, nextCursor: null };
+	}
 	// Ranked centre ids join as a JSON array; its index orders results by relevance.
-	const ranked =
+	const matched =
 		text.kind === 'centres'
 			? query.innerJoin(
 					sql<{ key: number; value: number }>`json_each(${JSON.stringify(text.ids)})`.as('hit'),
 					(join) => join.onRef('hit.value', '=', 'p.centre_entry_id')
 				)
-			: null;
+			: query;
 
-	const counted = await (ranked ?? query)
+	const { n } = await matched
 		.select((eb) => eb.fn.countAll<number>().as('n'))
 		.executeTakeFirstOrThrow();
 
-	const sort = options.sort === 'relevance' && !ranked ? 'protein' : (options.sort ?? (ranked ? 'relevance' : 'protein'));
+	const relevance = text.kind === 'centres';
+	const sort =
+		options.sort === 'relevance' || options.sort === undefined
+			? relevance
+				? 'relevance'
+				: 'protein'
+			: options.sort;
 	const direction = options.order ?? 'asc';
-	let page = (ranked ?? query).leftJoin('source as s', 's.entry_id', 'p.source_entry_id')
+	let rows = matched
+		.leftJoin('source as s', 's.entry_id', 'p.source_entry_id')
 		.leftJoin('entry as se', 'se.id', 'p.source_entry_id')
 		.select([
-			'e.accession',
+			'p.accession',
 			'p.version',
 			'p.couple',
 			'p.em_mv_she',
@@ -110,36 +113,35 @@ export async function listPotentials(
 			'p.method',
 			'p.n_electrons',
 			'p.uncertainty_mv',
-			'e.is_demo',
-			'ce.accession as centre_accession',
-			'c.label as centre_label',
-			'c.cofactor_kind',
-			'pe.accession as protein_accession',
-			'pr.name as protein_name',
-			'pr.organism',
+			'p.is_demo',
+			'p.centre_accession',
+			'p.centre_label',
+			'p.cofactor_kind',
+			'p.protein_accession',
+			'p.protein_name',
+			'p.organism',
 			'se.accession as source_accession',
 			's.doi as source_doi',
 			's.year as source_year',
 			's.authors as source_authors'
 		]);
-	if (sort === 'relevance' && ranked) {
-		page = page.orderBy(sql.ref('hit.key'), direction);
+	if (sort === 'relevance') {
+		rows = rows.orderBy(sql.ref('hit.key'), direction);
 	} else {
-		for (const column of SORT_COLUMNS[sort as Exclude<PotentialSort, 'relevance'>]) {
-			page = page.orderBy(sql.ref(column), nullsLast(direction));
-		}
+		for (const column of SORT_COLUMNS[sort])
+			rows = rows.orderBy(sql.ref(column), nullsLast(direction));
 	}
-	const rows = await page
+	const items = await rows
 		.orderBy('p.entry_id')
 		.limit(options.limit)
 		.offset(options.offset)
 		.execute();
 
-	const total = Number(counted.n);
-	const nextOffset = options.offset + rows.length;
+	const total = Number(n);
+	const next = options.offset + items.length;
 	return {
-		items: rows.map(toPotentialDto),
+		items: items.map(toPotentialDto),
 		total,
-		nextCursor: nextOffset < total && rows.length > 0 ? encodeCursor(nextOffset) : null
+		nextCursor: next < total && items.length > 0 ? encodeCursor(next) : null
 	};
 }

@@ -1,11 +1,8 @@
 import type { Kysely } from 'kysely';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
-import {
-	assertCoupleFitsCentre,
-	resolveOptionalReference,
-	resolveReference
-} from './references';
+import { potentialContext, refreshPotentialRows } from './potentialRows';
+import { assertCoupleFitsCentre, resolveOptionalReference, resolveReference } from './references';
 
 /**
  * Writes the read model (typed columns) for the newly approved version of one entry, and
@@ -53,17 +50,23 @@ export async function projectApprovedVersion(
 				.values({ entry_id: entryId, ...row })
 				.onConflict((oc) => oc.column('entry_id').doUpdateSet(row))
 				.execute();
-			// Centres carry their protein's name in the search index.
+			// Centres carry their protein's name in the search index, potentials in their rows.
 			await trx
 				.updateTable('centre')
 				.set({ revision })
 				.where('protein_entry_id', '=', entryId)
 				.execute();
+			await refreshPotentialRows(trx, { column: 'protein_entry_id', entryId });
 			return;
 		}
 		case 'centre': {
 			const d = entry.data;
-			const proteinId = await resolveReference(trx, 'proteinAccession', d.proteinAccession, 'protein');
+			const proteinId = await resolveReference(
+				trx,
+				'proteinAccession',
+				d.proteinAccession,
+				'protein'
+			);
 			const row = {
 				version,
 				protein_entry_id: proteinId,
@@ -79,6 +82,7 @@ export async function projectApprovedVersion(
 				.values({ entry_id: entryId, ...row })
 				.onConflict((oc) => oc.column('entry_id').doUpdateSet(row))
 				.execute();
+			await refreshPotentialRows(trx, { column: 'centre_entry_id', entryId });
 			return;
 		}
 		case 'potential': {
@@ -100,7 +104,13 @@ export async function projectApprovedVersion(
 				method: d.method,
 				n_electrons: d.nElectrons,
 				uncertainty_mv: d.uncertaintyMv,
-				source_entry_id: await resolveOptionalReference(trx, 'sourceAccession', d.sourceAccession, 'source')
+				source_entry_id: await resolveOptionalReference(
+					trx,
+					'sourceAccession',
+					d.sourceAccession,
+					'source'
+				),
+				...(await potentialContext(trx, entryId, centreId))
 			};
 			await trx
 				.insertInto('potential')
@@ -113,13 +123,23 @@ export async function projectApprovedVersion(
 			const d = entry.data;
 			const row = {
 				version,
-				centre_entry_id: await resolveReference(trx, 'centreAccession', d.centreAccession, 'centre'),
+				centre_entry_id: await resolveReference(
+					trx,
+					'centreAccession',
+					d.centreAccession,
+					'centre'
+				),
 				oxidation_level: d.oxidationLevel,
 				spin_s: d.spinS,
 				g_values: JSON.stringify([...d.gValues].sort((a, b) => b - a)),
 				temperature_k: d.temperatureK,
 				method: d.method,
-				source_entry_id: await resolveOptionalReference(trx, 'sourceAccession', d.sourceAccession, 'source')
+				source_entry_id: await resolveOptionalReference(
+					trx,
+					'sourceAccession',
+					d.sourceAccession,
+					'source'
+				)
 			};
 			await trx
 				.insertInto('spin_record')
@@ -132,13 +152,28 @@ export async function projectApprovedVersion(
 			const d = entry.data;
 			const row = {
 				version,
-				centre_a_entry_id: await resolveReference(trx, 'centreAAccession', d.centreAAccession, 'centre'),
-				centre_b_entry_id: await resolveReference(trx, 'centreBAccession', d.centreBAccession, 'centre'),
+				centre_a_entry_id: await resolveReference(
+					trx,
+					'centreAAccession',
+					d.centreAAccession,
+					'centre'
+				),
+				centre_b_entry_id: await resolveReference(
+					trx,
+					'centreBAccession',
+					d.centreBAccession,
+					'centre'
+				),
 				edge_to_edge_a: d.edgeToEdgeA,
 				centre_to_centre_a: d.centreToCentreA,
 				structure_id: d.structureId,
 				method: d.method,
-				source_entry_id: await resolveOptionalReference(trx, 'sourceAccession', d.sourceAccession, 'source')
+				source_entry_id: await resolveOptionalReference(
+					trx,
+					'sourceAccession',
+					d.sourceAccession,
+					'source'
+				)
 			};
 			await trx
 				.insertInto('distance')

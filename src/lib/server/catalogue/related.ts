@@ -25,7 +25,9 @@ export async function relatedRecords(
 	if (kind !== 'protein' && kind !== 'centre') return null;
 	const filter = kind === 'protein' ? { protein: accession } : { centre: accession };
 	const [centres, potentials, spinRecords, distances] = await Promise.all([
-		kind === 'protein' ? listCentres(db, { protein: accession }, { ...ALL, sort: 'protein' }, viewer) : null,
+		kind === 'protein'
+			? listCentres(db, { protein: accession }, { ...ALL, sort: 'protein' }, viewer)
+			: null,
 		listPotentials(db, filter, { ...ALL, sort: 'protein' }, viewer),
 		listSpinRecords(db, filter, { ...ALL, sort: 'centre' }, viewer),
 		listDistances(db, filter, { ...ALL, sort: 'centre' }, viewer)

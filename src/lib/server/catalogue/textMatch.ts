@@ -8,9 +8,7 @@ import { centreSearch } from '../search/centreSearch';
  * for it (best first), or nothing to filter on.
  */
 export type TextMatch =
-	| { kind: 'none' }
-	| { kind: 'accession'; accession: string }
-	| { kind: 'centres'; ids: number[] };
+	{ kind: 'none' } | { kind: 'accession'; accession: string } | { kind: 'centres'; ids: number[] };
 
 export async function resolveTextQuery(
 	db: Kysely<Database>,

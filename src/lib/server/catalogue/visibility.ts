@@ -1,42 +1,88 @@
-import { sql, type ExpressionBuilder, type Expression, type SqlBool } from 'kysely';
+import { sql, type Expression, type ExpressionBuilder, type SqlBool } from 'kysely';
 import type { Database } from '../db/schema';
 
-/** Who is reading: the groups whose group-only entries they may see. Null = signed out. */
+/** Who is reading: the groups whose group-only and embargoed entries they may see. Null = signed out. */
 export interface Viewer {
 	groupIds: readonly number[];
 }
 
+/** Visibility columns of an entry row. */
+export interface EntryVisibility {
+	visibility: string;
+	embargo_until: string | null;
+	group_id: number | null;
+}
+
+/** The start of time for "public since": rows public from creation carry this. */
+export const ALWAYS_PUBLIC = '1970-01-01T00:00:00.000Z';
+
 /**
- * The one rule for whether an entry may be shown: public; embargoed and past its date; or
- * group-only and the viewer is in its group. Every read path (pages, search, API, export,
- * citations) filters through this.
+ * The one rule for whether an entry may be shown: it is public; or embargoed and its date has
+ * passed; or the viewer belongs to its group (members see their group's group-only and
+ * embargoed entries). Every read path (pages, search, API, export, citations) applies it, in
+ * SQL through `entryIsVisible`/`potentialIsVisible` or in memory through `entryRowIsVisible`.
  */
+export function entryRowIsVisible(
+	entry: EntryVisibility,
+	viewer: Viewer | null,
+	now: Date = new Date()
+): boolean {
+	if (entry.visibility === 'public') return true;
+	if (entry.group_id !== null && (viewer?.groupIds ?? []).includes(entry.group_id)) return true;
+	return (
+		entry.visibility === 'embargoed' &&
+		entry.embargo_until !== null &&
+		entry.embargo_until <= now.toISOString()
+	);
+}
+
 export function entryIsVisible<DB extends Database, TB extends keyof DB & string>(
 	eb: ExpressionBuilder<DB, TB>,
 	entryAlias: string,
 	viewer: Viewer | null
 ): Expression<SqlBool> {
 	const col = (name: string) => sql.ref(`${entryAlias}.${name}`);
-	const nowIso = new Date().toISOString();
 	const groups = viewer?.groupIds ?? [];
 	return eb.or([
 		eb(col('visibility'), '=', 'public'),
-		eb.and([eb(col('visibility'), '=', 'embargoed'), eb(col('embargo_until'), '<=', nowIso)]),
-		...(groups.length > 0
-			? [eb.and([eb(col('visibility'), '=', 'group'), eb(col('group_id'), 'in', [...groups])])]
-			: [])
+		eb.and([
+			eb(col('visibility'), '=', 'embargoed'),
+			eb(col('embargo_until'), '<=', new Date().toISOString())
+		]),
+		...(groups.length > 0 ? [eb(col('group_id'), 'in', [...groups])] : [])
 	]);
 }
 
-/** The same rule for one entry row already in memory. */
-export function entryRowIsVisible(
-	entry: { visibility: string; embargo_until: string | null; group_id: number | null },
-	viewer: Viewer | null,
-	now: Date = new Date()
-): boolean {
-	if (entry.visibility === 'public') return true;
-	if (entry.visibility === 'embargoed') {
-		return entry.embargo_until !== null && entry.embargo_until <= now.toISOString();
+/**
+ * When a row that depends on several entries (a potential on its centre and protein) becomes
+ * visible to everyone: never (null) while any is group-only, else the latest embargo date.
+ */
+export function publicFrom(entries: readonly EntryVisibility[]): string | null {
+	let from = ALWAYS_PUBLIC;
+	for (const e of entries) {
+		if (e.visibility === 'group') return null;
+		if (e.visibility === 'embargoed') {
+			if (e.embargo_until === null) return null;
+			if (e.embargo_until > from) from = e.embargo_until;
+		}
 	}
-	return entry.group_id !== null && (viewer?.groupIds ?? []).includes(entry.group_id);
+	return from;
+}
+
+/** The group whose members see a dependent row early: the first entry's group that has one. */
+export function owningGroup(entries: readonly EntryVisibility[]): number | null {
+	return entries.find((e) => e.group_id !== null)?.group_id ?? null;
+}
+
+/** Visibility of rows of the denormalised potential read model (see migration 0001). */
+export function potentialIsVisible<DB extends Database, TB extends keyof DB & string>(
+	eb: ExpressionBuilder<DB, TB>,
+	alias: string,
+	viewer: Viewer | null
+): Expression<SqlBool> {
+	const groups = viewer?.groupIds ?? [];
+	return eb.or([
+		eb(sql.ref(`${alias}.public_from`), '<=', new Date().toISOString()),
+		...(groups.length > 0 ? [eb(sql.ref(`${alias}.group_id`), 'in', [...groups])] : [])
+	]);
 }

@@ -38,20 +38,9 @@ export type Role = 'reader' | 'contributor' | 'curator' | 'admin';
 export type EntryKind = 'protein' | 'centre' | 'potential' | 'spin_record' | 'distance' | 'source';
 export type Visibility = 'public' | 'group' | 'embargoed';
 export type VersionStatus =
-	| 'draft'
-	| 'submitted'
-	| 'returned'
-	| 'approved'
-	| 'rejected'
-	| 'withdrawn';
+	'draft' | 'submitted' | 'returned' | 'approved' | 'rejected' | 'withdrawn';
 export type SubmissionStatus =
-	| 'draft'
-	| 'submitted'
-	| 'returned'
-	| 'approved'
-	| 'partially_approved'
-	| 'rejected'
-	| 'withdrawn';
+	'draft' | 'submitted' | 'returned' | 'approved' | 'partially_approved' | 'rejected' | 'withdrawn';
 
 export interface UserTable {
 	id: Generated<string>;
@@ -291,8 +280,16 @@ export interface CentreTable {
 
 export interface PotentialTable {
 	entry_id: number;
+	accession: string;
 	version: number;
 	centre_entry_id: number;
+	centre_accession: string;
+	centre_label: string;
+	cofactor_kind: string;
+	protein_entry_id: number;
+	protein_accession: string;
+	protein_name: string;
+	organism: string;
 	couple: string;
 	em_mv_she: number;
 	reported_value: number;
@@ -306,6 +303,10 @@ export interface PotentialTable {
 	n_electrons: number;
 	uncertainty_mv: number | null;
 	source_entry_id: number | null;
+	is_demo: number;
+	/** ISO 8601 time from which everyone may see the row; null while group-only. */
+	public_from: string | null;
+	group_id: number | null;
 }
 
 export interface SpinRecordTable {

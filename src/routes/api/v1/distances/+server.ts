@@ -11,6 +11,11 @@ export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
 	const query = parseApiQuery(url, distanceApiQuery);
 	if (!query.ok) return badQuery(query.fields);
 	const { sort, order, limit, cursor, format, ...filter } = query.data;
-	const page = await listDistances(db, filter, { sort, order, limit, offset: offsetOf(cursor) }, locals.viewer);
+	const page = await listDistances(
+		db,
+		filter,
+		{ sort, order, limit, offset: offsetOf(cursor) },
+		locals.viewer
+	);
 	return respondWithPage(url, page, format, distanceCsvRow, 'distances');
 });

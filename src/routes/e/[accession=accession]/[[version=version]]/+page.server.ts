@@ -9,10 +9,12 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, locals }) => {
 	const version = params.version ? (parseVersionSegment(params.version) ?? undefined) : undefined;
-	const view = await getEntryView(db, params.accession, version, locals.viewer).catch((e: unknown) => {
-		if (e instanceof EntryNotFoundError) return null;
-		throw e;
-	});
+	const view = await getEntryView(db, params.accession, version, locals.viewer).catch(
+		(e: unknown) => {
+			if (e instanceof EntryNotFoundError) return null;
+			throw e;
+		}
+	);
 	if (!view) {
 		error(404, {
 			message:

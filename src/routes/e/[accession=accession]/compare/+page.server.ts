@@ -12,10 +12,13 @@ export const load: PageServerLoad = async ({ params, url, locals }) => {
 	const query = parseSearchParams(compareQuery, url.searchParams);
 	if (!query.ok) error(400, { message: 'Choose two versions to compare.', fields: query.fields });
 	const { from, to } = query.data;
-	const result = await compareVersions(db, params.accession, from, to, locals.viewer).catch((e: unknown) => {
-		if (e instanceof EntryNotFoundError) return null;
-		throw e;
-	});
-	if (!result) error(404, { message: `Entry ${params.accession} has no version ${from} or ${to}.` });
+	const result = await compareVersions(db, params.accession, from, to, locals.viewer).catch(
+		(e: unknown) => {
+			if (e instanceof EntryNotFoundError) return null;
+			throw e;
+		}
+	);
+	if (!result)
+		error(404, { message: `Entry ${params.accession} has no version ${from} or ${to}.` });
 	return { accession: params.accession, ...result };
 };

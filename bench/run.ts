@@ -1,0 +1,183 @@
+// `npm run bench`: performance figures for the catalogue, printed, never asserted.
+// 1. search (text + filters + first page) p50/p95 server-side on 100 000 potentials;
+// 2. API list throughput (100 rows a page) beside a raw node:http + better-sqlite3 server;
+// 3. server RSS after the search index is built.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, readFileSync } from 'node:fs';
+import { listPotentials } from '../src/lib/server/catalogue/potentials';
+import { centreSearch } from '../src/lib/server/search/centreSearch';
+import { openDatabase } from '../src/lib/server/db/connect';
+import type { PotentialFilter } from '../src/lib/schemas/catalogueQuery';
+import { encodeCursor } from '../src/lib/schemas/pagination';
+import { ensureDataset } from './dataset';
+
+const DATASET = 'bench/.data/catalogue-100k.sqlite';
+const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
+const LOAD_SECONDS = Number(process.env.BENCH_LOAD_SECONDS ?? 8);
+const CONCURRENCY = 8;
+
+function percentile(sorted: number[], p: number): number {
+	return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] as number;
+}
+const ms = (v: number) => `${v.toFixed(2)} ms`;
+
+async function benchSearch() {
+	const db = openDatabase(DATASET);
+	const t0 = performance.now();
+	await centreSearch.ensureCurrent(db);
+	const indexMs = performance.now() - t0;
+	const cases: PotentialFilter[] = [
+		{ q: 'ferredoxin' },
+		{ q: 'hydrogenase C3' },
+		{ q: 'thermocytochrome' },
+		{ q: 'hydrgenase' },
+		{ q: 'cyto', kind: ['heme_c'] },
+		{ q: '4Fe-4S', emMin: -300, emMax: -100 },
+		{ q: 'rieske', phMin: 6, phMax: 8 },
+		{ q: 'Benchmarkia thermophilus' },
+		{ kind: ['fe4s4'], emMin: -300, emMax: -100 },
+		{ organism: ['Benchmarkia ferrogenes'], tMin: 300 },
+		{ method: ['protein_film_voltammetry'], phMin: 7, phMax: 7.5 },
+		{}
+	];
+	for (const c of cases) await listPotentials(db, c, { limit: 25, offset: 0 }, null); // warm caches
+	const times: number[] = [];
+	const perCase = new Map<string, number[]>();
+	for (let round = 0; round < 20; round++) {
+		for (const c of cases) {
+			const start = performance.now();
+			const page = await listPotentials(
+				db,
+				c,
+				{ limit: 25, offset: 0, sort: c.q ? 'relevance' : 'em' },
+				null
+			);
+			const elapsed = performance.now() - start;
+			times.push(elapsed);
+			const key = `${JSON.stringify(c)} → ${page.total} rows`;
+			perCase.set(key, [...(perCase.get(key) ?? []), elapsed]);
+		}
+	}
+	times.sort((a, b) => a - b);
+	await db.destroy();
+	console.log(
+		`\nSearch (listPotentials: text + filters + count + first 25 rows), ${times.length} queries`
+	);
+	console.log(
+		`  index build ${ms(indexMs)} for ${centreSearch.documentCount} documents (proteins + centres)`
+	);
+	for (const [key, t] of perCase) {
+		t.sort((a, b) => a - b);
+		console.log(`  ${ms(percentile(t, 50)).padStart(10)}  ${key}`);
+	}
+	console.log(
+		`  p50 ${ms(percentile(times, 50))}   p95 ${ms(percentile(times, 95))}   max ${ms(times.at(-1) ?? 0)}   (target p95 ≤ 20 ms)`
+	);
+}
+
+async function waitFor(url: string, child: ChildProcess) {
+	for (let i = 0; i < 300; i++) {
+		if (child.exitCode !== null) throw new Error(`${url}: server exited`);
+		try {
+			if ((await fetch(url)).ok) return;
+		} catch {
+			// not up yet
+		}
+		await new Promise((r) => setTimeout(r, 100));
+	}
+	throw new Error(`${url} did not answer`);
+}
+
+async function load(
+	urlFor: (i: number) => string
+): Promise<{ rps: number; p50: number; p95: number; count: number }> {
+	const deadline = performance.now() + LOAD_SECONDS * 1000;
+	const latencies: number[] = [];
+	let i = 0;
+	await Promise.all(
+		Array.from({ length: CONCURRENCY }, async () => {
+			while (performance.now() < deadline) {
+				const start = performance.now();
+				const res = await fetch(urlFor(i++));
+				if (!res.ok) throw new Error(`HTTP ${res.status}`);
+				await res.arrayBuffer();
+				latencies.push(performance.now() - start);
+			}
+		})
+	);
+	latencies.sort((a, b) => a - b);
+	return {
+		rps: latencies.length / LOAD_SECONDS,
+		p50: percentile(latencies, 50),
+		p95: percentile(latencies, 95),
+		count: latencies.length
+	};
+}
+
+function rssMb(pid: number): number {
+	const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+	const kb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0);
+	return kb / 1024;
+}
+
+async function benchApi() {
+	if (!existsSync('build/index.js')) throw new Error('Run `npm run build` before `npm run bench`.');
+	const appPort = 3101;
+	const rawPort = 3102;
+	const env = { ...process.env, DATABASE_PATH: DATASET, HOPLINE_DEMO: 'false' };
+	const app = spawn(process.execPath, ['build'], {
+		env: {
+			...env,
+			PORT: String(appPort),
+			HOST: '127.0.0.1',
+			ORIGIN: `http://127.0.0.1:${appPort}`
+		},
+		stdio: 'ignore'
+	});
+	const raw = spawn(process.execPath, ['bench/raw-server.js'], {
+		env: { ...env, PORT: String(rawPort) },
+		stdio: 'ignore'
+	});
+	try {
+		await waitFor(`http://127.0.0.1:${appPort}/api/v1`, app);
+		await waitFor(`http://127.0.0.1:${rawPort}/?limit=1`, raw);
+		const before = rssMb(app.pid as number);
+		await fetch(`http://127.0.0.1:${appPort}/api/v1/potentials?q=ferredoxin&limit=100`);
+		const afterIndex = rssMb(app.pid as number);
+
+		const pages = 200; // the first 200 pages of 100 rows, visited in the same order by both
+		const rawResult = await load(
+			(i) => `http://127.0.0.1:${rawPort}/?limit=100&offset=${(i % pages) * 100}`
+		);
+		const appResult = await load((i) => {
+			const offset = (i % pages) * 100;
+			return `http://127.0.0.1:${appPort}/api/v1/potentials?limit=100${offset ? `&cursor=${encodeCursor(offset)}` : ''}`;
+		});
+		const afterLoad = rssMb(app.pid as number);
+		console.log(
+			`\nAPI list throughput, 100 rows a page, ${CONCURRENCY} concurrent clients, ${LOAD_SECONDS} s each`
+		);
+		console.log(
+			`  raw node:http + better-sqlite3  ${rawResult.rps.toFixed(1)} req/s  (p50 ${ms(rawResult.p50)}, p95 ${ms(rawResult.p95)}, ${rawResult.count} requests)`
+		);
+		console.log(
+			`  Hopline /api/v1/potentials      ${appResult.rps.toFixed(1)} req/s  (p50 ${ms(appResult.p50)}, p95 ${ms(appResult.p95)}, ${appResult.count} requests)`
+		);
+		console.log(`  ratio ${(appResult.rps / rawResult.rps).toFixed(2)}× raw   (target ≥ 0.5×)`);
+		console.log(
+			`\nServer memory (RSS): at start ${before.toFixed(0)} MB, after indexing ${afterIndex.toFixed(0)} MB, after load ${afterLoad.toFixed(0)} MB   (target ≤ 400 MB)`
+		);
+	} finally {
+		app.kill();
+		raw.kill();
+	}
+}
+
+const dataset = await ensureDataset(DATASET, SIZE);
+console.log(
+	dataset.created
+		? `Generated ${DATASET}: ${SIZE.proteins} proteins, ${SIZE.proteins * SIZE.centresPerProtein} centres, ${SIZE.proteins * SIZE.centresPerProtein * SIZE.potentialsPerCentre} potentials in ${dataset.seconds.toFixed(1)} s`
+		: `Using ${DATASET} (delete it to regenerate)`
+);
+await benchSearch();
+await benchApi();
