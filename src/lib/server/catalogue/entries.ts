@@ -5,6 +5,7 @@ import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { InvalidEntryDataError, VersionStateError } from './errors';
 import { refreshPotentialRows } from './potentialRows';
+import { bumpCatalogueRevision } from './revision';
 import { projectApprovedVersion } from './projection';
 
 /**
@@ -194,6 +195,7 @@ export async function setEntryVisibility(
 					? 'protein_entry_id'
 					: null;
 	if (column) await refreshPotentialRows(trx, { column, entryId });
+	await bumpCatalogueRevision(trx);
 	await trx
 		.insertInto('audit_log')
 		.values({

@@ -2,6 +2,7 @@ import type { Kysely } from 'kysely';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
 import { potentialContext, refreshPotentialRows } from './potentialRows';
+import { bumpCatalogueRevision } from './revision';
 import { assertCoupleFitsCentre, resolveOptionalReference, resolveReference } from './references';
 
 /**
@@ -183,14 +184,4 @@ export async function projectApprovedVersion(
 			return;
 		}
 	}
-}
-
-async function bumpCatalogueRevision(trx: Kysely<Database>): Promise<number> {
-	const { revision } = await trx
-		.updateTable('catalogue_state')
-		.set((eb) => ({ revision: eb('revision', '+', 1) }))
-		.where('id', '=', 1)
-		.returning('revision')
-		.executeTakeFirstOrThrow();
-	return revision;
 }

@@ -2,6 +2,7 @@ import MiniSearch, { type SearchOptions } from 'minisearch';
 import type { Kysely } from 'kysely';
 import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
+import { readCatalogueRevision } from '../catalogue/revision';
 
 /**
  * Full-text search that finds centres. Text describing a protein (name, organism, accession)
@@ -65,13 +66,9 @@ export class CentreSearch {
 	/** Folds proteins and centres changed since the last look into the indexes. */
 	async ensureCurrent(db: Kysely<Database>): Promise<void> {
 		while (this.refreshing) await this.refreshing;
-		const state = await db
-			.selectFrom('catalogue_state')
-			.select('revision')
-			.where('id', '=', 1)
-			.executeTakeFirstOrThrow();
-		if (state.revision === this.revision) return;
-		this.refreshing = this.refresh(db, state.revision).finally(() => {
+		const revision = await readCatalogueRevision(db);
+		if (revision === this.revision) return;
+		this.refreshing = this.refresh(db, revision).finally(() => {
 			this.refreshing = null;
 		});
 		await this.refreshing;
