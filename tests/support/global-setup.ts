@@ -1,5 +1,5 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -30,6 +30,7 @@ async function freePort(): Promise<number> {
 export default async function setup(project: TestProject) {
 	if (!existsSync('build/index.js'))
 		throw new Error('No production build: run `npm run build` first.');
+	mkdirSync('test-results', { recursive: true }); // screenshots of the browser tests land here
 	const dir = mkdtempSync(join(tmpdir(), 'hopline-e2e-'));
 	const port = await freePort();
 	const baseUrl = `http://127.0.0.1:${port}`;

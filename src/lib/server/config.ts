@@ -5,15 +5,13 @@ import { z } from 'zod';
  * process.env, so every setting is documented here and validated at start-up.
  */
 const configSchema = z.object({
+	/** The SQLite file (created with its folder when missing). */
 	DATABASE_PATH: z.string().min(1).default('./data/hopline.sqlite'),
-	DATA_DIR: z.string().min(1).default('./data'),
 	/** Load the invented demo scenario into an empty database at start-up. */
 	HOPLINE_DEMO: z
 		.enum(['true', 'false', '1', '0', ''])
 		.default('false')
-		.transform((v) => v === 'true' || v === '1'),
-	/** Upper bound of rows one API page may return. */
-	API_MAX_LIMIT: z.coerce.number().int().min(10).max(10_000).default(500)
+		.transform((v) => v === 'true' || v === '1')
 });
 
 export type Config = z.infer<typeof configSchema>;
