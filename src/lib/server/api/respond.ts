@@ -40,7 +40,8 @@ export function respondWithPage<T>(
 ): Response {
 	const next = page.nextCursor === null ? null : withCursor(url, page.nextCursor);
 	if (format === 'csv') {
-		const csv = Papa.unparse(page.items.map(toCsvRow), { newline: '\r\n' });
+		// Text cells starting with = + - @ are prefixed so spreadsheets never run them as formulae.
+		const csv = Papa.unparse(page.items.map(toCsvRow), { newline: '\r\n', escapeFormulae: true });
 		const headers = new Headers({
 			'content-type': 'text/csv; charset=utf-8',
 			'content-disposition': `attachment; filename="${filename}.csv"`,

@@ -1,24 +1,25 @@
 import type { Kysely } from 'kysely';
-import type { Database } from '../db/schema';
+import type { Database, PotentialTable } from '../db/schema';
 import { owningGroup, publicFrom } from './visibility';
 
 /**
  * The columns a potential's read-model row copies from its centre, protein and entries, so that
  * searching potentials touches one table. Computed here and nowhere else.
  */
-export interface PotentialContext {
-	accession: string;
-	centre_accession: string;
-	centre_label: string;
-	cofactor_kind: string;
-	protein_entry_id: number;
-	protein_accession: string;
-	protein_name: string;
-	organism: string;
-	is_demo: number;
-	public_from: string | null;
-	group_id: number | null;
-}
+export type PotentialContext = Pick<
+	PotentialTable,
+	| 'accession'
+	| 'centre_accession'
+	| 'centre_label'
+	| 'cofactor_kind'
+	| 'protein_entry_id'
+	| 'protein_accession'
+	| 'protein_name'
+	| 'organism'
+	| 'is_demo'
+	| 'public_from'
+	| 'group_id'
+>;
 
 export async function potentialContext(
 	db: Kysely<Database>,
