@@ -399,29 +399,32 @@ export async function up(db: Kysely<any>): Promise<void> {
 		.addColumn('public_from', 'text')
 		.addColumn('group_id', 'integer', (c) => c.references('research_group.id'))
 		.execute();
+	// Lookups by centre, protein and accession, and one index per text sort order of the
+	// in-memory search (src/lib/server/search/potentialIndex.ts), which reads each order once
+	// per rebuild; the row id (entry_id) breaks ties.
 	const potentialIndexes: [string, string[]][] = [
 		['potential_by_centre', ['centre_entry_id']],
 		['potential_by_protein', ['protein_entry_id']],
-		['potential_by_em', ['em_mv_she']],
-		['potential_by_kind_em', ['cofactor_kind', 'em_mv_she']],
-		['potential_by_name', ['protein_name', 'centre_label', 'couple', 'entry_id']],
-		['potential_by_organism', ['organism']],
-		['potential_by_ph', ['ph']],
-		['potential_by_temperature', ['temperature_k']],
-		['potential_by_method', ['method']],
 		['potential_by_accession', ['accession']],
-		// Covers every filter of a search, so counting matches never reads the wide table rows.
+		['potential_order_protein', ['protein_name', 'centre_label', 'couple']],
+		['potential_order_centre', ['centre_label', 'protein_name']],
+		['potential_order_kind', ['cofactor_kind', 'protein_name', 'centre_label']],
+		['potential_order_couple', ['couple']],
+		['potential_order_method', ['method']],
+		// Covers the columns the in-memory search index loads, so a rebuild reads this narrow
+		// index instead of the wide rows.
 		[
-			'potential_filter_cover',
+			'potential_search_columns',
 			[
-				'public_from',
+				'centre_entry_id',
+				'protein_entry_id',
 				'em_mv_she',
 				'ph',
 				'temperature_k',
 				'cofactor_kind',
 				'method',
 				'organism',
-				'centre_entry_id',
+				'public_from',
 				'group_id'
 			]
 		]

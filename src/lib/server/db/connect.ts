@@ -13,10 +13,8 @@ export function openSqlite(path: string): SQLite.Database {
 	sqlite.pragma('busy_timeout = 5000');
 	// Under WAL, NORMAL survives application crashes; only a power cut can cost the last commit.
 	sqlite.pragma('synchronous = NORMAL');
-	// Catalogue searches read many rows of one table: map the file and keep a 64 MiB page cache
-	// so that they cost memory reads, not system calls.
-	sqlite.pragma('mmap_size = 268435456');
-	sqlite.pragma('cache_size = -65536');
+	// A 32 MiB page cache (the default is 2 MiB) keeps index rebuilds and page reads in memory.
+	sqlite.pragma('cache_size = -32768');
 	return sqlite;
 }
 

@@ -20,16 +20,13 @@ import type { Viewer } from '../catalogue/visibility';
 
 type OrderKey = Exclude<PotentialSort, 'relevance'>;
 
-/** SQL ORDER BY of each sort; SQLite computes the orderings once per rebuild. */
-const ORDER_SQL: Record<OrderKey, string> = {
-	accession: 'entry_id',
+/** Orders on text columns, computed by SQLite (binary collation) once per rebuild. */
+const TEXT_ORDERS = ['protein', 'centre', 'kind', 'couple', 'method'] as const;
+const TEXT_ORDER_SQL: Record<(typeof TEXT_ORDERS)[number], string> = {
 	protein: 'protein_name, centre_label, couple, entry_id',
 	centre: 'centre_label, protein_name, entry_id',
 	kind: 'cofactor_kind, protein_name, centre_label, entry_id',
 	couple: 'couple, entry_id',
-	em: 'em_mv_she, entry_id',
-	ph: 'ph is null, ph, entry_id',
-	temperature: 'temperature_k is null, temperature_k, entry_id',
 	method: 'method, entry_id'
 };
 
@@ -75,79 +72,98 @@ function codeOf(values: string[], codes: Map<string, number>, value: string): nu
 	return code;
 }
 
+const SEPARATOR = '\u001f';
+
+/** Numeric column values in ascending order, missing values (NaN) last, ties by accession. */
+function numericOrder(n: number, values: Float64Array | Int32Array, entryId: Int32Array) {
+	const rows = new Int32Array(n);
+	for (let i = 0; i < n; i++) rows[i] = i;
+	rows.sort((a, b) => {
+		const x = values[a]!;
+		const y = values[b]!;
+		const xMissing = Number.isNaN(x);
+		if (xMissing !== Number.isNaN(y)) return xMissing ? 1 : -1;
+		return (xMissing ? 0 : x - y) || entryId[a]! - entryId[b]!;
+	});
+	let nonNull = n;
+	while (nonNull > 0 && Number.isNaN(values[rows[nonNull - 1]!])) nonNull--;
+	return { rows, nonNull };
+}
+
 async function loadColumns(db: Kysely<Database>): Promise<Columns> {
-	const rows = await db
-		.selectFrom('potential')
-		.select([
-			'entry_id',
-			'centre_entry_id',
-			'protein_entry_id',
-			'em_mv_she',
-			'ph',
-			'temperature_k',
-			'cofactor_kind',
-			'method',
-			'organism',
-			'public_from',
-			'group_id'
-		])
-		.orderBy('entry_id')
-		.execute();
-	const n = rows.length;
+	// One row of aggregates instead of 100 000 row objects keeps rebuilds quick. All aggregates
+	// of one query consume the rows in the same sequence, so the lists line up; NULLs become ''
+	// because group_concat would skip them.
+	const { rows } = await sql<Record<string, string | null>>`select
+		group_concat(entry_id) as entry_id,
+		group_concat(centre_entry_id) as centre_id,
+		group_concat(protein_entry_id) as protein_id,
+		group_concat(em_mv_she) as em,
+		group_concat(coalesce(ph, '')) as ph,
+		group_concat(coalesce(temperature_k, '')) as temperature,
+		group_concat(cofactor_kind, ${SEPARATOR}) as kind,
+		group_concat(method, ${SEPARATOR}) as method,
+		group_concat(organism, ${SEPARATOR}) as organism,
+		group_concat(coalesce(public_from, ''), ${SEPARATOR}) as public_from,
+		group_concat(coalesce(group_id, 0)) as group_id
+		from potential`.execute(db);
+	const row = rows[0] ?? {};
+	const list = (name: string, separator = ',') =>
+		row[name] ? (row[name] as string).split(separator) : [];
+	const numbers = (name: string) => list(name).map((v) => (v === '' ? Number.NaN : Number(v)));
+	const entryIds = numbers('entry_id');
+	const n = entryIds.length;
 	const c: Columns = {
 		n,
-		entryId: new Int32Array(n),
-		centreId: new Int32Array(n),
-		proteinId: new Int32Array(n),
-		em: new Float64Array(n),
-		ph: new Float64Array(n),
-		temperature: new Float64Array(n),
+		entryId: Int32Array.from(entryIds),
+		centreId: Int32Array.from(numbers('centre_id')),
+		proteinId: Int32Array.from(numbers('protein_id')),
+		em: Float64Array.from(numbers('em')),
+		ph: Float64Array.from(numbers('ph')),
+		temperature: Float64Array.from(numbers('temperature')),
 		kind: new Int32Array(n),
 		method: new Int32Array(n),
 		organism: new Int32Array(n),
-		publicFrom: new Float64Array(n),
-		group: new Int32Array(n),
+		publicFrom: Float64Array.from(list('public_from', SEPARATOR), (v) =>
+			v === '' ? Number.POSITIVE_INFINITY : Date.parse(v)
+		),
+		group: Int32Array.from(numbers('group_id')),
 		kinds: [],
 		methods: [],
 		organisms: [],
 		rowsOfCentre: new Map(),
 		orders: new Map()
 	};
-	const codes = {
-		kind: new Map<string, number>(),
-		method: new Map<string, number>(),
-		organism: new Map<string, number>()
+	const encode = (target: Int32Array, values: string[], name: string) => {
+		const codes = new Map<string, number>();
+		list(name, SEPARATOR).forEach((v, i) => (target[i] = codeOf(values, codes, v)));
 	};
+	encode(c.kind, c.kinds, 'kind');
+	encode(c.method, c.methods, 'method');
+	encode(c.organism, c.organisms, 'organism');
 	const rowOfEntry = new Map<number, number>();
-	rows.forEach((r, i) => {
-		c.entryId[i] = r.entry_id;
-		c.centreId[i] = r.centre_entry_id;
-		c.proteinId[i] = r.protein_entry_id;
-		c.em[i] = r.em_mv_she;
-		c.ph[i] = r.ph ?? Number.NaN;
-		c.temperature[i] = r.temperature_k ?? Number.NaN;
-		c.kind[i] = codeOf(c.kinds, codes.kind, r.cofactor_kind);
-		c.method[i] = codeOf(c.methods, codes.method, r.method);
-		c.organism[i] = codeOf(c.organisms, codes.organism, r.organism);
-		c.publicFrom[i] = r.public_from === null ? Number.POSITIVE_INFINITY : Date.parse(r.public_from);
-		c.group[i] = r.group_id ?? 0;
-		rowOfEntry.set(r.entry_id, i);
-		const list = c.rowsOfCentre.get(r.centre_entry_id);
-		if (list) list.push(i);
-		else c.rowsOfCentre.set(r.centre_entry_id, [i]);
-	});
-	for (const key of Object.keys(ORDER_SQL) as OrderKey[]) {
-		// ORDER_SQL holds constants only; nothing from a request reaches this statement.
-		const { rows: ordered } = await sql<{
+	for (let i = 0; i < n; i++) {
+		rowOfEntry.set(c.entryId[i]!, i);
+		const rowsOfCentre = c.rowsOfCentre.get(c.centreId[i]!);
+		if (rowsOfCentre) rowsOfCentre.push(i);
+		else c.rowsOfCentre.set(c.centreId[i]!, [i]);
+	}
+	for (const rowsOfCentre of c.rowsOfCentre.values())
+		rowsOfCentre.sort((a, b) => c.entryId[a]! - c.entryId[b]!);
+
+	c.orders.set('accession', numericOrder(n, c.entryId, c.entryId));
+	c.orders.set('em', numericOrder(n, c.em, c.entryId));
+	c.orders.set('ph', numericOrder(n, c.ph, c.entryId));
+	c.orders.set('temperature', numericOrder(n, c.temperature, c.entryId));
+	for (const key of TEXT_ORDERS) {
+		// TEXT_ORDER_SQL holds constants only; nothing from a request reaches this statement.
+		// Each order has an index (migration 0001), so SQLite reads it without sorting.
+		const { rows: ids } = await sql<{
 			entry_id: number;
-		}>`select entry_id from potential order by ${sql.raw(ORDER_SQL[key])}`.execute(db);
+		}>`select entry_id from potential order by ${sql.raw(TEXT_ORDER_SQL[key])}`.execute(db);
 		const orderRows = new Int32Array(n);
-		ordered.forEach((r, i) => (orderRows[i] = rowOfEntry.get(r.entry_id) ?? 0));
-		const column = key === 'ph' ? c.ph : key === 'temperature' ? c.temperature : null;
-		let nonNull = n;
-		if (column)
-			while (nonNull > 0 && Number.isNaN(column[orderRows[nonNull - 1] as number])) nonNull--;
-		c.orders.set(key, { rows: orderRows, nonNull });
+		ids.forEach((r, i) => (orderRows[i] = rowOfEntry.get(r.entry_id) ?? 0));
+		c.orders.set(key, { rows: orderRows, nonNull: n });
 	}
 	return c;
 }
