@@ -2,3 +2,7 @@
 export * from './constants';
 export * from './units';
 export * from './referenceElectrodes';
+export * from './nernst';
+export * from './protonCoupling';
+export * from './temperatureDependence';
+export * from './electronTransfer';

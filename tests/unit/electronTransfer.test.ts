@@ -1,0 +1,149 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import {
+	BOLTZMANN_EV_PER_K,
+	couplingAtDistance,
+	deltaGFromPotentials,
+	marcusRate,
+	moserDuttonLog10Rate,
+	moserDuttonRate,
+	reverseRate
+} from '$lib/science';
+
+describe('Moser–Dutton ruler', () => {
+	// Moser et al., Nature 355, 796 (1992): log10 k = 13 at van der Waals contact (3.6 Å) when −ΔG° = λ.
+	it('is 10^13 s⁻¹ at contact and optimal driving force', () => {
+		const r = moserDuttonRate({ edgeDistanceA: 3.6, deltaGEv: -0.8, lambdaEv: 0.8 });
+		expect(r.log10Rate).toBeCloseTo(13, 12);
+		expect(r.rate).toBeCloseTo(1e13, -6);
+	});
+	// Page et al., Nature 402, 47 (1999), eq. 1: slope (1.2 − 0.8ρ) per Å; ρ = 0.76 gives 0.592 decades/Å,
+	// i.e. β = 0.592·ln 10 = 1.36 Å⁻¹ (quoted there as β ≈ 1.4 Å⁻¹).
+	it('falls by 1.2 − 0.8ρ decades per Å', () => {
+		const at = (r: number) =>
+			moserDuttonLog10Rate({ edgeDistanceA: r, deltaGEv: -0.5, lambdaEv: 0.7 }).log10Rate;
+		expect(at(10) - at(11)).toBeCloseTo(0.592, 12);
+		expect((at(10) - at(11)) * Math.LN10).toBeCloseTo(1.363, 3);
+	});
+	it('a packing density of 0 gives the vacuum-like 1.2 decades per Å', () => {
+		const at = (r: number) =>
+			moserDuttonLog10Rate({ edgeDistanceA: r, deltaGEv: -0.5, lambdaEv: 0.7, packingDensity: 0 })
+				.log10Rate;
+		expect(at(8) - at(9)).toBeCloseTo(1.2, 12);
+	});
+	// Page et al. (1999) eq. 2: the uphill rate is the downhill one times 10^(−ΔG°/0.06).
+	it('endergonic rate is the exergonic one over 10^(ΔG°/0.06)', () => {
+		const base = { edgeDistanceA: 9, lambdaEv: 0.7 };
+		const down = moserDuttonLog10Rate({ ...base, deltaGEv: -0.12 }).log10Rate;
+		const up = moserDuttonLog10Rate({ ...base, deltaGEv: 0.12 }).log10Rate;
+		expect(down - up).toBeCloseTo(0.12 / 0.06, 12);
+	});
+	it('is continuous at ΔG° = 0', () => {
+		const base = { edgeDistanceA: 9, lambdaEv: 0.7 };
+		expect(moserDuttonLog10Rate({ ...base, deltaGEv: 1e-9 }).log10Rate).toBeCloseTo(
+			moserDuttonLog10Rate({ ...base, deltaGEv: -1e-9 }).log10Rate,
+			6
+		);
+	});
+	it('warns below contact and beyond 14 Å, and for λ outside the usual range', () => {
+		expect(
+			moserDuttonRate({ edgeDistanceA: 2, deltaGEv: -0.1, lambdaEv: 0.7 }).warnings.join()
+		).toMatch(/contact/);
+		expect(
+			moserDuttonRate({ edgeDistanceA: 18, deltaGEv: -0.1, lambdaEv: 0.7 }).warnings.join()
+		).toMatch(/14 Å/);
+		expect(
+			moserDuttonRate({ edgeDistanceA: 8, deltaGEv: -0.1, lambdaEv: 2.5 }).warnings.join()
+		).toMatch(/λ/);
+		expect(moserDuttonRate({ edgeDistanceA: 8, deltaGEv: -0.1, lambdaEv: 0.7 }).warnings).toEqual(
+			[]
+		);
+	});
+	it('rejects λ ≤ 0 and ρ > 1', () => {
+		expect(() => moserDuttonRate({ edgeDistanceA: 8, deltaGEv: 0, lambdaEv: 0 })).toThrow(
+			RangeError
+		);
+		expect(() =>
+			moserDuttonRate({ edgeDistanceA: 8, deltaGEv: 0, lambdaEv: 0.7, packingDensity: 1.2 })
+		).toThrow(RangeError);
+	});
+	it('never returns NaN or Infinity', () => {
+		fc.assert(
+			fc.property(
+				fc.double({ min: 0, max: 100, noNaN: true }),
+				fc.double({ min: -5, max: 5, noNaN: true }),
+				fc.double({ min: 0.01, max: 5, noNaN: true }),
+				(r, dg, l) => {
+					const x = moserDuttonRate({ edgeDistanceA: r, deltaGEv: dg, lambdaEv: l });
+					return Number.isFinite(x.rate) && Number.isFinite(x.log10Rate);
+				}
+			)
+		);
+	});
+});
+
+describe('nonadiabatic Marcus rate', () => {
+	// Marcus & Sutin, BBA 811, 265 (1985), eq. 26, evaluated independently with ħ = 6.582119569e-16 eV s
+	// and k_B = 8.617333262e-5 eV/K (CODATA 2018): H = 0.01 eV, λ = 1 eV, ΔG° = −1 eV, 298.15 K.
+	it('matches a hand evaluation at the activationless point', () => {
+		const kT = 8.617333262e-5 * 298.15;
+		const expected = (((2 * Math.PI) / 6.582119569e-16) * 1e-4) / Math.sqrt(4 * Math.PI * 1 * kT);
+		expect(
+			marcusRate({ couplingEv: 0.01, deltaGEv: -1, lambdaEv: 1, temperatureK: 298.15 }).rate /
+				expected
+		).toBeCloseTo(1, 9);
+		expect(expected).toBeCloseTo(1.68e12, -10);
+	});
+	// Marcus theory: the rate is maximal at −ΔG° = λ and falls again beyond it (inverted region).
+	it('peaks at −ΔG° = λ', () => {
+		const k = (dg: number) =>
+			marcusRate({ couplingEv: 0.001, deltaGEv: dg, lambdaEv: 0.8 }).log10Rate;
+		expect(k(-0.8)).toBeGreaterThan(k(-0.79));
+		expect(k(-0.8)).toBeGreaterThan(k(-0.81));
+		expect(k(-0.6)).toBeCloseTo(k(-1.0), 9);
+	});
+	// Detailed balance: k(ΔG°)/k(−ΔG°) = exp(−ΔG°/k_BT), exactly, for the Marcus expression.
+	it('obeys detailed balance', () => {
+		fc.assert(
+			fc.property(
+				fc.double({ min: -0.5, max: 0.5, noNaN: true }),
+				fc.double({ min: 0.2, max: 1.5, noNaN: true }),
+				(dg, l) => {
+					const f = marcusRate({ couplingEv: 0.001, deltaGEv: dg, lambdaEv: l }).log10Rate;
+					const b = marcusRate({ couplingEv: 0.001, deltaGEv: -dg, lambdaEv: l }).log10Rate;
+					const expected = -dg / (BOLTZMANN_EV_PER_K * 298.15) / Math.LN10;
+					return Math.abs(f - b - expected) < 1e-9;
+				}
+			)
+		);
+	});
+	it('warns when coupling approaches k_BT (adiabatic regime)', () =>
+		expect(marcusRate({ couplingEv: 0.05, deltaGEv: -0.5, lambdaEv: 0.8 }).warnings.join()).toMatch(
+			/adiabatic/
+		));
+	it('scales with the square of the coupling', () => {
+		const k = (h: number) => marcusRate({ couplingEv: h, deltaGEv: -0.3, lambdaEv: 0.8 }).rate;
+		expect(k(0.002) / k(0.001)).toBeCloseTo(4, 9);
+	});
+	it('returns zero for zero coupling', () =>
+		expect(marcusRate({ couplingEv: 0, deltaGEv: 0, lambdaEv: 1 }).rate).toBe(0));
+});
+
+describe('couplings, driving forces and reverse rates', () => {
+	it('coupling decays as exp(−β(R − R₀)/2)', () => {
+		expect(couplingAtDistance({ h0Ev: 0.02, betaPerA: 1.4, distanceA: 3.6 })).toBeCloseTo(0.02, 12);
+		expect(couplingAtDistance({ h0Ev: 0.02, betaPerA: 1.4, r0A: 3.6, distanceA: 4.6 })).toBeCloseTo(
+			0.02 * Math.exp(-0.7),
+			12
+		);
+	});
+	it('ΔG° from potentials: downhill when the acceptor is more positive', () => {
+		expect(deltaGFromPotentials(-400, -250)).toBeCloseTo(-0.15, 12);
+		expect(deltaGFromPotentials(-400, -250, 2)).toBeCloseTo(-0.3, 12);
+	});
+	// Detailed balance: k_b = k_f exp(ΔG°/k_BT); at 298.15 K, 59.16 meV is one decade.
+	it('reverse rate by detailed balance', () => {
+		expect(reverseRate(1e6, 0)).toBe(1e6);
+		expect(reverseRate(1e6, (-0.0591596 * Math.log(10)) / Math.LN10, 298.15)).toBeCloseTo(1e5, -1);
+	});
+});
