@@ -6,3 +6,5 @@ export * from './nernst';
 export * from './protonCoupling';
 export * from './temperatureDependence';
 export * from './electronTransfer';
+export * from './random';
+export * from './chainKinetics';

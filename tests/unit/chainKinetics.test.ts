@@ -1,0 +1,170 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import {
+	BOLTZMANN_EV_PER_K,
+	analyseChain,
+	monteCarloChain,
+	moserDuttonRate,
+	percentile,
+	seededRandom,
+	type ChainInput
+} from '$lib/science';
+
+const linear = (
+	ems: number[],
+	distances: number[],
+	model: ChainInput['model'] = 'moser-dutton'
+): ChainInput => ({
+	centres: ems.map((emMv, i) => ({ id: `C${i}`, emMv })),
+	hops: distances.map((edgeDistanceA, i) => ({ from: `C${i}`, to: `C${i + 1}`, edgeDistanceA })),
+	entry: 'C0',
+	exit: `C${ems.length - 1}`,
+	lambdaEv: 0.7,
+	temperatureK: 298.15,
+	model
+});
+
+/**
+ * Mean first-passage time of a one-step (birth–death) chain from state 0 to state N with N
+ * absorbing: τ = Σ_{k=0}^{N−1} [1/(g_k π_k)] Σ_{j=0}^{k} π_j, π the detailed-balance weights.
+ * C. W. Gardiner, Handbook of Stochastic Methods (3rd ed.), §7.4 (one-step processes), from memory.
+ */
+function birthDeathMfpt(up: number[], down: number[]): number {
+	const pi = [1];
+	for (let k = 1; k < up.length; k++) pi.push((pi[k - 1]! * up[k - 1]!) / down[k - 1]!);
+	let tau = 0;
+	let cumulative = 0;
+	for (let k = 0; k < up.length; k++) {
+		cumulative += pi[k]!;
+		tau += cumulative / (up[k]! * pi[k]!);
+	}
+	return tau;
+}
+
+describe('analyseChain', () => {
+	it('a single hop: the throughput is that hop’s rate', () => {
+		const r = analyseChain(linear([-300, -250], [8]));
+		const k = moserDuttonRate({ edgeDistanceA: 8, deltaGEv: -0.05, lambdaEv: 0.7 }).rate;
+		expect(r.throughputPerS / k).toBeCloseTo(1, 9);
+		expect(r.sensitivities[0]!.value).toBeCloseTo(1, 6);
+	});
+	it('uphill directions follow detailed balance at the given temperature', () => {
+		const r = analyseChain({ ...linear([-300, -200, -350], [9, 11]), temperatureK: 310 });
+		for (const h of r.hops) {
+			expect(h.backwardRate / h.forwardRate).toBeCloseTo(
+				Math.exp(h.deltaGEv / (BOLTZMANN_EV_PER_K * 310)),
+				9
+			);
+		}
+	});
+	it('matches the birth–death first-passage formula on a linear chain (Gardiner §7.4)', () => {
+		for (const model of ['moser-dutton', 'marcus'] as const) {
+			const r = analyseChain(
+				linear([-400, -300, -350, -200, -260, -100], [7, 11, 9.5, 12, 8], model)
+			);
+			const expected = birthDeathMfpt(
+				r.hops.map((h) => h.forwardRate),
+				r.hops.map((h) => h.backwardRate)
+			);
+			expect(r.meanTransitTimeS / expected).toBeCloseTo(1, 8);
+		}
+	});
+	it('two parallel hops between the same pair add their rates', () => {
+		const input = linear([-300, -250], [8]);
+		input.hops.push({ from: 'C0', to: 'C1', edgeDistanceA: 10 });
+		const r = analyseChain(input);
+		expect(r.throughputPerS / (r.hops[0]!.forwardRate + r.hops[1]!.forwardRate)).toBeCloseTo(1, 9);
+	});
+	it('handles branches: a dead-end side branch slows transit only slightly, never speeds it', () => {
+		const main = linear([-350, -300, -250, -200], [9, 9, 9]);
+		const branched: ChainInput = {
+			...main,
+			centres: [...main.centres, { id: 'S', emMv: -320 }],
+			hops: [...main.hops, { from: 'C1', to: 'S', edgeDistanceA: 8 }]
+		};
+		const a = analyseChain(main);
+		const b = analyseChain(branched);
+		expect(b.meanTransitTimeS).toBeGreaterThanOrEqual(a.meanTransitTimeS);
+		expect(b.sensitivities.find((s) => s.to === 'S')!.value).toBeLessThanOrEqual(0);
+	});
+	it('names the slowest step as rate-limiting', () => {
+		const r = analyseChain(linear([-300, -290, -280, -270], [6, 16, 6]));
+		expect(r.rateLimitingHop).toEqual({ from: 'C1', to: 'C2' });
+		expect(r.sensitivities[1]!.value).toBeGreaterThan(0.9);
+	});
+	it('refuses a disconnected exit with a clear error', () => {
+		const input = linear([-300, -250, -200], [8, 8]);
+		input.hops = [input.hops[0]!];
+		expect(() => analyseChain(input)).toThrow(/exit "C2" cannot be reached from entry "C0"/);
+	});
+	it('refuses unknown centres and entry = exit', () => {
+		expect(() => analyseChain({ ...linear([-300, -250], [8]), exit: 'X' })).toThrow(/exit "X"/);
+		expect(() => analyseChain({ ...linear([-300, -250], [8]), exit: 'C0' })).toThrow(/different/);
+	});
+	it('on a linear chain the throughput never exceeds the slowest forward hop', () => {
+		fc.assert(
+			fc.property(
+				fc.array(fc.integer({ min: -500, max: 300 }), { minLength: 2, maxLength: 8 }),
+				fc.array(fc.double({ min: 4, max: 15, noNaN: true }), { minLength: 7, maxLength: 7 }),
+				fc.constantFrom('moser-dutton' as const, 'marcus' as const),
+				(ems, ds, model) => {
+					const r = analyseChain(linear(ems, ds.slice(0, ems.length - 1), model));
+					const slowest = Math.min(...r.hops.map((h) => h.forwardRate));
+					return r.throughputPerS <= slowest * (1 + 1e-9);
+				}
+			),
+			{ numRuns: 200 }
+		);
+	});
+});
+
+describe('monteCarloChain', () => {
+	const input: ChainInput = {
+		...linear([-350, -300, -250], [9, 10]),
+		centres: [
+			{ id: 'C0', emMv: -350, emSigmaMv: 20 },
+			{ id: 'C1', emMv: -300, emSigmaMv: 20 },
+			{ id: 'C2', emMv: -250, emSigmaMv: 20 }
+		]
+	};
+	it('is reproducible for a seed', () => {
+		expect(monteCarloChain(input, { samples: 200, seed: 7 })).toEqual(
+			monteCarloChain(input, { samples: 200, seed: 7 })
+		);
+		expect(monteCarloChain(input, { samples: 200, seed: 7 })).not.toEqual(
+			monteCarloChain(input, { samples: 200, seed: 8 })
+		);
+	});
+	it('gives ordered percentiles around the deterministic throughput', () => {
+		const mc = monteCarloChain(input, { samples: 2000, seed: 1 });
+		const exact = analyseChain(input).throughputPerS;
+		expect(mc.throughputPerS.p5).toBeLessThan(mc.throughputPerS.p50);
+		expect(mc.throughputPerS.p50).toBeLessThan(mc.throughputPerS.p95);
+		expect(mc.throughputPerS.p5).toBeLessThan(exact);
+		expect(mc.throughputPerS.p95).toBeGreaterThan(exact);
+	});
+	it('with no uncertainty every percentile is the deterministic value', () => {
+		const plain = linear([-350, -300, -250], [9, 10]);
+		const mc = monteCarloChain(plain, { samples: 20, seed: 3 });
+		expect(mc.throughputPerS.p5 / analyseChain(plain).throughputPerS).toBeCloseTo(1, 9);
+	});
+	it('refuses too few samples', () =>
+		expect(() => monteCarloChain(input, { samples: 5, seed: 1 })).toThrow(RangeError));
+});
+
+describe('seeded random numbers', () => {
+	it('normals have mean 0 and variance 1', () => {
+		const r = seededRandom(42);
+		const xs = Array.from({ length: 20000 }, () => r.normal());
+		const mean = xs.reduce((a, b) => a + b, 0) / xs.length;
+		const variance = xs.reduce((a, b) => a + (b - mean) ** 2, 0) / (xs.length - 1);
+		expect(Math.abs(mean)).toBeLessThan(0.03);
+		expect(variance).toBeCloseTo(1, 1);
+	});
+	// Hyndman & Fan (1996) definition 7, as in R's quantile(type = 7): quantile(1:10, 0.05) = 1.45.
+	it('percentile interpolates as R type 7', () => {
+		const xs = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
+		expect(percentile(xs, 5)).toBeCloseTo(1.45, 12);
+		expect(percentile(xs, 50)).toBeCloseTo(5.5, 12);
+	});
+});
