@@ -186,10 +186,16 @@ function reachable(chain: PreparedChain, start: string): Set<string> {
 	while (queue.length > 0) {
 		const node = queue.pop()!;
 		for (const h of chain.hops) {
-			if (h.from === node && h.forwardRate > 0 && !seen.has(h.to))
-				(queue.push(h.to), seen.add(h.to));
-			if (h.to === node && h.backwardRate > 0 && !seen.has(h.from))
-				(queue.push(h.from), seen.add(h.from));
+			const next =
+				h.from === node && h.forwardRate > 0
+					? h.to
+					: h.to === node && h.backwardRate > 0
+						? h.from
+						: null;
+			if (next !== null && !seen.has(next)) {
+				seen.add(next);
+				queue.push(next);
+			}
 		}
 	}
 	return seen;
