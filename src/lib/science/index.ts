@@ -8,3 +8,4 @@ export * from './temperatureDependence';
 export * from './electronTransfer';
 export * from './random';
 export * from './chainKinetics';
+export * from './titrationFit';
