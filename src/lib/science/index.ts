@@ -9,3 +9,5 @@ export * from './electronTransfer';
 export * from './random';
 export * from './chainKinetics';
 export * from './titrationFit';
+export * from './symmetricEigen';
+export * from './tunnelling';
