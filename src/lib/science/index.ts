@@ -11,3 +11,4 @@ export * from './chainKinetics';
 export * from './titrationFit';
 export * from './symmetricEigen';
 export * from './tunnelling';
+export * from './structure';
