@@ -37,7 +37,8 @@ export function parseSearchParams<S extends z.ZodObject>(
 	if (!parsed.success) {
 		for (const issue of parsed.error.issues) {
 			const key = String(issue.path[0] ?? '_');
-			(fields[key] ??= []).push(issue.message);
+			const message = key in record || key === '_' ? issue.message : `required: ${issue.message}`;
+			(fields[key] ??= []).push(message);
 		}
 	}
 	if (Object.keys(fields).length > 0 || !parsed.success) return { ok: false, fields };

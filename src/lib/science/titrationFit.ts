@@ -284,3 +284,15 @@ export function fitNernst(points: TitrationPoint[], options: FitOptions): Nernst
 		iterations: best!.iterations
 	};
 }
+
+/** The fitted model's signal at a potential (mV): offset + Σ A / (1 + exp[nF(E − Em)/RT]). */
+export function titrationSignal(
+	fit: Pick<NernstFit, 'components' | 'offset' | 'temperatureK'>,
+	potentialMv: number
+): number {
+	const f = FARADAY_C_PER_MOL / (GAS_J_PER_MOL_K * fit.temperatureK) / 1000;
+	return fit.components.reduce(
+		(y, c) => y + c.amplitude / (1 + Math.exp(Math.min(700, c.n * f * (potentialMv - c.emMv)))),
+		fit.offset
+	);
+}

@@ -58,3 +58,16 @@ function withCursor(url: URL, cursor: string): string {
 	next.searchParams.set('cursor', cursor);
 	return next.pathname + next.search;
 }
+
+/**
+ * JSON for computed results: a non-finite number here is a bug, never something to send
+ * (JSON would silently turn it into null), so it fails loudly instead.
+ */
+export function computedJson(value: unknown): Response {
+	const body = JSON.stringify(value, (key, v: unknown) => {
+		if (typeof v === 'number' && !Number.isFinite(v))
+			throw new Error(`non-finite number in result field "${key}"`);
+		return v;
+	});
+	return new Response(body, { headers: { 'content-type': 'application/json' } });
+}

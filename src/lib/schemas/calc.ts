@@ -1,0 +1,101 @@
+import { z } from 'zod';
+import { queryNumber } from './searchParams';
+
+/**
+ * Inputs of the calculators, shared by their pages and the API. Bounds are those within which
+ * the science functions are meaningful; everything outside is a 400 naming the field.
+ */
+
+export const RATE_MODELS = ['moser-dutton', 'marcus'] as const;
+
+export const hopRateQuerySchema = z.object({
+	distance: queryNumber(0, 100, ' Å'),
+	dG: queryNumber(-5, 5, ' eV'),
+	lambda: queryNumber(0.01, 5, ' eV'),
+	model: z
+		.enum(RATE_MODELS, { error: `expected ${RATE_MODELS.join(' or ')}` })
+		.default('moser-dutton'),
+	temperature: queryNumber(1, 1000, ' K').default(298.15),
+	packing: queryNumber(0, 1).default(0.76),
+	/** Marcus coupling at contact, eV; defaults to the Moser–Dutton calibration. */
+	h0: queryNumber(1e-9, 1, ' eV').optional(),
+	/** Marcus distance decay, Å⁻¹; defaults to ln10·(1.2 − 0.8ρ). */
+	beta: queryNumber(0, 5, ' Å⁻¹').optional()
+});
+export type HopRateQuery = z.infer<typeof hopRateQuerySchema>;
+
+const finite = (min: number, max: number, unit = '') =>
+	z
+		.number({ error: `expected a number from ${min} to ${max}${unit}` })
+		.refine(
+			(v) => Number.isFinite(v) && v >= min && v <= max,
+			`expected a number from ${min} to ${max}${unit}`
+		);
+
+export const MAX_TITRATION_POINTS = 5000;
+
+export const titrationRequestSchema = z.strictObject({
+	points: z
+		.array(z.strictObject({ potentialMv: finite(-3000, 3000, ' mV'), signal: finite(-1e12, 1e12) }))
+		.min(4, 'at least 4 points are needed')
+		.max(MAX_TITRATION_POINTS, `at most ${MAX_TITRATION_POINTS} points`),
+	components: z.union([z.literal(1), z.literal(2)], { error: 'expected 1 or 2' }).default(1),
+	n: finite(0.1, 4).optional(),
+	temperatureK: finite(1, 1000, ' K').default(298.15)
+});
+export type TitrationRequest = z.infer<typeof titrationRequestSchema>;
+
+export const doubleWellSchema = z.strictObject({
+	kind: z.literal('double-well'),
+	/** Barrier height above the lower minimum of a symmetric well, kcal/mol. */
+	barrierKcalMol: finite(0, 100, ' kcal/mol'),
+	/** Distance from the barrier top to each minimum, Å. */
+	halfSeparationA: finite(0.05, 2, ' Å'),
+	/** Energy of the right minimum above the left, kcal/mol (a linear tilt). */
+	asymmetryKcalMol: finite(-50, 50, ' kcal/mol').default(0)
+});
+
+export const sampledPotentialSchema = z.strictObject({
+	kind: z.literal('points'),
+	points: z
+		.array(
+			z.strictObject({ xA: finite(-20, 20, ' Å'), energyKcalMol: finite(-1000, 1000, ' kcal/mol') })
+		)
+		.min(4, 'at least 4 points are needed')
+		.max(2000, 'at most 2000 points')
+});
+
+export const ISOTOPES = ['H', 'D', 'T', 'hydride'] as const;
+
+export const tunnellingRequestSchema = z
+	.strictObject({
+		temperatureK: finite(1, 2000, ' K').default(298.15),
+		imagFreqCm1: finite(1, 5000, ' cm⁻¹').optional(),
+		barrierKJmol: finite(0.01, 500, ' kJ/mol').optional(),
+		potential: z.discriminatedUnion('kind', [doubleWellSchema, sampledPotentialSchema]).optional(),
+		isotope: z.enum(ISOTOPES).default('H'),
+		massAmu: finite(0.5, 300, ' u').optional(),
+		xMinA: finite(-20, 20, ' Å').optional(),
+		xMaxA: finite(-20, 20, ' Å').optional(),
+		points: z.number().int().min(50).max(800).default(400),
+		levels: z.number().int().min(2).max(20).default(6)
+	})
+	.refine((r) => r.imagFreqCm1 !== undefined || r.potential !== undefined, {
+		path: ['imagFreqCm1'],
+		message: 'give an imaginary frequency, a potential, or both'
+	})
+	.refine((r) => r.xMinA === undefined || r.xMaxA === undefined || r.xMaxA > r.xMinA, {
+		path: ['xMaxA'],
+		message: 'xMaxA must be greater than xMinA'
+	});
+export type TunnellingRequest = z.infer<typeof tunnellingRequestSchema>;
+
+/** Field errors from a zod error, keyed by the dotted path. */
+export function fieldErrors(error: z.ZodError): Record<string, string[]> {
+	const fields: Record<string, string[]> = {};
+	for (const issue of error.issues) {
+		const key = issue.path.length ? issue.path.join('.') : '_';
+		(fields[key] ??= []).push(issue.message);
+	}
+	return fields;
+}

@@ -1,0 +1,26 @@
+import { tunnellingRequestSchema } from '$lib/schemas/calc';
+import { parseJsonBody } from '$lib/server/api/body';
+import { apiHandler } from '$lib/server/api/handler';
+import { apiError, computedJson } from '$lib/server/api/respond';
+import { runTunnelling } from '$lib/server/calc/tunnelling';
+import type { RequestHandler } from './$types';
+
+/** POST /api/v1/calc/tunnelling — tunnelling factors and/or vibrational levels of a potential. */
+export const POST: RequestHandler = apiHandler(async ({ request }) => {
+	const body = await parseJsonBody(request, tunnellingRequestSchema);
+	if (!body.ok) return body.response;
+	let result;
+	try {
+		result = runTunnelling(body.data);
+	} catch (e) {
+		if (e instanceof RangeError)
+			return apiError('bad_request', e.message, { potential: [e.message] });
+		throw e;
+	}
+	return computedJson({
+		...result,
+		units: { energies: 'kcal/mol and cm⁻¹', grid: 'Å', wavefunctions: 'Å^-1/2', massAmu: 'u' },
+		caution:
+			'One-dimensional model estimates: the parabolic-barrier factors and fixed-potential levels ignore coupling to other coordinates; treat isotope effects as indicative.'
+	});
+});

@@ -1,0 +1,44 @@
+import { fail } from '@sveltejs/kit';
+import { fitNernst } from '$lib/science';
+import { fieldErrors, titrationRequestSchema } from '$lib/schemas/calc';
+import { parseTitrationText } from '$lib/server/calc/titrationCsv';
+import type { Actions } from './$types';
+
+const MAX_UPLOAD_BYTES = 1_000_000;
+
+export const actions: Actions = {
+	default: async ({ request }) => {
+		const form = await request.formData();
+		const file = form.get('file');
+		const pasted = String(form.get('points') ?? '');
+		const values = {
+			points: pasted,
+			components: String(form.get('components') ?? '1'),
+			n: String(form.get('n') ?? ''),
+			temperatureK: String(form.get('temperatureK') ?? '298.15')
+		};
+		let text = pasted;
+		if (file instanceof File && file.size > 0) {
+			if (file.size > MAX_UPLOAD_BYTES)
+				return fail(413, { values, errors: { file: ['the file is larger than 1 MB'] } });
+			text = await file.text();
+			values.points = text;
+		}
+		const { points, errors: rowErrors } = parseTitrationText(text);
+		if (rowErrors.length) return fail(400, { values, errors: { points: rowErrors } });
+		const parsed = titrationRequestSchema.safeParse({
+			points,
+			components: Number(values.components),
+			n: values.n.trim() === '' ? undefined : Number(values.n),
+			temperatureK: Number(values.temperatureK)
+		});
+		if (!parsed.success) return fail(400, { values, errors: fieldErrors(parsed.error) });
+		const { points: valid, ...options } = parsed.data;
+		try {
+			return { values, fit: fitNernst(valid, options), points: valid };
+		} catch (e) {
+			if (e instanceof RangeError) return fail(400, { values, errors: { points: [e.message] } });
+			throw e;
+		}
+	}
+};

@@ -1,0 +1,64 @@
+import { fail } from '@sveltejs/kit';
+import Papa from 'papaparse';
+import { fieldErrors, tunnellingRequestSchema } from '$lib/schemas/calc';
+import { runTunnelling } from '$lib/server/calc/tunnelling';
+import type { Actions } from './$types';
+
+const text = (form: FormData, name: string, fallback = '') =>
+	String(form.get(name) ?? fallback).trim();
+const numberOrUndefined = (value: string) =>
+	value === '' ? undefined : Number(value.replace('\u2212', '-'));
+
+function sampledPoints(raw: string) {
+	const rows = Papa.parse<string[]>(raw, { skipEmptyLines: 'greedy' }).data;
+	return rows
+		.map((r) => ({ xA: Number(r[0]), energyKcalMol: Number(r[1]) }))
+		.filter((p, i) => !(i === 0 && Number.isNaN(p.xA) && Number.isNaN(p.energyKcalMol)));
+}
+
+export const actions: Actions = {
+	default: async ({ request }) => {
+		const form = await request.formData();
+		const values = Object.fromEntries(
+			[
+				'temperatureK',
+				'imagFreqCm1',
+				'barrierKJmol',
+				'potentialKind',
+				'barrierKcalMol',
+				'halfSeparationA',
+				'asymmetryKcalMol',
+				'pointsText',
+				'isotope',
+				'levels'
+			].map((k) => [k, text(form, k)])
+		);
+		const kind = values.potentialKind;
+		const potential =
+			kind === 'double-well'
+				? {
+						kind,
+						barrierKcalMol: numberOrUndefined(values.barrierKcalMol ?? ''),
+						halfSeparationA: numberOrUndefined(values.halfSeparationA ?? ''),
+						asymmetryKcalMol: numberOrUndefined(values.asymmetryKcalMol ?? '') ?? 0
+					}
+				: kind === 'points'
+					? { kind, points: sampledPoints(values.pointsText ?? '') }
+					: undefined;
+		const parsed = tunnellingRequestSchema.safeParse({
+			temperatureK: numberOrUndefined(values.temperatureK ?? '') ?? 298.15,
+			imagFreqCm1: numberOrUndefined(values.imagFreqCm1 ?? ''),
+			barrierKJmol: numberOrUndefined(values.barrierKJmol ?? ''),
+			potential,
+			isotope: values.isotope || 'H',
+			levels: numberOrUndefined(values.levels ?? '') ?? 6
+		});
+		if (!parsed.success) return fail(400, { values, errors: fieldErrors(parsed.error) });
+		try {
+			return { values, result: runTunnelling(parsed.data) };
+		} catch (e) {
+			if (e instanceof RangeError) return fail(400, { values, errors: { potential: [e.message] } });
+			throw e;
+		}
+	}
+};
