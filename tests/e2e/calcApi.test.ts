@@ -1,0 +1,86 @@
+import { describe, expect, inject, it } from 'vitest';
+import { moserDuttonRate, nernstFractionReduced } from '$lib/science';
+import type { ApiErrorBody } from '$lib/schemas/apiError';
+
+const base = inject('baseUrl');
+const post = (path: string, body: unknown, contentType = 'application/json') =>
+	fetch(base + path, {
+		method: 'POST',
+		headers: { 'content-type': contentType, origin: base },
+		body: typeof body === 'string' ? body : JSON.stringify(body)
+	});
+
+describe('calculator API over HTTP', () => {
+	it('hop rate matches the science engine and carries its caution', async () => {
+		const res = await fetch(
+			`${base}/api/v1/calc/hop-rate?distance=10&dG=-0.1&lambda=0.7&model=moser-dutton`
+		);
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(
+			body.rateForward / moserDuttonRate({ edgeDistanceA: 10, deltaGEv: -0.1, lambdaEv: 0.7 }).rate
+		).toBeCloseTo(1, 9);
+		expect(body.rateBackward).toBeLessThan(body.rateForward);
+		expect(body).toMatchObject({ model: 'moser-dutton', warnings: [] });
+		expect(body.caution).toMatch(/order of magnitude/);
+	});
+	it('hop rate names missing and bad parameters', async () => {
+		const res = await fetch(`${base}/api/v1/calc/hop-rate?distance=ten&lambda=0&model=quantum`);
+		expect(res.status).toBe(400);
+		const body = (await res.json()) as ApiErrorBody;
+		expect(Object.keys(body.error.fields ?? {}).sort()).toEqual([
+			'dG',
+			'distance',
+			'lambda',
+			'model'
+		]);
+		expect(body.error.fields?.dG?.[0]).toMatch(/^required/);
+	});
+	it('titration fit recovers a synthetic Em', async () => {
+		const points = Array.from({ length: 31 }, (_, i) => {
+			const e = -500 + i * 15;
+			return { potentialMv: e, signal: nernstFractionReduced(e, -260, 1, 298.15) };
+		});
+		const res = await post('/api/v1/calc/titration', { points, components: 1, n: 1 });
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.components[0].emMv).toBeCloseTo(-260, 3);
+	});
+	it('titration refuses bad bodies with field errors', async () => {
+		expect((await post('/api/v1/calc/titration', 'potential,signal', 'text/plain')).status).toBe(
+			400
+		);
+		expect((await post('/api/v1/calc/titration', '{"points": [', 'application/json')).status).toBe(
+			400
+		);
+		const res = await post('/api/v1/calc/titration', {
+			points: [{ potentialMv: 'x', signal: 1 }],
+			components: 3
+		});
+		const body = (await res.json()) as ApiErrorBody;
+		expect(res.status).toBe(400);
+		expect(Object.keys(body.error.fields ?? {})).toEqual(
+			expect.arrayContaining(['points', 'points.0.potentialMv', 'components'])
+		);
+	});
+	it('tunnelling returns factors and levels, never NaN', async () => {
+		const res = await post('/api/v1/calc/tunnelling', {
+			imagFreqCm1: 1000,
+			barrierKJmol: 40,
+			potential: { kind: 'double-well', barrierKcalMol: 8, halfSeparationA: 0.35 },
+			levels: 4
+		});
+		expect(res.status).toBe(200);
+		const text = await res.text();
+		expect(text).not.toMatch(/NaN|Infinity|null,"bell"/);
+		const body = JSON.parse(text);
+		expect(body.kappa.bell).toBeGreaterThan(body.kappa.wigner);
+		expect(body.levels.energiesKcalMol).toHaveLength(4);
+		expect(body.isotopeEffect.kie).toBeGreaterThan(1);
+	});
+	it('tunnelling needs a frequency or a potential', async () => {
+		const res = await post('/api/v1/calc/tunnelling', { temperatureK: 300 });
+		expect(res.status).toBe(400);
+		expect(((await res.json()) as ApiErrorBody).error.fields?.imagFreqCm1).toBeDefined();
+	});
+});
