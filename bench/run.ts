@@ -1,7 +1,8 @@
 // `npm run bench`: performance figures for the catalogue, printed, never asserted.
 // 1. search (text + filters + first page) p50/p95 server-side on 100 000 potentials;
 // 2. API list throughput (100 rows a page) beside a raw node:http + better-sqlite3 server;
-// 3. server RSS after the search index is built.
+// 3. server RSS after the search index is built;
+// and first, the science engine's timings (bench/science.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { listPotentials } from '../src/lib/server/catalogue/potentials';
@@ -11,6 +12,7 @@ import { openDatabase } from '../src/lib/server/db/connect';
 import type { PotentialFilter } from '../src/lib/schemas/catalogueQuery';
 import { encodeCursor } from '../src/lib/schemas/pagination';
 import { ensureDataset } from './dataset';
+import { benchScience } from './science';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -178,6 +180,7 @@ async function benchApi() {
 	}
 }
 
+benchScience();
 const dataset = await ensureDataset(DATASET, SIZE);
 console.log(
 	dataset.created

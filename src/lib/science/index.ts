@@ -12,3 +12,4 @@ export * from './titrationFit';
 export * from './symmetricEigen';
 export * from './tunnelling';
 export * from './structure';
+export * from './linearSolve';

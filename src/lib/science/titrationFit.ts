@@ -108,7 +108,7 @@ interface Minimum {
 
 /**
  * Levenberg–Marquardt in rounds of ten iterations, stopping when a round improves the sum of
- * squares by less than one part in 10¹⁰ (the package itself stops only on an absolute error).
+ * squares by less than one part in 10⁸ (the package itself stops only on an absolute error).
  */
 function minimise(
 	data: { x: number[]; y: number[] },
@@ -136,7 +136,7 @@ function minimise(
 		parameters = result.parameterValues;
 		const previous = ssr;
 		ssr = Math.min(ssr, result.parameterError);
-		if (Number.isFinite(previous) && improved <= 1e-10 * previous) break;
+		if (Number.isFinite(previous) && improved <= 1e-8 * previous) break;
 	}
 	return { parameters, ssr, iterations };
 }
@@ -230,10 +230,14 @@ export function fitNernst(points: TitrationPoint[], options: FitOptions): Nernst
 			maxValues.push(4);
 		}
 	}
+	// The first starting point usually succeeds; the shifted ones are tried when its minimum puts a
+	// transition outside the measured range (a sign of a local minimum), and the best is kept.
 	let best: Minimum | null = null;
 	for (const initialValues of startingPoints(sorted, l)) {
 		const result = minimise(data, l, f, initialValues, minValues, maxValues);
 		if (!best || result.ssr < best.ssr) best = result;
+		const inside = unpack(best.parameters, l).every((c) => c.em >= low && c.em <= high);
+		if (inside) break;
 	}
 	const p = best!.parameters;
 	const fitted = model(l, f)(p);
