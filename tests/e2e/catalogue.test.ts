@@ -108,6 +108,19 @@ describe('catalogue in Chromium', () => {
 		);
 	});
 
+	it('shows a protein with its energy ladder and a chain-kinetics estimate stating its model', async () => {
+		await page.goto('/proteins');
+		await page
+			.getByRole('link', { name: /RoxA–H/ })
+			.first()
+			.click();
+		await page.locator('svg[aria-label^="Energy ladder"]').waitFor();
+		const chain = await page.getByTestId('chain-estimate').textContent();
+		expect(chain).toMatch(/Throughput .* s⁻¹/);
+		expect(chain).toContain('mean first-passage time');
+		expect(chain).toContain('Model estimate');
+	});
+
 	it('shows a 404 page with a search box for an unknown accession', async () => {
 		const response = await page.goto('/e/HL999999');
 		expect(response?.status()).toBe(404);

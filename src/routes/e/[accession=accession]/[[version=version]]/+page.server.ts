@@ -1,5 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { buildLadder } from '$lib/catalogue/ladder';
+import { estimateLadderChain } from '$lib/server/calc/chainEstimate';
 import { parseVersionSegment } from '$lib/schemas/accession';
 import { getEntryView } from '$lib/server/catalogue/entryView';
 import { EntryNotFoundError } from '$lib/server/catalogue/errors';
@@ -28,5 +29,6 @@ export const load: PageServerLoad = async ({ params, locals }) => {
 		view.kind === 'protein' && related
 			? buildLadder(related.centres, related.potentials, related.distances)
 			: null;
-	return { view, related, ladder, pinned: params.version !== undefined };
+	const chain = ladder && related ? estimateLadderChain(ladder, related.potentials) : null;
+	return { view, related, ladder, chain, pinned: params.version !== undefined };
 };
