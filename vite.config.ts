@@ -15,7 +15,8 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					include: ['tests/unit/**/*.test.ts', 'src/**/*.test.ts'],
-					environment: 'node'
+					environment: 'node',
+					setupFiles: ['tests/support/fast-check.ts']
 				}
 			},
 			{
@@ -24,6 +25,7 @@ export default defineConfig({
 					name: 'integration',
 					include: ['tests/integration/**/*.test.ts'],
 					environment: 'node',
+					setupFiles: ['tests/support/fast-check.ts'],
 					testTimeout: 30_000
 				}
 			},

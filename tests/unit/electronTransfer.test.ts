@@ -125,8 +125,8 @@ describe('nonadiabatic Marcus rate', () => {
 		const k = (h: number) => marcusRate({ couplingEv: h, deltaGEv: -0.3, lambdaEv: 0.8 }).rate;
 		expect(k(0.002) / k(0.001)).toBeCloseTo(4, 9);
 	});
-	it('returns zero for zero coupling', () =>
-		expect(marcusRate({ couplingEv: 0, deltaGEv: 0, lambdaEv: 1 }).rate).toBe(0));
+	it('refuses a coupling of zero or less (log10 k would be −∞)', () =>
+		expect(() => marcusRate({ couplingEv: 0, deltaGEv: 0, lambdaEv: 1 })).toThrow(RangeError));
 });
 
 describe('couplings, driving forces and reverse rates', () => {

@@ -120,14 +120,13 @@ export interface MarcusInput {
  * Maximal at −ΔG° = λ; symmetric in ΔG° about that point (the inverted region).
  * References: R. A. Marcus & N. Sutin, Biochim. Biophys. Acta 811, 265 (1985), eq. 26;
  * constants CODATA 2018.
- * @throws {TypeError} for non-finite input. @throws {RangeError} for λ ≤ 0, T ≤ 0, negative coupling.
+ * @throws {TypeError} for non-finite input. @throws {RangeError} for λ ≤ 0, T ≤ 0, coupling ≤ 0.
  * @example marcusRate({ couplingEv: 0.01, deltaGEv: -1, lambdaEv: 1 }).rate // ≈ 1.68e12
  */
 export function marcusRate(input: MarcusInput): RateResult {
 	const { couplingEv: h, deltaGEv: dg, lambdaEv: lambda } = input;
 	const t = input.temperatureK ?? STANDARD_TEMPERATURE_K;
-	requireFinite(h, 'couplingEv');
-	if (h < 0) throw new RangeError(`couplingEv must not be negative, got ${h}`);
+	requirePositive(h, 'couplingEv');
 	requireFinite(dg, 'deltaGEv');
 	requirePositive(lambda, 'lambdaEv');
 	requirePositive(t, 'temperatureK');

@@ -12,4 +12,3 @@ export * from './titrationFit';
 export * from './symmetricEigen';
 export * from './tunnelling';
 export * from './structure';
-export * from './linearSolve';
