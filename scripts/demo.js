@@ -1,6 +1,7 @@
 // `npm run demo`: builds the app, then serves it on an embedded SQLite file loaded with the
 // invented demo scenario (migrated and seeded at start-up when empty), and prints the URL.
 import { spawn, spawnSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 
 const port = process.env.PORT ?? '3000';
 const host = process.env.HOST ?? '127.0.0.1';
@@ -29,6 +30,14 @@ for (let i = 0; i < 100; i++) {
 		const res = await fetch(`${origin}/api/v1/facets`);
 		if (res.ok) {
 			console.log(`\nHopline demo is running at ${origin}  (Ctrl+C stops it)\n`);
+			// Demo accounts exist only in demo mode (HOPLINE_DEMO); never use these anywhere else.
+			const accounts = JSON.parse(
+				readFileSync(new URL('../seed/demoAccounts.json', import.meta.url), 'utf8')
+			);
+			console.log('Demo accounts (sign in at /signin):');
+			for (const a of accounts)
+				console.log(`  ${a.role.padEnd(12)} ${a.email.padEnd(32)} ${a.password}`);
+			console.log('');
 			break;
 		}
 	} catch {

@@ -1,4 +1,5 @@
 import type { Viewer } from '$lib/server/catalogue/visibility';
+import type { SessionUser } from '$lib/server/auth/roles';
 
 declare global {
 	namespace App {
@@ -10,6 +11,8 @@ declare global {
 		}
 		interface Locals {
 			requestId: string;
+			/** The signed-in user with role and groups, read fresh each request; null when signed out. */
+			user: SessionUser | null;
 			/** Who is reading, for visibility rules; null when signed out. */
 			viewer: Viewer | null;
 		}

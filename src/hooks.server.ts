@@ -4,7 +4,10 @@ import { building } from '$app/environment';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
 import { migrateToLatest } from '$lib/server/db/migrate';
+import { authHandle } from '$lib/server/auth/authjs';
+import { loadSessionUser } from '$lib/server/auth/users';
 import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
+import { ensureDemoAccounts } from '$seed/accounts';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -13,16 +16,28 @@ export const init: ServerInit = async () => {
 		const summary = await loadDemoScenario(db);
 		console.log('Loaded the invented demo scenario:', summary);
 	}
+	if (config.HOPLINE_DEMO) await ensureDemoAccounts(db);
 };
 
 const attachRequestFacts: Handle = async ({ event, resolve }) => {
 	event.locals.requestId = crypto.randomUUID();
-	// Sign-in arrives with the accounts work; until then every reader is signed out.
+	event.locals.user = null;
 	event.locals.viewer = null;
 	return resolve(event);
 };
 
-export const handle: Handle = sequence(attachRequestFacts);
+/** Reads the session's user (role, groups) from the database, so changes apply at once. */
+const attachUser: Handle = async ({ event, resolve }) => {
+	const session = await event.locals.auth();
+	const id = session?.user?.id;
+	if (id) {
+		event.locals.user = await loadSessionUser(db, id);
+		event.locals.viewer = event.locals.user ? { groupIds: event.locals.user.groupIds } : null;
+	}
+	return resolve(event);
+};
+
+export const handle: Handle = sequence(attachRequestFacts, authHandle, attachUser);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	const errorId = event.locals.requestId ?? crypto.randomUUID();

@@ -11,7 +11,15 @@ const configSchema = z.object({
 	HOPLINE_DEMO: z
 		.enum(['true', 'false', '1', '0', ''])
 		.default('false')
-		.transform((v) => v === 'true' || v === '1')
+		.transform((v) => v === 'true' || v === '1'),
+	/** Signs session cookies; at least 32 characters. Without it a random one is made per process. */
+	AUTH_SECRET: z.string().min(32, 'AUTH_SECRET must be at least 32 characters').optional(),
+	/** How long a session lasts without activity, hours. */
+	SESSION_HOURS: z.coerce
+		.number()
+		.min(0.25)
+		.max(24 * 30)
+		.default(8)
 });
 
 export type Config = z.infer<typeof configSchema>;

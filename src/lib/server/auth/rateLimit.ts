@@ -1,0 +1,41 @@
+/**
+ * Failed sign-in attempts counted per key (an account's e-mail, a client address) over a sliding
+ * window. In memory, per server process: a restart forgives everyone, which is acceptable for a
+ * brake on password guessing (it is not an audit record).
+ */
+export class AttemptLimiter {
+	private failures = new Map<string, number[]>();
+
+	constructor(
+		private readonly maxFailures: number,
+		private readonly windowMs: number,
+		private readonly now: () => number = Date.now
+	) {}
+
+	private recent(key: string): number[] {
+		const since = this.now() - this.windowMs;
+		const list = (this.failures.get(key) ?? []).filter((t) => t > since);
+		if (list.length) this.failures.set(key, list);
+		else this.failures.delete(key);
+		return list;
+	}
+
+	/** Milliseconds until the key may try again; 0 when it may try now. */
+	retryAfterMs(key: string): number {
+		const list = this.recent(key);
+		if (list.length < this.maxFailures) return 0;
+		return list[list.length - this.maxFailures]! + this.windowMs - this.now();
+	}
+
+	recordFailure(key: string): void {
+		this.failures.set(key, [...this.recent(key), this.now()]);
+	}
+
+	reset(key: string): void {
+		this.failures.delete(key);
+	}
+}
+
+/** Five wrong passwords per account, thirty per client address, in any fifteen minutes. */
+export const accountAttempts = new AttemptLimiter(5, 15 * 60_000);
+export const addressAttempts = new AttemptLimiter(30, 15 * 60_000);

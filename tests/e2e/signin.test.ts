@@ -1,0 +1,60 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
+import { launchChromium } from '../support/browser';
+
+const base = inject('baseUrl');
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+beforeAll(async () => {
+	browser = await launchChromium();
+});
+afterAll(async () => browser?.close());
+beforeEach(async () => {
+	await context?.close();
+	context = await browser.newContext({ baseURL: base });
+	page = await context.newPage();
+});
+
+async function signIn(email: string, password: string) {
+	await page.goto('/signin');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+describe('sign-in in Chromium', () => {
+	it('a demo curator signs in, sees the role, and signs out', async () => {
+		await signIn('curator@demo.hopline.test', 'demo-curator-pass');
+		await page.getByTestId('user-menu').waitFor();
+		expect(await page.getByTestId('user-menu').textContent()).toContain('curator');
+		await page.goto('/account');
+		expect(await page.getByTestId('account-role').textContent()).toBe('curator');
+		await page.getByRole('button', { name: 'Sign out' }).click();
+		await page.waitForURL(`${base}/`);
+		expect(await page.getByTestId('user-menu').count()).toBe(0);
+	});
+	it('a wrong password gets a clear message and no session', async () => {
+		await signIn('contributor@demo.hopline.test', 'not-the-password');
+		expect(await page.getByTestId('signin-error').textContent()).toContain(
+			'Wrong e-mail address or password'
+		);
+		expect(await page.getByTestId('user-menu').count()).toBe(0);
+	});
+	it('an account page sends a signed-out visitor to sign in and back', async () => {
+		await page.goto('/account');
+		expect(page.url()).toContain('/signin?redirectTo=%2Faccount');
+		await page.getByLabel('E-mail').fill('reader@demo.hopline.test');
+		await page.getByLabel('Password').fill('demo-reader-pass');
+		await page.getByRole('button', { name: 'Sign in' }).click();
+		await page.waitForURL(`${base}/account`);
+		expect(await page.getByTestId('account-role').textContent()).toBe('reader');
+	});
+	it('repeated failures on one account are slowed down', async () => {
+		for (let i = 0; i < 5; i++) await signIn('admin@demo.hopline.test', `wrong-${i}`);
+		await signIn('admin@demo.hopline.test', 'demo-admin-pass');
+		expect(await page.getByTestId('signin-error').textContent()).toMatch(
+			/Too many failed attempts/
+		);
+	});
+});
