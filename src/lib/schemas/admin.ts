@@ -1,0 +1,38 @@
+import { z } from 'zod';
+
+/** Admin form inputs (users, roles, groups). */
+
+export const ROLE_VALUES = ['reader', 'contributor', 'curator', 'admin'] as const;
+
+export const setRoleForm = z.object({
+	userId: z.string().min(1, 'choose a user'),
+	role: z.enum(ROLE_VALUES, { error: `expected one of ${ROLE_VALUES.join(', ')}` })
+});
+
+export const setDisabledForm = z.object({
+	userId: z.string().min(1, 'choose a user'),
+	disabled: z.enum(['true', 'false']).transform((v) => v === 'true')
+});
+
+export const createGroupForm = z.object({
+	name: z.string().trim().min(2, 'a name of at least 2 characters').max(120),
+	slug: z
+		.string()
+		.trim()
+		.toLowerCase()
+		.regex(
+			/^[a-z0-9]+(?:-[a-z0-9]+)*$/,
+			'lower-case letters, digits and single hyphens, e.g. demo-lab'
+		)
+		.max(60)
+});
+
+export const addMemberForm = z.object({
+	groupId: z.coerce.number().int().positive('choose a group'),
+	email: z.string().trim().toLowerCase().email('an e-mail address of an existing account')
+});
+
+export const removeMemberForm = z.object({
+	groupId: z.coerce.number().int().positive(),
+	userId: z.string().min(1)
+});

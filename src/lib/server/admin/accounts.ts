@@ -1,0 +1,188 @@
+import type { Kysely } from 'kysely';
+import type { Database, Role } from '../db/schema';
+
+/** Admin services: users, roles and groups. Every change is written to the audit log. */
+
+export class AdminRuleError extends Error {
+	constructor(
+		readonly field: string,
+		message: string
+	) {
+		super(message);
+		this.name = 'AdminRuleError';
+	}
+}
+
+async function audit(
+	trx: Kysely<Database>,
+	actorId: string,
+	action: string,
+	before: unknown,
+	after: unknown
+) {
+	await trx
+		.insertInto('audit_log')
+		.values({
+			actor_id: actorId,
+			action,
+			before: JSON.stringify(before),
+			after: JSON.stringify(after)
+		})
+		.execute();
+}
+
+export async function listUsers(db: Kysely<Database>) {
+	const users = await db
+		.selectFrom('User')
+		.select(['id', 'email', 'name', 'role', 'disabledAt', 'createdAt', 'emailVerified'])
+		.orderBy('email')
+		.execute();
+	const memberships = await db
+		.selectFrom('group_member')
+		.innerJoin('research_group', 'research_group.id', 'group_member.group_id')
+		.select(['group_member.user_id', 'research_group.name'])
+		.execute();
+	return users.map((u) => ({
+		...u,
+		disabled: u.disabledAt !== null,
+		verified: u.emailVerified !== null,
+		groups: memberships.filter((m) => m.user_id === u.id).map((m) => m.name)
+	}));
+}
+
+async function activeAdmins(trx: Kysely<Database>, exceptId: string): Promise<number> {
+	const row = await trx
+		.selectFrom('User')
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.where('role', '=', 'admin')
+		.where('disabledAt', 'is', null)
+		.where('id', '!=', exceptId)
+		.executeTakeFirstOrThrow();
+	return Number(row.n);
+}
+
+/** @throws {AdminRuleError} for an unknown user or when the last active admin would be lost. */
+export async function setUserRole(
+	trx: Kysely<Database>,
+	actorId: string,
+	userId: string,
+	role: Role
+): Promise<void> {
+	const user = await trx
+		.selectFrom('User')
+		.select(['id', 'role', 'email'])
+		.where('id', '=', userId)
+		.executeTakeFirst();
+	if (!user) throw new AdminRuleError('userId', 'no such user');
+	if (user.role === 'admin' && role !== 'admin' && (await activeAdmins(trx, userId)) === 0) {
+		throw new AdminRuleError(
+			'role',
+			'this is the last active admin; make someone else admin first'
+		);
+	}
+	await trx.updateTable('User').set({ role }).where('id', '=', userId).execute();
+	await audit(trx, actorId, 'user.role', { userId, role: user.role }, { userId, role });
+}
+
+/** @throws {AdminRuleError} for an unknown user or when the last active admin would be disabled. */
+export async function setUserDisabled(
+	trx: Kysely<Database>,
+	actorId: string,
+	userId: string,
+	disabled: boolean
+): Promise<void> {
+	const user = await trx
+		.selectFrom('User')
+		.select(['id', 'role', 'disabledAt'])
+		.where('id', '=', userId)
+		.executeTakeFirst();
+	if (!user) throw new AdminRuleError('userId', 'no such user');
+	if (disabled && user.role === 'admin' && (await activeAdmins(trx, userId)) === 0) {
+		throw new AdminRuleError('userId', 'this is the last active admin; it cannot be disabled');
+	}
+	const disabledAt = disabled ? new Date().toISOString() : null;
+	await trx.updateTable('User').set({ disabledAt }).where('id', '=', userId).execute();
+	await audit(
+		trx,
+		actorId,
+		disabled ? 'user.disable' : 'user.enable',
+		{ userId, disabledAt: user.disabledAt },
+		{ userId, disabledAt }
+	);
+}
+
+export async function listGroups(db: Kysely<Database>) {
+	const groups = await db.selectFrom('research_group').selectAll().orderBy('name').execute();
+	const members = await db
+		.selectFrom('group_member')
+		.innerJoin('User', 'User.id', 'group_member.user_id')
+		.select(['group_member.group_id', 'User.id', 'User.email', 'User.name'])
+		.orderBy('User.email')
+		.execute();
+	return groups.map((g) => ({ ...g, members: members.filter((m) => m.group_id === g.id) }));
+}
+
+/** @throws {AdminRuleError} when the slug is taken. */
+export async function createGroup(
+	trx: Kysely<Database>,
+	actorId: string,
+	group: { slug: string; name: string }
+): Promise<number> {
+	const taken = await trx
+		.selectFrom('research_group')
+		.select('id')
+		.where('slug', '=', group.slug)
+		.executeTakeFirst();
+	if (taken) throw new AdminRuleError('slug', `a group "${group.slug}" exists already`);
+	const { id } = await trx
+		.insertInto('research_group')
+		.values(group)
+		.returning('id')
+		.executeTakeFirstOrThrow();
+	await audit(trx, actorId, 'group.create', null, { id, ...group });
+	return id;
+}
+
+/** @throws {AdminRuleError} for an unknown group or e-mail, or an existing membership. */
+export async function addGroupMember(
+	trx: Kysely<Database>,
+	actorId: string,
+	groupId: number,
+	email: string
+): Promise<void> {
+	const group = await trx
+		.selectFrom('research_group')
+		.select('id')
+		.where('id', '=', groupId)
+		.executeTakeFirst();
+	if (!group) throw new AdminRuleError('groupId', 'no such group');
+	const user = await trx
+		.selectFrom('User')
+		.select('id')
+		.where('email', '=', email.toLowerCase())
+		.executeTakeFirst();
+	if (!user) throw new AdminRuleError('email', `no account with the e-mail address ${email}`);
+	const existing = await trx
+		.selectFrom('group_member')
+		.select('user_id')
+		.where('group_id', '=', groupId)
+		.where('user_id', '=', user.id)
+		.executeTakeFirst();
+	if (existing) throw new AdminRuleError('email', `${email} is a member already`);
+	await trx.insertInto('group_member').values({ group_id: groupId, user_id: user.id }).execute();
+	await audit(trx, actorId, 'group.add_member', null, { groupId, userId: user.id });
+}
+
+export async function removeGroupMember(
+	trx: Kysely<Database>,
+	actorId: string,
+	groupId: number,
+	userId: string
+): Promise<void> {
+	await trx
+		.deleteFrom('group_member')
+		.where('group_id', '=', groupId)
+		.where('user_id', '=', userId)
+		.execute();
+	await audit(trx, actorId, 'group.remove_member', { groupId, userId }, null);
+}

@@ -1,0 +1,53 @@
+import { fail } from '@sveltejs/kit';
+import { addMemberForm, createGroupForm, removeMemberForm } from '$lib/schemas/admin';
+import {
+	AdminRuleError,
+	addGroupMember,
+	createGroup,
+	listGroups,
+	removeGroupMember
+} from '$lib/server/admin/accounts';
+import { requireRole } from '$lib/server/auth/guards';
+import { db } from '$lib/server/db';
+import { parseForm } from '$lib/server/forms';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	requireRole(event, 'admin');
+	return { groups: await listGroups(db) };
+};
+
+const ruleFailure = (values: Record<string, string>) => (e: unknown) => {
+	if (e instanceof AdminRuleError) return fail(400, { values, errors: { [e.field]: [e.message] } });
+	throw e;
+};
+
+export const actions: Actions = {
+	create: async (event) => {
+		const admin = requireRole(event, 'admin');
+		const form = await parseForm(event.request, createGroupForm);
+		if (!form.ok) return form.failure;
+		return db
+			.transaction()
+			.execute((trx) => createGroup(trx, admin.id, form.data))
+			.then(() => ({ done: `Group ${form.data.name} created.` }), ruleFailure(form.values));
+	},
+	add: async (event) => {
+		const admin = requireRole(event, 'admin');
+		const form = await parseForm(event.request, addMemberForm);
+		if (!form.ok) return form.failure;
+		return db
+			.transaction()
+			.execute((trx) => addGroupMember(trx, admin.id, form.data.groupId, form.data.email))
+			.then(() => ({ done: `${form.data.email} added.` }), ruleFailure(form.values));
+	},
+	remove: async (event) => {
+		const admin = requireRole(event, 'admin');
+		const form = await parseForm(event.request, removeMemberForm);
+		if (!form.ok) return form.failure;
+		await db
+			.transaction()
+			.execute((trx) => removeGroupMember(trx, admin.id, form.data.groupId, form.data.userId));
+		return { done: 'Member removed.' };
+	}
+};

@@ -1,0 +1,78 @@
+import { beforeAll, describe, expect, inject, it } from 'vitest';
+import { ROLES } from '$lib/server/auth/roles';
+import type { Role } from '$lib/server/db/schema';
+import accounts from '../../seed/demoAccounts.json';
+import { MUTATIONS, type Mutation } from '../support/mutations';
+
+// Every mutating route × (signed out, reader, contributor, curator, admin), from one table.
+const base = inject('baseUrl');
+const cookies = new Map<Role, string>();
+
+async function signInCookie(email: string, password: string): Promise<string> {
+	const res = await fetch(`${base}/signin`, {
+		method: 'POST',
+		headers: {
+			origin: base,
+			'content-type': 'application/x-www-form-urlencoded',
+			'x-sveltekit-action': 'true'
+		},
+		body: new URLSearchParams({ email, password, redirectTo: '/' }),
+		redirect: 'manual'
+	});
+	const session = res.headers.getSetCookie().find((c) => c.startsWith('authjs.session-token='));
+	if (!session)
+		throw new Error(
+			`sign-in as ${email} gave no session (status ${res.status}): ${await res.text()}`
+		);
+	return session.split(';')[0]!;
+}
+
+beforeAll(async () => {
+	for (const a of accounts) cookies.set(a.role as Role, await signInCookie(a.email, a.password));
+});
+
+type Outcome = 'allowed' | 'sign-in required' | 'forbidden';
+
+async function attempt(m: Mutation, role: Role | null): Promise<Outcome> {
+	const headers: Record<string, string> = { origin: base };
+	if (role) headers.cookie = cookies.get(role)!;
+	const isJson = 'json' in m.body;
+	if (isJson) headers['content-type'] = 'application/json';
+	else {
+		headers['content-type'] = 'application/x-www-form-urlencoded';
+		headers['x-sveltekit-action'] = 'true';
+	}
+	const res = await fetch(base + m.url, {
+		method: m.name === 'fallback' ? 'POST' : isJson ? m.name : 'POST',
+		headers,
+		body: isJson
+			? JSON.stringify((m.body as { json: unknown }).json)
+			: new URLSearchParams(m.body as Record<string, string>),
+		redirect: 'manual'
+	});
+	if (res.status === 401) return 'sign-in required';
+	if (res.status === 403) return 'forbidden';
+	if (!isJson) {
+		const body = (await res.json()) as { type: string; status?: number; location?: string };
+		if (body.type === 'redirect' && body.location?.startsWith('/signin')) return 'sign-in required';
+		if (body.type === 'error' && body.status === 403) return 'forbidden';
+	}
+	return 'allowed';
+}
+
+function expected(m: Mutation, role: Role | null): Outcome {
+	if (m.least === null) return 'allowed';
+	if (role === null) return 'sign-in required';
+	return ROLES.indexOf(role) >= ROLES.indexOf(m.least) ? 'allowed' : 'forbidden';
+}
+
+describe('authorization matrix', () => {
+	for (const m of MUTATIONS) {
+		for (const role of [null, ...ROLES] as (Role | null)[]) {
+			// Signing in or out changes the session; attempts stay on fresh cookies per call.
+			it(`${m.url} (${m.name}) as ${role ?? 'signed out'} → ${expected(m, role)}`, async () => {
+				expect(await attempt(m, role)).toBe(expected(m, role));
+			});
+		}
+	}
+});

@@ -1,0 +1,100 @@
+import type { Role } from '$lib/server/db/schema';
+
+/**
+ * Every mutating route of the app — form actions and POST/PUT/PATCH/DELETE handlers — with the
+ * least role that may use it (null: anyone). tests/unit/mutations.test.ts fails when a route
+ * exists that this table does not list, and tests/e2e/authorization.test.ts tries each one as
+ * signed out, reader, contributor, curator and admin.
+ */
+export interface Mutation {
+	/** Route file, relative to src/routes. */
+	file: string;
+	/** Form action name, or HTTP method for +server.ts. */
+	name: string;
+	/** URL to call. */
+	url: string;
+	least: Role | null;
+	/** A harmless body for the attempt (form fields or JSON). */
+	body: Record<string, string> | { json: unknown };
+}
+
+export const MUTATIONS: Mutation[] = [
+	{
+		file: 'signin/+page.server.ts',
+		name: 'default',
+		url: '/signin',
+		least: null,
+		body: { email: 'nobody@example.test', password: 'x' }
+	},
+	{ file: 'signout/+page.server.ts', name: 'default', url: '/signout', least: null, body: {} },
+	{
+		file: 'calc/titration/+page.server.ts',
+		name: 'default',
+		url: '/calc/titration',
+		least: null,
+		body: { points: '' }
+	},
+	{
+		file: 'calc/tunnelling/+page.server.ts',
+		name: 'default',
+		url: '/calc/tunnelling',
+		least: null,
+		body: { imagFreqCm1: '900' }
+	},
+	{
+		file: 'api/v1/calc/titration/+server.ts',
+		name: 'POST',
+		url: '/api/v1/calc/titration',
+		least: null,
+		body: { json: { points: [] } }
+	},
+	{
+		file: 'api/v1/calc/tunnelling/+server.ts',
+		name: 'POST',
+		url: '/api/v1/calc/tunnelling',
+		least: null,
+		body: { json: { imagFreqCm1: 900 } }
+	},
+	{
+		file: 'api/v1/[...rest]/+server.ts',
+		name: 'fallback',
+		url: '/api/v1/nothing-here',
+		least: null,
+		body: { json: {} }
+	},
+	{
+		file: '(admin)/admin/users/+page.server.ts',
+		name: 'role',
+		url: '/admin/users?/role',
+		least: 'admin',
+		body: { userId: 'no-such-user', role: 'reader' }
+	},
+	{
+		file: '(admin)/admin/users/+page.server.ts',
+		name: 'disabled',
+		url: '/admin/users?/disabled',
+		least: 'admin',
+		body: { userId: 'no-such-user', disabled: 'false' }
+	},
+	{
+		file: '(admin)/admin/groups/+page.server.ts',
+		name: 'create',
+		url: '/admin/groups?/create',
+		least: 'admin',
+		body: { name: 'x', slug: 'Not A Slug' }
+	},
+	{
+		file: '(admin)/admin/groups/+page.server.ts',
+		name: 'add',
+		url: '/admin/groups?/add',
+		least: 'admin',
+		body: { groupId: '999999', email: 'nobody@example.test' }
+	},
+	{
+		file: '(admin)/admin/groups/+page.server.ts',
+		name: 'remove',
+		url: '/admin/groups?/remove',
+		least: 'admin',
+		body: { groupId: '999999', userId: 'no-such-user' }
+	}
+];
