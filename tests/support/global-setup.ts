@@ -63,8 +63,12 @@ export default async function setup(project: TestProject) {
 	project.provide('baseUrl', baseUrl);
 
 	return async () => {
+		// A graceful stop first; if anything keeps the server alive, it must not hang the run.
+		const exited = new Promise((r) => server.once('exit', r));
 		server.kill('SIGTERM');
-		await new Promise((r) => server.once('exit', r));
+		const timer = setTimeout(() => server.kill('SIGKILL'), 5000);
+		await exited;
+		clearTimeout(timer);
 		rmSync(dir, { recursive: true, force: true });
 	};
 }

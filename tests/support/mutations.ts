@@ -26,6 +26,27 @@ export const MUTATIONS: Mutation[] = [
 		least: null,
 		body: { email: 'nobody@example.test', password: 'x' }
 	},
+	{
+		file: 'signup/+page.server.ts',
+		name: 'default',
+		url: '/signup',
+		least: null,
+		body: { name: 'x', email: 'not-an-address', password: 'short', confirm: 'other' }
+	},
+	{
+		file: 'reset/+page.server.ts',
+		name: 'default',
+		url: '/reset',
+		least: null,
+		body: { email: 'not-an-address' }
+	},
+	{
+		file: 'reset/[token]/+page.server.ts',
+		name: 'default',
+		url: '/reset/not-a-real-token-value-xx',
+		least: null,
+		body: { password: 'short', confirm: 'x' }
+	},
 	{ file: 'signout/+page.server.ts', name: 'default', url: '/signout', least: null, body: {} },
 	{
 		file: 'calc/titration/+page.server.ts',

@@ -39,3 +39,6 @@ export class AttemptLimiter {
 /** Five wrong passwords per account, thirty per client address, in any fifteen minutes. */
 export const accountAttempts = new AttemptLimiter(5, 15 * 60_000);
 export const addressAttempts = new AttemptLimiter(30, 15 * 60_000);
+
+/** Requests that send mail (sign-up, reset), counted per client address: ten per fifteen minutes. */
+export const mailRequests = new AttemptLimiter(10, 15 * 60_000);

@@ -1,0 +1,95 @@
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { launchChromium } from '../support/browser';
+
+const base = inject('baseUrl');
+let browser: Browser;
+let visitor: Page;
+let admin: Page;
+
+async function signIn(page: Page, email: string, password: string) {
+	await page.goto('/signin');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/** The newest link to `path` in mail to `to`, read from the demo mailbox as an admin would. */
+async function linkFromMail(to: string, path: string): Promise<string> {
+	await admin.goto('/admin/mail');
+	const message = admin.locator('[data-testid=mail-message]', { hasText: to }).first();
+	const text = (await message.textContent()) ?? '';
+	const link = new RegExp(`${base}${path}[^\\s]+`).exec(text)?.[0];
+	if (!link) throw new Error(`no ${path} link in mail to ${to}: ${text}`);
+	return link;
+}
+
+beforeAll(async () => {
+	browser = await launchChromium();
+	visitor = await (await browser.newContext({ baseURL: base })).newPage();
+	admin = await (await browser.newContext({ baseURL: base })).newPage();
+	await signIn(admin, 'admin@demo.hopline.test', 'demo-admin-pass');
+	await admin.getByTestId('user-menu').waitFor();
+});
+afterAll(async () => browser?.close());
+
+describe('sign-up and password reset by e-mail', () => {
+	const email = 'new.researcher@demo.hopline.test';
+	it('refuses a mismatched password with a message beside the field', async () => {
+		await visitor.goto('/signup');
+		await visitor.getByLabel('Name').fill('New Researcher');
+		await visitor.getByLabel('E-mail').fill(email);
+		await visitor.getByLabel('Password (at least 10 characters)').fill('first-password-1');
+		await visitor.getByLabel('Password again').fill('second-password-2');
+		await visitor.getByRole('button', { name: 'Create account' }).click();
+		expect(await visitor.locator('[data-field-error=confirm]').textContent()).toContain('differ');
+	});
+	it('signs up, cannot sign in before confirming, confirms by the mailed link, then signs in', async () => {
+		await visitor.goto('/signup');
+		await visitor.getByLabel('Name').fill('New Researcher');
+		await visitor.getByLabel('E-mail').fill(email);
+		await visitor.getByLabel('Password (at least 10 characters)').fill('first-password-1');
+		await visitor.getByLabel('Password again').fill('first-password-1');
+		await visitor.getByRole('button', { name: 'Create account' }).click();
+		await visitor.getByTestId('signup-sent').waitFor();
+
+		await signIn(visitor, email, 'first-password-1');
+		expect(await visitor.getByTestId('signin-error').textContent()).toContain(
+			'Confirm your e-mail address'
+		);
+
+		const link = await linkFromMail(email, '/verify');
+		await visitor.goto(link);
+		expect(await visitor.getByTestId('verify-result').textContent()).toContain('Address confirmed');
+		await visitor.goto(link);
+		expect(await visitor.getByTestId('verify-result').textContent()).toContain('does not work');
+
+		await signIn(visitor, email, 'first-password-1');
+		await visitor.getByTestId('user-menu').waitFor();
+		expect(await visitor.getByTestId('user-menu').textContent()).toContain('reader');
+	});
+	it('resets a forgotten password through the mailed link, once', async () => {
+		const other = await (await browser.newContext({ baseURL: base })).newPage();
+		await other.goto('/reset');
+		await other.getByLabel('E-mail').fill(email);
+		await other.getByRole('button', { name: 'Send a reset link' }).click();
+		await other.getByTestId('reset-sent').waitFor();
+
+		const link = await linkFromMail(email, '/reset/');
+		await other.goto(link);
+		await other.getByLabel('New password (at least 10 characters)').fill('second-password-2');
+		await other.getByLabel('Again').fill('second-password-2');
+		await other.getByRole('button', { name: 'Set password' }).click();
+		await other.getByTestId('reset-done').waitFor();
+
+		await signIn(other, email, 'second-password-2');
+		await other.getByTestId('user-menu').waitFor();
+
+		const again = await (await browser.newContext({ baseURL: base })).newPage();
+		await again.goto(link);
+		await again.getByLabel('New password (at least 10 characters)').fill('third-password-3');
+		await again.getByLabel('Again').fill('third-password-3');
+		await again.getByRole('button', { name: 'Set password' }).click();
+		expect(await again.getByTestId('reset-error').textContent()).toContain('does not work');
+	});
+});
