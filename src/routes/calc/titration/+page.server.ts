@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { fitNernst } from '$lib/science';
-import { fieldErrors, titrationRequestSchema } from '$lib/schemas/calc';
-import { parseTitrationText } from '$lib/server/calc/titrationCsv';
+import { MAX_TITRATION_POINTS, fieldErrors, titrationRequestSchema } from '$lib/schemas/calc';
+import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import type { Actions } from './$types';
 
 const MAX_UPLOAD_BYTES = 1_000_000;
@@ -24,7 +24,12 @@ export const actions: Actions = {
 			text = await file.text();
 			values.points = text;
 		}
-		const { points, errors: rowErrors } = parseTitrationText(text);
+		const { rows, errors: rowErrors } = parseTwoColumnText(
+			text,
+			['potential', 'signal'],
+			MAX_TITRATION_POINTS
+		);
+		const points = rows.map(([potentialMv, signal]) => ({ potentialMv, signal }));
 		if (rowErrors.length) return fail(400, { values, errors: { points: rowErrors } });
 		const parsed = titrationRequestSchema.safeParse({
 			points,

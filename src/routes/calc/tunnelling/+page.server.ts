@@ -1,20 +1,13 @@
 import { fail } from '@sveltejs/kit';
-import Papa from 'papaparse';
 import { fieldErrors, tunnellingRequestSchema } from '$lib/schemas/calc';
 import { runTunnelling } from '$lib/server/calc/tunnelling';
+import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import type { Actions } from './$types';
 
 const text = (form: FormData, name: string, fallback = '') =>
 	String(form.get(name) ?? fallback).trim();
 const numberOrUndefined = (value: string) =>
 	value === '' ? undefined : Number(value.replace('\u2212', '-'));
-
-function sampledPoints(raw: string) {
-	const rows = Papa.parse<string[]>(raw, { skipEmptyLines: 'greedy' }).data;
-	return rows
-		.map((r) => ({ xA: Number(r[0]), energyKcalMol: Number(r[1]) }))
-		.filter((p, i) => !(i === 0 && Number.isNaN(p.xA) && Number.isNaN(p.energyKcalMol)));
-}
 
 export const actions: Actions = {
 	default: async ({ request }) => {
@@ -34,6 +27,10 @@ export const actions: Actions = {
 			].map((k) => [k, text(form, k)])
 		);
 		const kind = values.potentialKind;
+		const sampled = parseTwoColumnText(values.pointsText ?? '', ['x', 'V'], 2000);
+		if (kind === 'points' && sampled.errors.length) {
+			return fail(400, { values, errors: { 'potential.points': sampled.errors } });
+		}
 		const potential =
 			kind === 'double-well'
 				? {
@@ -43,7 +40,7 @@ export const actions: Actions = {
 						asymmetryKcalMol: numberOrUndefined(values.asymmetryKcalMol ?? '') ?? 0
 					}
 				: kind === 'points'
-					? { kind, points: sampledPoints(values.pointsText ?? '') }
+					? { kind, points: sampled.rows.map(([xA, energyKcalMol]) => ({ xA, energyKcalMol })) }
 					: undefined;
 		const parsed = tunnellingRequestSchema.safeParse({
 			temperatureK: numberOrUndefined(values.temperatureK ?? '') ?? 298.15,
