@@ -1,5 +1,6 @@
 import type { Migration } from 'kysely';
 import * as m0001 from './0001_create_schema';
+import * as m0002 from './0002_add_curation_workflow';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -7,5 +8,6 @@ import * as m0001 from './0001_create_schema';
  * only a static import works in all four. A unit test fails when a file here is not listed.
  */
 export const migrations: Record<string, Migration> = {
-	'0001_create_schema': m0001
+	'0001_create_schema': m0001,
+	'0002_add_curation_workflow': m0002
 };

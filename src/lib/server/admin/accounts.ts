@@ -1,5 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { Database, Role } from '../db/schema';
+import { writeAudit } from '../audit/log';
 
 /** Admin services: users, roles and groups. Every change is written to the audit log. */
 
@@ -13,22 +14,8 @@ export class AdminRuleError extends Error {
 	}
 }
 
-async function audit(
-	trx: Kysely<Database>,
-	actorId: string,
-	action: string,
-	before: unknown,
-	after: unknown
-) {
-	await trx
-		.insertInto('audit_log')
-		.values({
-			actor_id: actorId,
-			action,
-			before: JSON.stringify(before),
-			after: JSON.stringify(after)
-		})
-		.execute();
+function audit(trx: Kysely<Database>, actorId: string, action: string, before: unknown, after: unknown) {
+	return writeAudit(trx, { actorId, action, before, after });
 }
 
 export async function listUsers(db: Kysely<Database>) {

@@ -7,6 +7,7 @@ import { InvalidEntryDataError, VersionStateError } from './errors';
 import { refreshPotentialRows } from './potentialRows';
 import { bumpCatalogueRevision } from './revision';
 import { projectApprovedVersion } from './projection';
+import { writeAudit } from '../audit/log';
 
 /**
  * Writing entries and versions. An entry gets its accession when created; its versions are
@@ -52,6 +53,8 @@ export interface NewVersion {
 	submissionId?: number | null;
 	createdBy?: string | null;
 	changeNote?: string | null;
+	/** The visibility the version asks for, applied to the entry on approval; null keeps it. */
+	visibility?: VisibilityChange | null;
 }
 
 /** Adds an unapproved version (draft or submitted) after validating its data for the kind. */
@@ -78,7 +81,10 @@ export async function addVersion(
 			change_note: options.changeNote ?? null,
 			submission_id: options.submissionId ?? null,
 			based_on_version: latest,
-			created_by: options.createdBy ?? null
+			created_by: options.createdBy ?? null,
+			visibility: options.visibility?.visibility ?? null,
+			group_id: options.visibility?.groupId ?? null,
+			embargo_until: options.visibility?.embargoUntil ?? null
 		})
 		.returning('id')
 		.executeTakeFirstOrThrow();
@@ -99,7 +105,15 @@ export async function approveVersion(
 	const row = await trx
 		.selectFrom('entry_version')
 		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
-		.select(['entry_version.entry_id', 'entry_version.status', 'entry_version.data', 'entry.kind'])
+		.select([
+			'entry_version.entry_id',
+			'entry_version.status',
+			'entry_version.data',
+			'entry_version.visibility',
+			'entry_version.group_id',
+			'entry_version.embargo_until',
+			'entry.kind'
+		])
 		.where('entry_version.id', '=', versionId)
 		.executeTakeFirst();
 	if (!row) throw new VersionStateError(`no entry version with id ${versionId}`);
@@ -109,6 +123,15 @@ export async function approveVersion(
 	const entryData = parseEntryData(row.kind, JSON.parse(row.data));
 	const version = ((await latestApprovedVersionNumber(trx, row.entry_id)) ?? 0) + 1;
 	const approvedAt = options.approvedAt ?? new Date().toISOString();
+	if (row.visibility !== null) {
+		// The entry takes the visibility its newest approved version asked for.
+		await setEntryVisibility(
+			trx,
+			row.entry_id,
+			{ visibility: row.visibility, groupId: row.group_id, embargoUntil: row.embargo_until },
+			options.approvedBy ?? null
+		);
+	}
 	await trx
 		.updateTable('entry_version')
 		.set({
@@ -120,16 +143,13 @@ export async function approveVersion(
 		.where('id', '=', versionId)
 		.execute();
 	await projectApprovedVersion(trx, row.entry_id, version, entryData);
-	await trx
-		.insertInto('audit_log')
-		.values({
-			actor_id: options.approvedBy ?? null,
-			action: 'version.approve',
-			entry_id: row.entry_id,
-			after: JSON.stringify({ version, versionId }),
-			at: approvedAt
-		})
-		.execute();
+	await writeAudit(trx, {
+		actorId: options.approvedBy ?? null,
+		action: 'version.approve',
+		entryId: row.entry_id,
+		after: { version, versionId },
+		at: approvedAt
+	});
 	return { entryId: row.entry_id, version };
 }
 
@@ -177,6 +197,12 @@ export async function setEntryVisibility(
 		.select(['kind', 'visibility', 'group_id', 'embargo_until'])
 		.where('id', '=', entryId)
 		.executeTakeFirstOrThrow();
+	if (
+		before.visibility === change.visibility &&
+		before.group_id === change.groupId &&
+		before.embargo_until === change.embargoUntil
+	)
+		return;
 	await trx
 		.updateTable('entry')
 		.set({
@@ -196,14 +222,11 @@ export async function setEntryVisibility(
 					: null;
 	if (column) await refreshPotentialRows(trx, { column, entryId });
 	await bumpCatalogueRevision(trx);
-	await trx
-		.insertInto('audit_log')
-		.values({
-			actor_id: actorId,
-			action: 'entry.visibility',
-			entry_id: entryId,
-			before: JSON.stringify(before),
-			after: JSON.stringify(change)
-		})
-		.execute();
+	await writeAudit(trx, {
+		actorId,
+		action: 'entry.visibility',
+		entryId,
+		before,
+		after: change
+	});
 }

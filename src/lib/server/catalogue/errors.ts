@@ -18,9 +18,9 @@ export class EntryNotFoundError extends Error {
 export class InvalidEntryDataError extends Error {
 	constructor(
 		readonly field: string,
-		message: string
+		readonly detail: string
 	) {
-		super(`${field}: ${message}`);
+		super(`${field}: ${detail}`);
 		this.name = 'InvalidEntryDataError';
 	}
 }

@@ -1,5 +1,6 @@
 import type { Kysely } from 'kysely';
 import { COUPLES_BY_KIND, type CofactorKind, type EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
 import { InvalidEntryDataError } from './errors';
 
@@ -61,4 +62,46 @@ export async function assertCoupleFitsCentre(
 			`"${couple}" is not a couple of a ${centre.cofactor_kind} centre; expected one of ${allowed.join(', ')}`
 		);
 	}
+}
+
+/** The references each kind of entry makes: field → the kind it must name. */
+const REFERENCE_FIELDS: Record<EntryKind, Record<string, EntryKind>> = {
+	protein: {},
+	source: {},
+	centre: { proteinAccession: 'protein' },
+	potential: { centreAccession: 'centre', sourceAccession: 'source' },
+	spin_record: { centreAccession: 'centre', sourceAccession: 'source' },
+	distance: { centreAAccession: 'centre', centreBAccession: 'centre', sourceAccession: 'source' }
+};
+
+/**
+ * Every reference of a version's data that would not resolve on approval (the same rules the
+ * projection applies), as field errors; empty when all resolve.
+ */
+export async function checkEntryReferences(
+	db: Kysely<Database>,
+	entry: EntryData
+): Promise<Record<string, string[]>> {
+	const errors: Record<string, string[]> = {};
+	const data = entry.data as unknown as Record<string, unknown>;
+	const ids: Record<string, number> = {};
+	for (const [field, expected] of Object.entries(REFERENCE_FIELDS[entry.kind])) {
+		const accession = data[field];
+		if (typeof accession !== 'string') continue;
+		try {
+			ids[field] = await resolveReference(db, field, accession, expected);
+		} catch (e) {
+			if (!(e instanceof InvalidEntryDataError)) throw e;
+			errors[field] = [e.detail];
+		}
+	}
+	if (entry.kind === 'potential' && ids.centreAccession !== undefined) {
+		try {
+			await assertCoupleFitsCentre(db, ids.centreAccession, entry.data.couple);
+		} catch (e) {
+			if (!(e instanceof InvalidEntryDataError)) throw e;
+			errors.couple = [e.detail];
+		}
+	}
+	return errors;
 }

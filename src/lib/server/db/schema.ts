@@ -23,6 +23,7 @@ export interface Database {
 	release: ReleaseTable;
 	release_entry: ReleaseEntryTable;
 	audit_log: AuditLogTable;
+	curation_notice: CurationNoticeTable;
 	saved_search: SavedSearchTable;
 	api_token: ApiTokenTable;
 	catalogue_state: CatalogueStateTable;
@@ -52,6 +53,19 @@ export interface UserTable {
 	passwordHash: string | null;
 	createdAt: Generated<string>;
 	disabledAt: string | null;
+	/** How a curator hears of new submissions: a mail each, one daily digest, or none. */
+	curationNotices: Generated<CurationNotices>;
+	lastDigestAt: string | null;
+}
+
+export type CurationNotices = 'immediate' | 'daily' | 'off';
+
+export interface CurationNoticeTable {
+	id: Generated<number>;
+	user_id: string;
+	submission_id: number;
+	created_at: Generated<string>;
+	sent_at: string | null;
 }
 
 export interface AccountTable {
@@ -123,6 +137,10 @@ export interface EntryVersionTable {
 	created_at: Generated<string>;
 	approved_by: string | null;
 	approved_at: string | null;
+	/** The visibility this version asks for, applied to its entry on approval; null keeps it. */
+	visibility: Visibility | null;
+	group_id: number | null;
+	embargo_until: string | null;
 }
 
 export interface SubmissionTable {
@@ -336,3 +354,4 @@ export interface DistanceTable {
 
 export type EntryRow = Selectable<EntryTable>;
 export type EntryVersionRow = Selectable<EntryVersionTable>;
+export type SubmissionRow = Selectable<SubmissionTable>;

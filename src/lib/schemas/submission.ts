@@ -1,0 +1,146 @@
+import { z } from 'zod';
+import { ENTRY_DATA_SCHEMAS, parseEntryData, type EntryData } from './entryData';
+import { normalisePotential, potentialInputSchema } from './potential';
+import type { FieldErrors } from './searchParams';
+import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
+
+/**
+ * What a contributor sends: entry data in each kind's input schema (for potentials, the value as
+ * reported; the normalised one is computed here), the visibility it asks for, and the curation
+ * decisions. Forms and the API share these.
+ */
+export const ENTRY_INPUT_SCHEMAS = {
+	...ENTRY_DATA_SCHEMAS,
+	potential: potentialInputSchema
+} satisfies Record<EntryKind, z.ZodType>;
+
+export type InputResult = { ok: true; entry: EntryData } | { ok: false; fields: FieldErrors };
+
+/** Missing fields read "required" rather than zod's type message. */
+const requiredMessage = (issue: { code: string; input?: unknown }) =>
+	issue.code === 'invalid_type' && issue.input === undefined ? 'required' : undefined;
+
+/** Validates a contributor's input for a kind and turns it into the data a version stores. */
+export function parseEntryInput(kind: EntryKind, input: unknown): InputResult {
+	const parsed = ENTRY_INPUT_SCHEMAS[kind].safeParse(input, { error: requiredMessage });
+	if (!parsed.success) {
+		const fields: FieldErrors = {};
+		for (const issue of parsed.error.issues) {
+			(fields[issue.path.length ? issue.path.join('.') : '_'] ??= []).push(issue.message);
+		}
+		return { ok: false, fields };
+	}
+	const data =
+		kind === 'potential'
+			? normalisePotential(parsed.data as z.infer<typeof potentialInputSchema>)
+			: parsed.data;
+	return { ok: true, entry: parseEntryData(kind, data) };
+}
+
+/** A date such as 2027-06-30; embargoes end at the start of that day, UTC. */
+const isoDay = z
+	.string()
+	.trim()
+	.regex(/^\d{4}-\d{2}-\d{2}$/, 'expected a date as YYYY-MM-DD')
+	.refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'not a calendar date');
+
+export const visibilityRequestSchema = z
+	.object({
+		visibility: z.enum(VISIBILITIES, { error: `expected one of ${VISIBILITIES.join(', ')}` }),
+		groupId: z.coerce.number().int().positive().nullable().default(null),
+		embargoUntil: isoDay.nullable().default(null)
+	})
+	.superRefine((v, ctx) => {
+		if (v.visibility === 'group' && v.groupId === null)
+			ctx.addIssue({
+				code: 'custom',
+				path: ['groupId'],
+				message: 'choose the group that may see it'
+			});
+		if (v.visibility === 'embargoed') {
+			if (v.embargoUntil === null)
+				ctx.addIssue({
+					code: 'custom',
+					path: ['embargoUntil'],
+					message: 'give the date it becomes public'
+				});
+			else if (Date.parse(`${v.embargoUntil}T00:00:00Z`) <= Date.now())
+				ctx.addIssue({
+					code: 'custom',
+					path: ['embargoUntil'],
+					message: 'the embargo must end in the future'
+				});
+			if (v.groupId === null)
+				ctx.addIssue({
+					code: 'custom',
+					path: ['groupId'],
+					message: 'choose the group that may see it until then'
+				});
+		}
+	})
+	.transform((v) => ({
+		visibility: v.visibility,
+		groupId: v.visibility === 'public' ? null : v.groupId,
+		embargoUntil:
+			v.visibility === 'embargoed' && v.embargoUntil ? `${v.embargoUntil}T00:00:00.000Z` : null
+	}));
+
+export type VisibilityRequest = z.output<typeof visibilityRequestSchema>;
+
+/** Form fields around the entry data: visibility, a note to curators, and which entry is edited. */
+export const submissionMetaSchema = z.object({
+	changeNote: z
+		.string()
+		.trim()
+		.max(2000)
+		.transform((s) => s || null)
+		.nullable()
+		.default(null)
+});
+
+export const entryKindParam = z.enum(ENTRY_KINDS, {
+	error: `expected one of ${ENTRY_KINDS.join(', ')}`
+});
+
+export const commentBody = z
+	.string()
+	.trim()
+	.min(1, 'write a comment')
+	.max(4000, 'at most 4000 characters');
+
+export const REVIEW_DECISIONS = ['approve', 'return', 'reject'] as const;
+export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
+
+/** A curator's decision: returning needs a comment, rejecting a reason. */
+export const reviewDecisionSchema = z.discriminatedUnion(
+	'decision',
+	[
+		z.object({ decision: z.literal('approve'), comment: z.string().trim().max(4000).default('') }),
+		z.object({
+			decision: z.literal('return'),
+			comment: commentBody.refine((s) => s.length >= 3, 'say what needs changing')
+		}),
+		z.object({
+			decision: z.literal('reject'),
+			comment: commentBody.refine((s) => s.length >= 3, 'give the reason for rejecting')
+		})
+	],
+	{ error: `expected a decision: ${REVIEW_DECISIONS.join(', ')}` }
+);
+
+export const CURATION_NOTICE_MODES = ['immediate', 'daily', 'off'] as const;
+export const noticePreferenceForm = z.object({
+	curationNotices: z.enum(CURATION_NOTICE_MODES, {
+		error: `expected one of ${CURATION_NOTICE_MODES.join(', ')}`
+	})
+});
+
+export const SUBMISSION_STATES = [
+	'draft',
+	'submitted',
+	'returned',
+	'approved',
+	'partially_approved',
+	'rejected',
+	'withdrawn'
+] as const;

@@ -1,0 +1,78 @@
+import type { Kysely } from 'kysely';
+import { describeConflictRule, potentialConflict } from '$lib/catalogue/conflicts';
+import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
+import type { EntryData } from '$lib/schemas/entryData';
+import type { CofactorKind } from '$lib/schemas/vocabulary';
+import type { Database } from '../db/schema';
+import { potentialIsVisible, type Viewer } from '../catalogue/visibility';
+
+/**
+ * Warnings on a proposed version: things a curator should look at twice, none of which stops a
+ * submission. Errors (a reference that does not resolve) are checked elsewhere.
+ */
+export interface VersionWarning {
+	kind: 'range' | 'conflict';
+	field: string;
+	message: string;
+	/** Where the rule or the range comes from. */
+	source?: string;
+	/** The approved entry the value disagrees with. */
+	accession?: string;
+}
+
+/** Who the warnings are for: curators compare with every approved value, others with what they may see. */
+export type WarningAudience = Viewer | null | 'curator';
+
+export async function warningsForVersion(
+	db: Kysely<Database>,
+	entry: EntryData,
+	options: { entryId: number | null; audience: WarningAudience }
+): Promise<VersionWarning[]> {
+	if (entry.kind !== 'potential') return [];
+	const d = entry.data;
+	const centre = await db
+		.selectFrom('centre')
+		.innerJoin('entry', 'entry.id', 'centre.entry_id')
+		.select(['centre.entry_id', 'centre.cofactor_kind'])
+		.where('entry.accession', '=', d.centreAccession)
+		.executeTakeFirst();
+	if (!centre) return [];
+	const warnings: VersionWarning[] = [];
+	const range = checkTypicalRange(centre.cofactor_kind as CofactorKind, d.couple, d.emMvShe);
+	if (range) {
+		warnings.push({
+			kind: 'range',
+			field: 'reportedValue',
+			message: range.message,
+			source: range.range.source
+		});
+	}
+	let others = db
+		.selectFrom('potential')
+		.select(['accession', 'couple', 'em_mv_she', 'uncertainty_mv', 'ph', 'temperature_k'])
+		.where('centre_entry_id', '=', centre.entry_id)
+		.where('couple', '=', d.couple);
+	if (options.entryId !== null) others = others.where('entry_id', '!=', options.entryId);
+	const audience = options.audience;
+	if (audience !== 'curator')
+		others = others.where((eb) => potentialIsVisible(eb, 'potential', audience));
+	for (const other of await others.execute()) {
+		const conflict = potentialConflict(d, {
+			couple: other.couple,
+			emMvShe: other.em_mv_she,
+			uncertaintyMv: other.uncertainty_mv,
+			ph: other.ph,
+			temperatureK: other.temperature_k
+		});
+		if (conflict) {
+			warnings.push({
+				kind: 'conflict',
+				field: 'reportedValue',
+				accession: other.accession,
+				message: `Disagrees with approved ${other.accession} (${other.em_mv_she} mV vs SHE at comparable pH and temperature): ${conflict.message}.`,
+				source: `Hopline rule: ${describeConflictRule()}`
+			});
+		}
+	}
+	return warnings;
+}

@@ -1,0 +1,154 @@
+import type { Kysely } from 'kysely';
+import type { ReviewDecision } from '$lib/schemas/submission';
+import { assertRole, roleAtLeast, type SessionUser } from '../auth/roles';
+import { writeAudit } from '../audit/log';
+import type { Database } from '../db/schema';
+import { approveVersion } from '../catalogue/entries';
+import { InvalidEntryDataError } from '../catalogue/errors';
+import {
+	SubmissionAccessError,
+	SubmissionInvalidError,
+	SubmissionNotFoundError,
+	SubmissionStateError
+} from './errors';
+import { commentMail, outcomeMail } from './notices';
+import type { OutgoingMail } from './outbox';
+import { setSubmissionStatus, submissionVersions } from './submissions';
+
+/**
+ * A curator's side of curation: the decision on a submission and the comment thread. Approval
+ * numbers and freezes each version, applies the visibility it asked for, updates the read model
+ * and the search revision — all in the caller's transaction, so it happens whole or not at all.
+ */
+
+async function loadSubmission(trx: Kysely<Database>, submissionId: number) {
+	const submission = await trx
+		.selectFrom('submission')
+		.selectAll()
+		.where('id', '=', submissionId)
+		.executeTakeFirst();
+	if (!submission) throw new SubmissionNotFoundError(submissionId);
+	return submission;
+}
+
+export interface DecisionOutcome {
+	approved: { accession: string; version: number }[];
+	mails: OutgoingMail[];
+}
+
+export async function decideSubmission(
+	trx: Kysely<Database>,
+	curator: SessionUser,
+	submissionId: number,
+	decision: { decision: ReviewDecision; comment: string },
+	origin: string
+): Promise<DecisionOutcome> {
+	assertRole(curator, 'curator');
+	const submission = await loadSubmission(trx, submissionId);
+	if (submission.status !== 'submitted') {
+		throw new SubmissionStateError(
+			`submission ${submissionId} is ${submission.status}; only submitted ones await a decision`
+		);
+	}
+	// Four eyes: nobody approves, returns or rejects their own submission.
+	if (submission.submitted_by === curator.id) {
+		throw new SubmissionAccessError('another curator must review your own submission');
+	}
+	const approved: DecisionOutcome['approved'] = [];
+	const now = new Date().toISOString();
+	if (decision.decision === 'approve') {
+		for (const v of await submissionVersions(trx, submissionId)) {
+			try {
+				const { version } = await approveVersion(trx, v.id, {
+					approvedBy: curator.id,
+					approvedAt: now
+				});
+				approved.push({ accession: v.accession, version });
+			} catch (e) {
+				if (e instanceof InvalidEntryDataError) {
+					throw new SubmissionInvalidError({ [e.field]: [`${v.accession}: ${e.detail}`] });
+				}
+				throw e;
+			}
+		}
+		await trx
+			.updateTable('submission')
+			.set({ status: 'approved', updated_at: now })
+			.where('id', '=', submissionId)
+			.execute();
+	} else {
+		const status = decision.decision === 'return' ? 'returned' : 'rejected';
+		await setSubmissionStatus(trx, submissionId, status, status);
+	}
+	await trx
+		.insertInto('review')
+		.values({
+			submission_id: submissionId,
+			reviewer_id: curator.id,
+			decision: decision.decision,
+			comment: decision.comment || null
+		})
+		.execute();
+	if (decision.comment) {
+		await trx
+			.insertInto('submission_comment')
+			.values({
+				submission_id: submissionId,
+				entry_version_id: null,
+				author_id: curator.id,
+				body: decision.comment
+			})
+			.execute();
+	}
+	await writeAudit(trx, {
+		actorId: curator.id,
+		action: `review.${decision.decision}`,
+		submissionId,
+		before: { status: submission.status },
+		after: {
+			status:
+				decision.decision === 'approve'
+					? 'approved'
+					: decision.decision === 'return'
+						? 'returned'
+						: 'rejected',
+			approved
+		},
+		detail: decision.comment || null
+	});
+	const mails = await outcomeMail(
+		trx,
+		submission,
+		decision.decision,
+		decision.comment,
+		origin,
+		approved
+	);
+	return { approved, mails };
+}
+
+/** A comment on the thread of a submission, by its contributor or by a curator. */
+export async function addComment(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	submissionId: number,
+	body: string,
+	origin: string
+): Promise<{ mails: OutgoingMail[] }> {
+	const submission = await loadSubmission(trx, submissionId);
+	const isOwner = submission.submitted_by === user.id;
+	if (!isOwner && !roleAtLeast(user.role, 'curator')) {
+		throw new SubmissionAccessError('only the contributor and curators can comment here');
+	}
+	if (submission.status === 'withdrawn') {
+		throw new SubmissionStateError(`submission ${submissionId} was withdrawn`);
+	}
+	await trx
+		.insertInto('submission_comment')
+		.values({ submission_id: submissionId, entry_version_id: null, author_id: user.id, body })
+		.execute();
+	await writeAudit(trx, { actorId: user.id, action: 'comment.add', submissionId, detail: body });
+	return {
+		mails: isOwner ? [] : await commentMail(trx, submission, user.name ?? user.email, body, origin)
+	};
+}

@@ -1,0 +1,293 @@
+import type { Kysely } from 'kysely';
+import { parseEntryData, type EntryData } from '$lib/schemas/entryData';
+import { ENTRY_KIND_LABELS } from '$lib/schemas/vocabulary';
+import { roleAtLeast, type SessionUser } from '../auth/roles';
+import { writeAudit } from '../audit/log';
+import type { Database, SubmissionStatus } from '../db/schema';
+import { addVersion, createEntry, type VisibilityChange } from '../catalogue/entries';
+import { checkEntryReferences } from '../catalogue/references';
+import {
+	SubmissionAccessError,
+	SubmissionInvalidError,
+	SubmissionNotFoundError,
+	SubmissionStateError
+} from './errors';
+import { noticesForNewSubmission } from './notices';
+import type { OutgoingMail } from './outbox';
+
+/**
+ * A contributor's side of curation: drafts (one entry version per form submission), submitting
+ * for review, withdrawing, and comments. Every function runs in the caller's transaction and
+ * writes the audit log; mail comes back to the caller to send after commit.
+ */
+
+export interface DraftInput {
+	entry: EntryData;
+	visibility: VisibilityChange;
+	changeNote: string | null;
+}
+
+/** States in which the contributor may still change the data. */
+const EDITABLE: readonly SubmissionStatus[] = ['draft', 'returned'];
+
+async function assertGroupAllowed(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	visibility: VisibilityChange
+): Promise<void> {
+	if (visibility.groupId === null) return;
+	const group = await trx
+		.selectFrom('research_group')
+		.select('id')
+		.where('id', '=', visibility.groupId)
+		.executeTakeFirst();
+	if (!group) throw new SubmissionInvalidError({ groupId: [`no group ${visibility.groupId}`] });
+	if (!roleAtLeast(user.role, 'curator') && !user.groupIds.includes(visibility.groupId)) {
+		throw new SubmissionInvalidError({
+			groupId: ['you can share only with a group you belong to']
+		});
+	}
+}
+
+/** A title a curator can scan in the queue. */
+export function submissionTitle(entry: EntryData, editing: string | null): string {
+	const what = (() => {
+		switch (entry.kind) {
+			case 'protein':
+				return `${entry.data.name} (${entry.data.organism})`;
+			case 'centre':
+				return `${entry.data.label} of ${entry.data.proteinAccession}`;
+			case 'potential':
+				return `${entry.data.couple} of ${entry.data.centreAccession}`;
+			case 'spin_record':
+				return `${entry.data.oxidationLevel} of ${entry.data.centreAccession}`;
+			case 'distance':
+				return `${entry.data.centreAAccession} – ${entry.data.centreBAccession}`;
+			case 'source':
+				return entry.data.title.length > 80
+					? `${entry.data.title.slice(0, 77)}…`
+					: entry.data.title;
+		}
+	})();
+	const label = ENTRY_KIND_LABELS[entry.kind];
+	return editing
+		? `${label} ${editing}, new version: ${what}`
+		: `New ${label.toLowerCase()}: ${what}`;
+}
+
+/**
+ * Starts a submission holding one draft version: of a new entry, or (with `editAccession`) a
+ * proposed new version of an approved one.
+ */
+export async function createDraft(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	input: DraftInput & { editAccession: string | null }
+): Promise<{ submissionId: number; accession: string }> {
+	await assertGroupAllowed(trx, user, input.visibility);
+	let entry: { id: number; accession: string };
+	if (input.editAccession) {
+		const existing = await trx
+			.selectFrom('entry')
+			.select(['id', 'accession', 'kind'])
+			.where('accession', '=', input.editAccession)
+			.executeTakeFirst();
+		if (!existing) throw new SubmissionInvalidError({ entry: [`no entry ${input.editAccession}`] });
+		if (existing.kind !== input.entry.kind) {
+			throw new SubmissionInvalidError({
+				entry: [`${input.editAccession} is a ${existing.kind}, not a ${input.entry.kind}`]
+			});
+		}
+		entry = existing;
+	} else {
+		entry = await createEntry(trx, { kind: input.entry.kind, createdBy: user.id });
+	}
+	const { id: submissionId } = await trx
+		.insertInto('submission')
+		.values({
+			channel: 'form',
+			status: 'draft',
+			title: submissionTitle(input.entry, input.editAccession ? entry.accession : null),
+			submitted_by: user.id,
+			content_sha256: null,
+			row_count: 1,
+			submitted_at: null
+		})
+		.returning('id')
+		.executeTakeFirstOrThrow();
+	await addVersion(trx, entry.id, input.entry.data, {
+		status: 'draft',
+		submissionId,
+		createdBy: user.id,
+		changeNote: input.changeNote,
+		visibility: input.visibility
+	});
+	await writeAudit(trx, {
+		actorId: user.id,
+		action: 'submission.create',
+		entryId: entry.id,
+		submissionId,
+		after: { data: input.entry.data, visibility: input.visibility }
+	});
+	return { submissionId, accession: entry.accession };
+}
+
+/** The submission, checked to belong to `user` (curators act through reviews, not here). */
+export async function loadOwnSubmission(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	submissionId: number
+) {
+	const submission = await trx
+		.selectFrom('submission')
+		.selectAll()
+		.where('id', '=', submissionId)
+		.executeTakeFirst();
+	if (!submission) throw new SubmissionNotFoundError(submissionId);
+	if (submission.submitted_by !== user.id) {
+		throw new SubmissionAccessError('this submission belongs to another contributor');
+	}
+	return submission;
+}
+
+async function formVersion(trx: Kysely<Database>, submissionId: number) {
+	return trx
+		.selectFrom('entry_version')
+		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+		.select([
+			'entry_version.id',
+			'entry_version.data',
+			'entry_version.visibility',
+			'entry_version.group_id',
+			'entry_version.embargo_until',
+			'entry_version.change_note',
+			'entry_version.based_on_version',
+			'entry.id as entryId',
+			'entry.kind',
+			'entry.accession'
+		])
+		.where('entry_version.submission_id', '=', submissionId)
+		.orderBy('entry_version.id')
+		.execute();
+}
+
+/** Replaces the data of a draft or returned submission's version. */
+export async function updateDraft(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	submissionId: number,
+	input: DraftInput
+): Promise<void> {
+	const submission = await loadOwnSubmission(trx, user, submissionId);
+	if (!EDITABLE.includes(submission.status)) {
+		throw new SubmissionStateError(
+			`submission ${submissionId} is ${submission.status}; only drafts and returned submissions can be edited`
+		);
+	}
+	await assertGroupAllowed(trx, user, input.visibility);
+	const [version] = await formVersion(trx, submissionId);
+	if (!version) throw new SubmissionStateError(`submission ${submissionId} holds no version`);
+	if (version.kind !== input.entry.kind) {
+		throw new SubmissionInvalidError({ entry: [`this submission holds a ${version.kind}`] });
+	}
+	await trx
+		.updateTable('entry_version')
+		.set({
+			data: JSON.stringify(input.entry.data),
+			change_note: input.changeNote,
+			visibility: input.visibility.visibility,
+			group_id: input.visibility.groupId,
+			embargo_until: input.visibility.embargoUntil
+		})
+		.where('id', '=', version.id)
+		.execute();
+	const editing = version.based_on_version !== null ? version.accession : null;
+	await trx
+		.updateTable('submission')
+		.set({ title: submissionTitle(input.entry, editing), updated_at: new Date().toISOString() })
+		.where('id', '=', submissionId)
+		.execute();
+	await writeAudit(trx, {
+		actorId: user.id,
+		action: 'submission.edit',
+		entryId: version.entryId,
+		submissionId,
+		before: { data: JSON.parse(version.data), visibility: version.visibility },
+		after: { data: input.entry.data, visibility: input.visibility }
+	});
+}
+
+async function setStatus(
+	trx: Kysely<Database>,
+	submissionId: number,
+	status: SubmissionStatus,
+	versionStatus: 'draft' | 'submitted' | 'returned' | 'rejected' | 'withdrawn'
+) {
+	const now = new Date().toISOString();
+	await trx
+		.updateTable('submission')
+		.set({ status, updated_at: now, ...(status === 'submitted' ? { submitted_at: now } : {}) })
+		.where('id', '=', submissionId)
+		.execute();
+	await trx
+		.updateTable('entry_version')
+		.set({ status: versionStatus })
+		.where('submission_id', '=', submissionId)
+		.where('status', '!=', 'approved')
+		.execute();
+}
+
+/**
+ * Sends a draft (or a returned submission, fixed) to the curators. Every reference must resolve
+ * now, so a curator never sees a submission that cannot be approved for that reason.
+ */
+export async function submitForReview(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	submissionId: number,
+	origin: string
+): Promise<{ mails: OutgoingMail[] }> {
+	const submission = await loadOwnSubmission(trx, user, submissionId);
+	if (!EDITABLE.includes(submission.status)) {
+		throw new SubmissionStateError(`submission ${submissionId} is already ${submission.status}`);
+	}
+	for (const v of await formVersion(trx, submissionId)) {
+		const errors = await checkEntryReferences(trx, parseEntryData(v.kind, JSON.parse(v.data)));
+		if (Object.keys(errors).length > 0) throw new SubmissionInvalidError(errors);
+	}
+	await setStatus(trx, submissionId, 'submitted', 'submitted');
+	await writeAudit(trx, {
+		actorId: user.id,
+		action: submission.status === 'returned' ? 'submission.resubmit' : 'submission.submit',
+		submissionId,
+		before: { status: submission.status },
+		after: { status: 'submitted' }
+	});
+	return {
+		mails: await noticesForNewSubmission(trx, { ...submission, status: 'submitted' }, origin)
+	};
+}
+
+/** Takes a submission back before a decision; its versions stay on record as withdrawn. */
+export async function withdrawSubmission(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	submissionId: number
+): Promise<void> {
+	const submission = await loadOwnSubmission(trx, user, submissionId);
+	if (!['draft', 'submitted', 'returned'].includes(submission.status)) {
+		throw new SubmissionStateError(
+			`submission ${submissionId} is ${submission.status} and can no longer be withdrawn`
+		);
+	}
+	await setStatus(trx, submissionId, 'withdrawn', 'withdrawn');
+	await writeAudit(trx, {
+		actorId: user.id,
+		action: 'submission.withdraw',
+		submissionId,
+		before: { status: submission.status },
+		after: { status: 'withdrawn' }
+	});
+}
+
+export { setStatus as setSubmissionStatus, formVersion as submissionVersions };
