@@ -8,6 +8,7 @@ import { authHandle } from '$lib/server/auth/authjs';
 import { loadSessionUser } from '$lib/server/auth/users';
 import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
 import { ensureDemoAccounts } from '$seed/accounts';
+import { scheduleDigests } from '$lib/server/curation/digestSchedule';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -17,6 +18,7 @@ export const init: ServerInit = async () => {
 		console.log('Loaded the invented demo scenario:', summary);
 	}
 	if (config.HOPLINE_DEMO) await ensureDemoAccounts(db);
+	scheduleDigests(db, { hourUtc: config.DIGEST_HOUR_UTC, origin: config.ORIGIN });
 };
 
 const attachRequestFacts: Handle = async ({ event, resolve }) => {

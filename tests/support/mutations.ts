@@ -117,5 +117,34 @@ export const MUTATIONS: Mutation[] = [
 		url: '/admin/groups?/remove',
 		least: 'admin',
 		body: { groupId: '999999', userId: 'no-such-user' }
+	},
+	// Curation: harmless bodies (empty forms, unknown submissions) that pass the guard and fail after it.
+	...(['save', 'submit'] as const).map((name) => ({
+		file: '(app)/submissions/new/[kind=kind]/+page.server.ts',
+		name,
+		url: `/submissions/new/potential?/${name}`,
+		least: 'contributor' as const,
+		body: {}
+	})),
+	...(['save', 'submit', 'withdraw', 'comment'] as const).map((name) => ({
+		file: '(app)/submissions/[id=id]/+page.server.ts',
+		name,
+		url: `/submissions/999999?/${name}`,
+		least: 'contributor' as const,
+		body: {}
+	})),
+	...(['decide', 'comment'] as const).map((name) => ({
+		file: '(curation)/review/[id=id]/+page.server.ts',
+		name,
+		url: `/review/999999?/${name}`,
+		least: 'curator' as const,
+		body: {}
+	})),
+	{
+		file: 'account/+page.server.ts',
+		name: 'notices',
+		url: '/account?/notices',
+		least: 'curator',
+		body: { curationNotices: 'not-a-choice' }
 	}
 ];

@@ -64,3 +64,41 @@ export function describeConflictRule(): string {
 	const r = CONFLICT_RULES;
 	return `same centre and couple, pH within ${r.phWindow}, temperature within ${r.temperatureWindowK} K, difference beyond √(u₁² + u₂²); ${r.defaultUncertaintyMv} mV assumed where no uncertainty is given (common practice, no source)`;
 }
+
+/** A potential as listed with its centre, enough to compare it with its neighbours. */
+export interface ListedPotential extends ComparablePotential {
+	accession: string;
+	centre: { accession: string };
+}
+
+export interface ConflictFlag {
+	accession: string;
+	message: string;
+}
+
+/**
+ * For each listed potential, the others of the same centre it conflicts with. Potentials of
+ * different centres are never compared.
+ */
+export function conflictsAmong(
+	potentials: readonly ListedPotential[]
+): Map<string, ConflictFlag[]> {
+	const flags = new Map<string, ConflictFlag[]>();
+	for (let i = 0; i < potentials.length; i++) {
+		for (let j = i + 1; j < potentials.length; j++) {
+			const a = potentials[i] as ListedPotential;
+			const b = potentials[j] as ListedPotential;
+			if (a.centre.accession !== b.centre.accession) continue;
+			const c = potentialConflict(a, b);
+			if (!c) continue;
+			const add = (from: ListedPotential, to: ListedPotential) => {
+				const list = flags.get(from.accession) ?? [];
+				list.push({ accession: to.accession, message: `${to.accession}: ${c.message}` });
+				flags.set(from.accession, list);
+			};
+			add(a, b);
+			add(b, a);
+		}
+	}
+	return flags;
+}

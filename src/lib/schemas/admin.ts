@@ -1,8 +1,9 @@
 import { z } from 'zod';
+import { ROLES } from '$lib/roles';
 
 /** Admin form inputs (users, roles, groups). */
 
-export const ROLE_VALUES = ['reader', 'contributor', 'curator', 'admin'] as const;
+export const ROLE_VALUES = ROLES;
 
 export const setRoleForm = z.object({
 	userId: z.string().min(1, 'choose a user'),

@@ -144,3 +144,29 @@ export const SUBMISSION_STATES = [
 	'rejected',
 	'withdrawn'
 ] as const;
+
+/** Filters of the curators' queue, from the URL. */
+export const queueQuerySchema = z.strictObject({
+	status: z.enum(SUBMISSION_STATES).default('submitted'),
+	kind: entryKindParam.optional(),
+	contributor: z.string().trim().max(200).optional(),
+	flag: z.enum(['warnings', 'conflicts']).optional()
+});
+
+/** Filters of the audit log view, from the URL. */
+export const auditQuerySchema = z.strictObject({
+	action: z
+		.string()
+		.trim()
+		.max(60)
+		.regex(/^[a-z._]+$/, 'an action such as review.approve, or its start such as review')
+		.optional(),
+	actor: z.string().trim().toLowerCase().email('an e-mail address').optional(),
+	accession: z
+		.string()
+		.trim()
+		.regex(/^HL\d{6}$/, 'an accession such as HL000123')
+		.optional(),
+	submission: z.coerce.number().int().positive().optional(),
+	before: z.coerce.number().int().positive().optional()
+});

@@ -24,7 +24,18 @@ const configSchema = z.object({
 	SMTP_URL: z.string().url().optional(),
 	MAIL_FROM: z.string().min(3).default('Hopline <no-reply@hopline.test>'),
 	/** Port of the local SMTP fake in demo mode (0: any free port). */
-	FAKE_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(0)
+	FAKE_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(0),
+	/** The public address of the app (adapter-node reads it too); links in mail sent outside a request use it. */
+	ORIGIN: z.string().url().default('http://localhost:3000'),
+	/** Hour of the day (UTC) from which curators' daily digests go out. */
+	DIGEST_HOUR_UTC: z.coerce.number().int().min(0).max(23).default(7),
+	/**
+	 * DOI metadata service: answers GET {base}/{doi} with CSL-JSON (content negotiation as doi.org
+	 * does). In demo mode a loopback fake serving the demo DOIs is used when unset.
+	 */
+	DOI_SERVICE_URL: z.string().url().optional(),
+	DOI_TIMEOUT_MS: z.coerce.number().int().min(100).max(60_000).default(5000),
+	FAKE_DOI_PORT: z.coerce.number().int().min(0).max(65535).default(0)
 });
 
 export type Config = z.infer<typeof configSchema>;

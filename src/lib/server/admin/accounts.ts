@@ -14,7 +14,13 @@ export class AdminRuleError extends Error {
 	}
 }
 
-function audit(trx: Kysely<Database>, actorId: string, action: string, before: unknown, after: unknown) {
+function audit(
+	trx: Kysely<Database>,
+	actorId: string,
+	action: string,
+	before: unknown,
+	after: unknown
+) {
 	return writeAudit(trx, { actorId, action, before, after });
 }
 

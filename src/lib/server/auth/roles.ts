@@ -1,15 +1,12 @@
 import type { Role } from '../db/schema';
+import { roleAtLeast } from '$lib/roles';
 
 /**
- * The one rule for roles. Roles are ordered: each includes what the ones before it may do
- * (reader < contributor < curator < admin), so checks name the least role that suffices.
+ * The one rule for roles. Roles are ordered (src/lib/roles.ts): each includes what the ones
+ * before it may do (reader < contributor < curator < admin), so checks name the least role that
+ * suffices.
  */
-export const ROLES = [
-	'reader',
-	'contributor',
-	'curator',
-	'admin'
-] as const satisfies readonly Role[];
+export { ROLES, roleAtLeast } from '$lib/roles';
 
 export interface SessionUser {
 	id: string;
@@ -31,10 +28,6 @@ export class ForbiddenError extends Error {
 		super(`This needs the ${needed} role.`);
 		this.name = 'ForbiddenError';
 	}
-}
-
-export function roleAtLeast(role: Role, least: Role): boolean {
-	return ROLES.indexOf(role) >= ROLES.indexOf(least);
 }
 
 /**

@@ -35,7 +35,8 @@ export interface Database {
 	distance: DistanceTable;
 }
 
-export type Role = 'reader' | 'contributor' | 'curator' | 'admin';
+export type { Role } from '$lib/roles';
+import type { Role } from '$lib/roles';
 export type EntryKind = 'protein' | 'centre' | 'potential' | 'spin_record' | 'distance' | 'source';
 export type Visibility = 'public' | 'group' | 'embargoed';
 export type VersionStatus =

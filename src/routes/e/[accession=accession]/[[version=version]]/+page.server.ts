@@ -6,6 +6,9 @@ import { getEntryView } from '$lib/server/catalogue/entryView';
 import { EntryNotFoundError } from '$lib/server/catalogue/errors';
 import { relatedRecords } from '$lib/server/catalogue/related';
 import { db } from '$lib/server/db';
+import { listPotentials } from '$lib/server/catalogue/potentials';
+import { conflictsAmong, describeConflictRule } from '$lib/catalogue/conflicts';
+import { roleAtLeast } from '$lib/roles';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, locals }) => {
@@ -30,5 +33,27 @@ export const load: PageServerLoad = async ({ params, locals }) => {
 			? buildLadder(related.centres, related.potentials, related.distances)
 			: null;
 	const chain = ladder && related ? estimateLadderChain(ladder, related.potentials) : null;
-	return { view, related, ladder, chain, pinned: params.version !== undefined };
+	// A potential is flagged against the other approved values of its centre that it contradicts.
+	const siblings =
+		view.kind === 'potential' && typeof view.data.centreAccession === 'string'
+			? (
+					await listPotentials(
+						db,
+						{ centre: view.data.centreAccession },
+						{ limit: 2000, offset: 0, sort: 'protein' },
+						locals.viewer
+					)
+				).items
+			: (related?.potentials ?? []);
+	const conflicts = Object.fromEntries(conflictsAmong(siblings));
+	return {
+		view,
+		related,
+		ladder,
+		chain,
+		conflicts,
+		conflictRule: describeConflictRule(),
+		canPropose: locals.user !== null && roleAtLeast(locals.user.role, 'contributor'),
+		pinned: params.version !== undefined
+	};
 };

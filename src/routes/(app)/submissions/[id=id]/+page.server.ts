@@ -1,0 +1,98 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { commentBody } from '$lib/schemas/submission';
+import { requireRole } from '$lib/server/auth/guards';
+import { db } from '$lib/server/db';
+import { SubmissionNotFoundError } from '$lib/server/curation/errors';
+import { curationFailure, readSubmissionForm } from '$lib/server/curation/form';
+import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefaults';
+import { deliver } from '$lib/server/curation/outbox';
+import { loadSubmissionView } from '$lib/server/curation/queue';
+import { addComment } from '$lib/server/curation/reviews';
+import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'contributor');
+	const id = Number(event.params.id);
+	const view = await loadSubmissionView(db, user, id).catch((e: unknown) => {
+		if (e instanceof SubmissionNotFoundError) return null;
+		throw e;
+	});
+	if (!view) error(404, { message: `no submission ${id} of yours` });
+	const first = view.versions[0];
+	return {
+		view,
+		groups: await groupsForSharing(db, user),
+		values: first
+			? valuesOfVersion(first.kind, first.data, first.requestedVisibility, first.changeNote)
+			: {},
+		notice: event.url.searchParams.has('submitted')
+			? 'Submitted for review. The curators have been told.'
+			: event.url.searchParams.has('saved')
+				? 'Draft saved. Only you and the curators can see it.'
+				: null
+	};
+};
+
+/** Saves the edited data; with `andSubmit`, sends it for review in the same transaction. */
+async function save(event: RequestEvent, andSubmit: boolean) {
+	const user = requireRole(event, 'contributor');
+	const id = Number(event.params.id);
+	const kind = (
+		await db
+			.selectFrom('entry_version')
+			.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+			.select('entry.kind')
+			.where('entry_version.submission_id', '=', id)
+			.executeTakeFirst()
+	)?.kind;
+	if (!kind) error(404, { message: `no submission ${id}` });
+	const form = readSubmissionForm(kind, await event.request.formData());
+	if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
+	let mails;
+	try {
+		mails = await db.transaction().execute(async (trx) => {
+			await updateDraft(trx, user, id, form);
+			return andSubmit ? (await submitForReview(trx, user, id, event.url.origin)).mails : [];
+		});
+	} catch (e) {
+		return curationFailure(e, form.values);
+	}
+	await deliver(mails);
+	redirect(303, `/submissions/${id}?${andSubmit ? 'submitted' : 'saved'}`);
+}
+
+export const actions: Actions = {
+	save: (event) => save(event, false),
+	submit: (event) => save(event, true),
+	withdraw: async (event) => {
+		const user = requireRole(event, 'contributor');
+		const id = Number(event.params.id);
+		try {
+			await db.transaction().execute((trx) => withdrawSubmission(trx, user, id));
+		} catch (e) {
+			return curationFailure(e);
+		}
+		return { withdrawn: true };
+	},
+	comment: async (event) => {
+		const user = requireRole(event, 'contributor');
+		const id = Number(event.params.id);
+		const body = commentBody.safeParse((await event.request.formData()).get('body') ?? '');
+		if (!body.success) {
+			return fail(400, { commentErrors: { body: body.error.issues.map((i) => i.message) } });
+		}
+		let mails;
+		try {
+			mails = await db
+				.transaction()
+				.execute(
+					async (trx) => (await addComment(trx, user, id, body.data, event.url.origin)).mails
+				);
+		} catch (e) {
+			return curationFailure(e);
+		}
+		await deliver(mails);
+		return { commented: true };
+	}
+};

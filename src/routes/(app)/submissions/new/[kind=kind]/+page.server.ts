@@ -1,0 +1,56 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { isAccession } from '$lib/schemas/accession';
+import { requireRole } from '$lib/server/auth/guards';
+import { db } from '$lib/server/db';
+import { curationFailure, readSubmissionForm } from '$lib/server/curation/form';
+import { groupsForSharing, valuesForEditing } from '$lib/server/curation/formDefaults';
+import { deliver } from '$lib/server/curation/outbox';
+import { createDraft, submitForReview } from '$lib/server/curation/submissions';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'contributor');
+	const kind = event.params.kind;
+	const edit = event.url.searchParams.get('edit');
+	let values: Record<string, string> = {};
+	if (edit !== null) {
+		if (!isAccession(edit))
+			error(400, { message: `edit: expected an accession such as HL000123, got "${edit}"` });
+		const existing = await valuesForEditing(db, user, kind, edit);
+		if (!existing) error(404, { message: `no ${kind.replace('_', ' ')} ${edit} that you can see` });
+		values = existing;
+	}
+	return { kind, edit, values, groups: await groupsForSharing(db, user) };
+};
+
+/** Both actions create the draft; `submit` also sends it to the curators in the same transaction. */
+async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean) {
+	const user = requireRole(event, 'contributor');
+	const form = readSubmissionForm(event.params.kind, await event.request.formData());
+	if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
+	const edit = event.url.searchParams.get('edit');
+	let result;
+	try {
+		result = await db.transaction().execute(async (trx) => {
+			const draft = await createDraft(trx, user, {
+				entry: form.entry,
+				visibility: form.visibility,
+				changeNote: form.changeNote,
+				editAccession: edit && isAccession(edit) ? edit : null
+			});
+			const sent = andSubmit
+				? await submitForReview(trx, user, draft.submissionId, event.url.origin)
+				: { mails: [] };
+			return { ...draft, mails: sent.mails };
+		});
+	} catch (e) {
+		return curationFailure(e, form.values);
+	}
+	await deliver(result.mails);
+	redirect(303, `/submissions/${result.submissionId}?${andSubmit ? 'submitted' : 'saved'}`);
+}
+
+export const actions: Actions = {
+	save: (event) => create(event, false),
+	submit: (event) => create(event, true)
+};
