@@ -32,5 +32,34 @@ export async function ensureDemoAccounts(db: Kysely<Database>): Promise<number> 
 		await createPasswordUser(db, { ...account, verified: true });
 		created++;
 	}
+	await ensureDemoGroup(db);
 	return created;
+}
+
+/** An invented consortium holding the demo reader, contributor and curator, for group-only entries. */
+export const DEMO_GROUP = { slug: 'demo-consortium', name: 'Thermophile redox consortium (demo)' };
+
+async function ensureDemoGroup(db: Kysely<Database>): Promise<void> {
+	await db
+		.insertInto('research_group')
+		.values(DEMO_GROUP)
+		.onConflict((oc) => oc.column('slug').doNothing())
+		.execute();
+	const group = await db
+		.selectFrom('research_group')
+		.select('id')
+		.where('slug', '=', DEMO_GROUP.slug)
+		.executeTakeFirstOrThrow();
+	for (const account of DEMO_ACCOUNTS.filter((a) => a.role !== 'admin')) {
+		const user = await db
+			.selectFrom('User')
+			.select('id')
+			.where('email', '=', account.email)
+			.executeTakeFirstOrThrow();
+		await db
+			.insertInto('group_member')
+			.values({ group_id: group.id, user_id: user.id })
+			.onConflict((oc) => oc.columns(['group_id', 'user_id']).doNothing())
+			.execute();
+	}
 }

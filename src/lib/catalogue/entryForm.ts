@@ -151,7 +151,7 @@ export const ENTRY_FORM_FIELDS: Record<EntryKind, readonly FormField[]> = {
 };
 
 export interface FormReading {
-	/** Values typed for the schema; blanks become null, unreadable numbers are left out. */
+	/** Values typed for the schema; blanks and unreadable values are left out. */
 	value: Record<string, unknown>;
 	/** What could not be read as its type, by field. */
 	errors: Record<string, string[]>;
@@ -191,11 +191,9 @@ export function readEntryForm(kind: EntryKind, form: Record<string, string>): Fo
 	const fail = (name: string, message: string) => (errors[name] = [message]);
 	for (const f of ENTRY_FORM_FIELDS[kind]) {
 		const text = (form[f.name] ?? '').trim();
-		if (text === '') {
-			// Required blanks stay absent so the schema reports them as missing.
-			if (!f.required) value[f.name] = f.type.endsWith('List') ? [] : null;
-			continue;
-		}
+		// Blanks stay absent: the schema reports a required one as missing and gives an
+		// optional one its default (null, an empty list, n = 1).
+		if (text === '') continue;
 		switch (f.type) {
 			case 'number': {
 				const n = readNumber(text);

@@ -1,0 +1,227 @@
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { launchChromium } from '../support/browser';
+
+/**
+ * The curation story in real Chromium: a contributor's value with a range warning goes to the
+ * curator by e-mail, comes back with a comment, is fixed, approved, and appears at its permalink
+ * and in search; an embargoed value stays hidden from signed-out readers everywhere.
+ */
+const base = inject('baseUrl');
+let browser: Browser;
+let contributor: Page;
+let curator: Page;
+let admin: Page;
+let visitor: Page;
+
+async function signedIn(email: string, password: string): Promise<Page> {
+	const page = await (await browser.newContext({ baseURL: base })).newPage();
+	await page.goto('/signin');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await page.getByTestId('user-menu').waitFor();
+	return page;
+}
+
+/** The newest message to `to` whose subject matches, read from the demo mailbox by the admin. */
+async function mailTo(to: string, subject: RegExp): Promise<string> {
+	await admin.goto('/admin/mail');
+	const message = admin
+		.locator('[data-testid=mail-message]', { hasText: to })
+		.filter({ hasText: subject })
+		.first();
+	await message.waitFor({ timeout: 10_000 });
+	return (await message.textContent()) ?? '';
+}
+
+/** A demo [4Fe-4S] centre with an approved 2+/1+ potential at pH 7, and that potential. */
+async function demoCentre(): Promise<{ centre: string; emMvShe: number }> {
+	const res = await fetch(`${base}/api/v1/potentials?kind=fe4s4&phMin=7&phMax=7&limit=50`);
+	const body = (await res.json()) as {
+		items: { centre: { accession: string }; couple: string; emMvShe: number }[];
+	};
+	const p = body.items.find((i) => i.couple === '[4Fe-4S]2+/1+');
+	if (!p) throw new Error('no demo [4Fe-4S]2+/1+ potential at pH 7');
+	return { centre: p.centre.accession, emMvShe: p.emMvShe };
+}
+
+async function fillPotential(page: Page, values: Record<string, string>) {
+	for (const [name, value] of Object.entries(values)) {
+		const field = page.locator(`[name="${name}"]`);
+		if ((await field.evaluate((el) => el.tagName)) === 'SELECT') await field.selectOption(value);
+		else await field.fill(value);
+	}
+}
+
+beforeAll(async () => {
+	browser = await launchChromium();
+	admin = await signedIn('admin@demo.hopline.test', 'demo-admin-pass');
+	contributor = await signedIn('contributor@demo.hopline.test', 'demo-contributor-pass');
+	curator = await signedIn('curator@demo.hopline.test', 'demo-curator-pass');
+	visitor = await (await browser.newContext({ baseURL: base })).newPage();
+});
+afterAll(async () => browser?.close());
+
+describe('curation, end to end', () => {
+	let submissionUrl = '';
+	let accession = '';
+	let target: { centre: string; emMvShe: number };
+
+	it('shows the contributor a range warning with its source after submitting', async () => {
+		target = await demoCentre();
+		await contributor.goto('/submissions/new/potential');
+		// Empty required fields are named by the server too (the browser's own check set aside).
+		await contributor
+			.getByTestId('entry-form')
+			.evaluate((f) => ((f as HTMLFormElement).noValidate = true));
+		await contributor.getByRole('button', { name: 'Submit for review' }).click();
+		await contributor.getByTestId('form-alert').waitFor();
+		expect(await contributor.locator('[data-field-error=centreAccession]').textContent()).toContain(
+			'required'
+		);
+
+		await fillPotential(contributor, {
+			centreAccession: target.centre,
+			couple: '[4Fe-4S]2+/1+',
+			reportedValue: '+250',
+			reportedUnit: 'mV',
+			referenceElectrode: 'SHE',
+			ph: '7.5',
+			temperatureK: '25 °C',
+			method: 'epr_titration',
+			uncertaintyMv: '10',
+			changeNote: 'From our 2026 titration series'
+		});
+		await contributor.getByRole('button', { name: 'Submit for review' }).click();
+		await contributor.getByTestId('notice').waitFor();
+		submissionUrl = contributor.url().split('?')[0] ?? '';
+		expect(submissionUrl).toMatch(/\/submissions\/\d+$/);
+		const warning = contributor.locator('[data-warning=range]');
+		expect(await warning.textContent()).toContain('above the typical range');
+		expect(await warning.textContent()).toContain('Liu et al.');
+		accession =
+			(await contributor.getByTestId('proposed-version').getAttribute('data-accession')) ?? '';
+		expect(accession).toMatch(/^HL\d{6}$/);
+		await contributor.screenshot({ path: 'test-results/curation-submitted.png', fullPage: true });
+		// Not approved: invisible to a signed-out reader.
+		expect((await fetch(`${base}/e/${accession}`)).status).toBe(404);
+	});
+
+	it('mails the curator, who returns it with a comment from the review page', async () => {
+		const id = submissionUrl.split('/').pop();
+		const mail = await mailTo('curator@demo.hopline.test', new RegExp(`New submission #${id}`));
+		const link = new RegExp(`${base}/review/\\d+`).exec(mail)?.[0];
+		expect(link).toBe(`${base}/review/${id}`);
+		await curator.goto(link as string);
+		expect(await curator.locator('[data-warning=range]').count()).toBe(1);
+		// Returning without a comment is refused, by field.
+		await curator.getByLabel('Return for changes').check();
+		await curator.getByRole('button', { name: 'Record decision' }).click();
+		await curator.locator('[data-field-error=comment]').waitFor();
+		await curator.getByLabel('Return for changes').check();
+		await curator
+			.locator('textarea[name=comment]')
+			.fill('+250 mV is far outside the [4Fe-4S]2+/1+ range: check the sign.');
+		await curator.getByRole('button', { name: 'Record decision' }).click();
+		await curator.getByTestId('decision-done').waitFor();
+		await curator.screenshot({ path: 'test-results/curation-returned.png', fullPage: true });
+	});
+
+	it('lets the contributor fix and resubmit, and the curator approve', async () => {
+		const mail = await mailTo('contributor@demo.hopline.test', /returned for changes/);
+		expect(mail).toContain('check the sign');
+		await contributor.goto(submissionUrl);
+		expect(await contributor.getByTestId('comments').textContent()).toContain('check the sign');
+		await contributor.locator('[name=reportedValue]').fill(String(target.emMvShe - 5));
+		await contributor.getByRole('button', { name: 'Save and resubmit' }).click();
+		await contributor.getByTestId('notice').waitFor();
+		expect(await contributor.locator('[data-warning]').count()).toBe(0);
+
+		await curator.goto('/review');
+		await curator.locator(`[data-submission="${submissionUrl.split('/').pop()}"] a`).click();
+		await curator.getByLabel('Approve').check();
+		await curator.getByRole('button', { name: 'Record decision' }).click();
+		await curator.getByTestId('decision-done').waitFor();
+		expect(await curator.getByTestId('decision-done').textContent()).toContain(`${accession} v1`);
+	});
+
+	it('shows the approved value at its permalink and in search, to everyone', async () => {
+		await visitor.goto(`/e/${accession}/v1`);
+		expect(await visitor.getByTestId('entry-accession').textContent()).toBe(accession);
+		const api = (await (
+			await fetch(`${base}/api/v1/potentials?centre=${target.centre}&limit=100`)
+		).json()) as {
+			items: { accession: string }[];
+		};
+		expect(api.items.map((i) => i.accession)).toContain(accession);
+		await visitor.goto(`/search?centre=${target.centre}`);
+		await visitor.locator(`a[href="/e/${accession}"]`).first().waitFor();
+		const mail = await mailTo('contributor@demo.hopline.test', /approved/);
+		expect(mail).toContain(`/e/${accession}/v1`);
+	});
+
+	it('keeps an embargoed value from signed-out readers in page, search, API and export', async () => {
+		await contributor.goto('/submissions/new/potential');
+		await fillPotential(contributor, {
+			centreAccession: target.centre,
+			couple: '[4Fe-4S]2+/1+',
+			reportedValue: String(target.emMvShe),
+			reportedUnit: 'mV',
+			referenceElectrode: 'SHE',
+			ph: '8.5',
+			method: 'protein_film_voltammetry'
+		});
+		await contributor.getByLabel('A group now, everyone from a date').check();
+		await contributor
+			.locator('select[name=groupId]')
+			.selectOption({ label: 'Thermophile redox consortium (demo)' });
+		await contributor.locator('input[name=embargoUntil]').fill('2099-01-01');
+		await contributor.getByRole('button', { name: 'Submit for review' }).click();
+		await contributor.getByTestId('notice').waitFor();
+		const embargoed =
+			(await contributor.getByTestId('proposed-version').getAttribute('data-accession')) ?? '';
+		const id = contributor.url().split('?')[0]?.split('/').pop();
+		await curator.goto(`/review/${id}`);
+		await curator.getByLabel('Approve').check();
+		await curator.getByRole('button', { name: 'Record decision' }).click();
+		await curator.getByTestId('decision-done').waitFor();
+
+		// Signed out: not at the permalink, not in the API (list, entry, CSV), not in search.
+		expect((await fetch(`${base}/e/${embargoed}`)).status).toBe(404);
+		expect((await fetch(`${base}/api/v1/entries/${embargoed}`)).status).toBe(404);
+		const list = await (
+			await fetch(`${base}/api/v1/potentials?centre=${target.centre}&limit=100`)
+		).text();
+		expect(list).not.toContain(embargoed);
+		const csv = await (
+			await fetch(`${base}/api/v1/potentials?centre=${target.centre}&format=csv&limit=500`)
+		).text();
+		expect(csv).toContain(accession);
+		expect(csv).not.toContain(embargoed);
+		await visitor.goto(`/search?centre=${target.centre}`);
+		await visitor.locator(`a[href="/e/${accession}"]`).first().waitFor();
+		expect(await visitor.locator(`a[href="/e/${embargoed}"]`).count()).toBe(0);
+
+		// A member of the group sees it already.
+		await contributor.goto(`/e/${embargoed}`);
+		expect(await contributor.getByTestId('entry-accession').textContent()).toBe(embargoed);
+	});
+
+	it('lets curators read the audit log of the story', async () => {
+		await curator.goto(`/audit?accession=${accession}`);
+		const log = (await curator.getByTestId('audit-log').textContent()) ?? '';
+		expect(log).toContain('version.approve');
+		await curator.goto(`/audit?submission=${submissionUrl.split('/').pop()}`);
+		const actions = await curator.locator('[data-testid=audit-log] td.font-mono').allTextContents();
+		expect(actions.filter((a) => /^(submission|review)\./.test(a))).toEqual([
+			'review.approve',
+			'submission.resubmit',
+			'submission.edit',
+			'review.return',
+			'submission.submit',
+			'submission.create'
+		]);
+		await curator.screenshot({ path: 'test-results/curation-audit.png', fullPage: true });
+	});
+});
