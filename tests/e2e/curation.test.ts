@@ -224,4 +224,31 @@ describe('curation, end to end', () => {
 		]);
 		await curator.screenshot({ path: 'test-results/curation-audit.png', fullPage: true });
 	});
+
+	it('fills a source from its DOI, and says why when it cannot', async () => {
+		await contributor.goto('/submissions/new/source');
+		await contributor.locator('[name=doi]').fill('10.5555/not.registered');
+		await contributor.getByRole('button', { name: 'Fill from DOI' }).click();
+		await contributor.locator('[data-field-error=doi]').waitFor();
+		expect(await contributor.locator('[data-field-error=doi]').textContent()).toContain(
+			'no record for DOI 10.5555/not.registered'
+		);
+		await contributor.locator('[name=doi]').fill('https://doi.org/10.5555/hopline.demo.2026.031');
+		await contributor.getByRole('button', { name: 'Fill from DOI' }).click();
+		await contributor.getByTestId('doi-filled').waitFor();
+		expect(await contributor.locator('[name=title]').inputValue()).toContain('Rieske-type cluster');
+		expect(await contributor.locator('[name=authors]').inputValue()).toBe(
+			'Moreau, Céline\nAchterberg, Jonas\nOkafor, Adaeze'
+		);
+		expect(await contributor.locator('[name=year]').inputValue()).toBe('2026');
+		await contributor.getByRole('button', { name: 'Save draft' }).click();
+		await contributor.getByTestId('notice').waitFor();
+		expect(await contributor.getByTestId('version-table').textContent()).toContain(
+			'10.5555/hopline.demo.2026.031'
+		);
+		await contributor.screenshot({
+			path: 'test-results/curation-source-draft.png',
+			fullPage: true
+		});
+	});
 });

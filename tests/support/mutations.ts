@@ -119,14 +119,14 @@ export const MUTATIONS: Mutation[] = [
 		body: { groupId: '999999', userId: 'no-such-user' }
 	},
 	// Curation: harmless bodies (empty forms, unknown submissions) that pass the guard and fail after it.
-	...(['save', 'submit'] as const).map((name) => ({
+	...(['save', 'submit', 'lookup'] as const).map((name) => ({
 		file: '(app)/submissions/new/[kind=kind]/+page.server.ts',
 		name,
 		url: `/submissions/new/potential?/${name}`,
 		least: 'contributor' as const,
 		body: {}
 	})),
-	...(['save', 'submit', 'withdraw', 'comment'] as const).map((name) => ({
+	...(['save', 'submit', 'lookup', 'withdraw', 'comment'] as const).map((name) => ({
 		file: '(app)/submissions/[id=id]/+page.server.ts',
 		name,
 		url: `/submissions/999999?/${name}`,

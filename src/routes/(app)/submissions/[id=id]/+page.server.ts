@@ -9,6 +9,7 @@ import { deliver } from '$lib/server/curation/outbox';
 import { loadSubmissionView } from '$lib/server/curation/queue';
 import { addComment } from '$lib/server/curation/reviews';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
+import { fillFromDoi } from '$lib/server/sources/lookupAction';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -65,6 +66,10 @@ async function save(event: RequestEvent, andSubmit: boolean) {
 export const actions: Actions = {
 	save: (event) => save(event, false),
 	submit: (event) => save(event, true),
+	lookup: async (event) => {
+		requireRole(event, 'contributor');
+		return fillFromDoi(await event.request.formData());
+	},
 	withdraw: async (event) => {
 		const user = requireRole(event, 'contributor');
 		const id = Number(event.params.id);

@@ -6,6 +6,7 @@ import { curationFailure, readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesForEditing } from '$lib/server/curation/formDefaults';
 import { deliver } from '$lib/server/curation/outbox';
 import { createDraft, submitForReview } from '$lib/server/curation/submissions';
+import { fillFromDoi } from '$lib/server/sources/lookupAction';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -52,5 +53,9 @@ async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean)
 
 export const actions: Actions = {
 	save: (event) => create(event, false),
-	submit: (event) => create(event, true)
+	submit: (event) => create(event, true),
+	lookup: async (event) => {
+		requireRole(event, 'contributor');
+		return fillFromDoi(await event.request.formData());
+	}
 };
