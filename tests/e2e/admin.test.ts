@@ -19,17 +19,17 @@ afterAll(async () => browser?.close());
 describe('administration in Chromium', () => {
 	it('creates a group, adds a member, and the member list shows it', async () => {
 		await page.goto('/admin/groups');
-		await page.getByLabel('Name', { exact: true }).fill('Demo thermophile consortium');
-		await page.getByLabel('Short name (slug)').fill('demo-consortium');
+		await page.getByLabel('Name', { exact: true }).fill('Demo photosynthesis lab');
+		await page.getByLabel('Short name (slug)').fill('demo-photosynthesis-lab');
 		await page.getByRole('button', { name: 'Create group' }).click();
-		const group = page.locator('[data-group=demo-consortium]');
+		const group = page.locator('[data-group=demo-photosynthesis-lab]');
 		await group.waitFor();
 		await group.getByLabel('Add by e-mail').fill('reader@demo.hopline.test');
 		await group.getByRole('button', { name: 'Add' }).click();
 		await group.getByText('reader@demo.hopline.test').waitFor();
 		await page.goto('/admin/users');
 		expect(await page.locator('[data-user="reader@demo.hopline.test"]').textContent()).toContain(
-			'Demo thermophile consortium'
+			'Demo photosynthesis lab'
 		);
 	});
 	it('refuses a bad slug with a message beside the field', async () => {

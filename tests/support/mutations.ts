@@ -47,6 +47,20 @@ export const MUTATIONS: Mutation[] = [
 		least: null,
 		body: { password: 'short', confirm: 'x' }
 	},
+	{
+		file: 'signin/link/+page.server.ts',
+		name: 'default',
+		url: '/signin/link',
+		least: null,
+		body: { email: 'not-an-address' }
+	},
+	{
+		file: 'signin/oidc/+page.server.ts',
+		name: 'default',
+		url: '/signin/oidc',
+		least: null,
+		body: { redirectTo: '/' }
+	},
 	{ file: 'signout/+page.server.ts', name: 'default', url: '/signout', least: null, body: {} },
 	{
 		file: 'calc/titration/+page.server.ts',

@@ -31,3 +31,14 @@ export const resetForm = z
 		path: ['confirm'],
 		message: 'the two passwords differ'
 	});
+
+/** Where to go after signing in: only paths on this site, so a link cannot send people elsewhere. */
+export const redirectTarget = z
+	.string()
+	.regex(/^\/(?!\/)/)
+	.catch('/');
+
+export const signInLinkForm = z.object({
+	email: z.string().trim().toLowerCase().email('enter the e-mail address of your account'),
+	redirectTo: redirectTarget
+});

@@ -35,13 +35,34 @@ const configSchema = z.object({
 	 */
 	DOI_SERVICE_URL: z.string().url().optional(),
 	DOI_TIMEOUT_MS: z.coerce.number().int().min(100).max(60_000).default(5000),
-	FAKE_DOI_PORT: z.coerce.number().int().min(0).max(65535).default(0)
+	FAKE_DOI_PORT: z.coerce.number().int().min(0).max(65535).default(0),
+	/**
+	 * OpenID Connect sign-in (an institution's or a researcher-identifier service's): the issuer,
+	 * with the client registered there for {ORIGIN}/auth/callback/oidc. In demo mode a loopback
+	 * fake is used when OIDC_ISSUER is unset.
+	 */
+	OIDC_ISSUER: z.string().url().optional(),
+	OIDC_CLIENT_ID: z.string().min(1).optional(),
+	OIDC_CLIENT_SECRET: z.string().min(1).optional(),
+	/** The button text: "Sign in with …". */
+	OIDC_NAME: z.string().min(1).max(60).default('your institution'),
+	/** Link a first OIDC sign-in to an existing account with the same e-mail (only for an issuer that verifies addresses). */
+	OIDC_TRUST_EMAIL: z
+		.enum(['true', 'false', '1', '0', ''])
+		.default('false')
+		.transform((v) => v === 'true' || v === '1'),
+	FAKE_OIDC_PORT: z.coerce.number().int().min(0).max(65535).default(0)
 });
 
 export type Config = z.infer<typeof configSchema>;
 
 export function parseConfig(env: Record<string, string | undefined>): Config {
-	const parsed = configSchema.safeParse(env);
+	const parsed = configSchema
+		.refine((c) => !c.OIDC_ISSUER || (c.OIDC_CLIENT_ID && c.OIDC_CLIENT_SECRET), {
+			path: ['OIDC_CLIENT_ID'],
+			message: 'OIDC_ISSUER needs OIDC_CLIENT_ID and OIDC_CLIENT_SECRET'
+		})
+		.safeParse(env);
 	if (!parsed.success) {
 		const problems = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
 		throw new Error(`Invalid configuration:\n  ${problems.join('\n  ')}`);

@@ -1,6 +1,8 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { signIn } from '$lib/server/auth/authjs';
+import { redirectTarget } from '$lib/schemas/account';
+import { oidcSettings } from '$lib/server/auth/oidc';
+import { signInWith } from '$lib/server/auth/signInWith';
 import { verifyPassword } from '$lib/server/auth/password';
 import { accountAttempts, addressAttempts } from '$lib/server/auth/rateLimit';
 import { findUserForSignIn } from '$lib/server/auth/users';
@@ -10,18 +12,16 @@ import type { Actions, PageServerLoad } from './$types';
 const form = z.object({
 	email: z.string().trim().toLowerCase().email('enter the e-mail address of your account'),
 	password: z.string().min(1, 'enter your password').max(1000),
-	// Only paths on this site, so a sign-in link cannot send people elsewhere.
-	redirectTo: z
-		.string()
-		.regex(/^\/(?!\/)/)
-		.catch('/')
+	redirectTo: redirectTarget
 });
 
-export const load: PageServerLoad = ({ locals, url }) => {
+export const load: PageServerLoad = async ({ locals, url }) => {
 	if (locals.user) redirect(303, '/account');
+	const oidc = await oidcSettings();
 	return {
 		redirectTo: url.searchParams.get('redirectTo') ?? '/',
-		failed: url.searchParams.has('error')
+		failed: url.searchParams.get('error'),
+		oidcName: oidc?.name ?? null
 	};
 };
 
@@ -66,20 +66,10 @@ export const actions: Actions = {
 			});
 		}
 		accountAttempts.reset(parsed.data.email);
-		// Auth.js reads the credentials from the request body, which was read above: hand it a copy.
-		const body = new URLSearchParams({
-			providerId: 'password',
+		await signInWith(event, 'password', {
 			email: parsed.data.email,
 			password: parsed.data.password,
 			redirectTo: parsed.data.redirectTo
 		});
-		const headers = new Headers(event.request.headers);
-		headers.set('content-type', 'application/x-www-form-urlencoded');
-		headers.delete('content-length');
-		// Auth.js builds its URLs from the forwarded host; the server's own origin keeps them here.
-		headers.set('x-forwarded-host', event.url.host);
-		headers.set('x-forwarded-proto', event.url.protocol.replace(':', ''));
-		const request = new Request(event.request.url, { method: 'POST', headers, body });
-		await signIn({ ...event, request });
 	}
 };
