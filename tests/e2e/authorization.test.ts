@@ -3,32 +3,15 @@ import { ROLES } from '$lib/server/auth/roles';
 import type { Role } from '$lib/server/db/schema';
 import accounts from '../../seed/demoAccounts.json';
 import { MUTATIONS, type Mutation } from '../support/mutations';
+import { signInCookie } from '../support/session';
 
 // Every mutating route × (signed out, reader, contributor, curator, admin), from one table.
 const base = inject('baseUrl');
 const cookies = new Map<Role, string>();
 
-async function signInCookie(email: string, password: string): Promise<string> {
-	const res = await fetch(`${base}/signin`, {
-		method: 'POST',
-		headers: {
-			origin: base,
-			'content-type': 'application/x-www-form-urlencoded',
-			'x-sveltekit-action': 'true'
-		},
-		body: new URLSearchParams({ email, password, redirectTo: '/' }),
-		redirect: 'manual'
-	});
-	const session = res.headers.getSetCookie().find((c) => c.startsWith('authjs.session-token='));
-	if (!session)
-		throw new Error(
-			`sign-in as ${email} gave no session (status ${res.status}): ${await res.text()}`
-		);
-	return session.split(';')[0]!;
-}
-
 beforeAll(async () => {
-	for (const a of accounts) cookies.set(a.role as Role, await signInCookie(a.email, a.password));
+	for (const a of accounts)
+		cookies.set(a.role as Role, await signInCookie(base, a.email, a.password));
 });
 
 type Outcome = 'allowed' | 'sign-in required' | 'forbidden';

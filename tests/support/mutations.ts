@@ -91,6 +91,13 @@ export const MUTATIONS: Mutation[] = [
 		body: { json: { imagFreqCm1: 900 } }
 	},
 	{
+		file: 'api/v1/submissions/+server.ts',
+		name: 'POST',
+		url: '/api/v1/submissions',
+		least: 'contributor',
+		body: { json: {} }
+	},
+	{
 		file: 'api/v1/[...rest]/+server.ts',
 		name: 'fallback',
 		url: '/api/v1/nothing-here',

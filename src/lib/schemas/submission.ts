@@ -170,3 +170,27 @@ export const auditQuerySchema = z.strictObject({
 	submission: z.coerce.number().int().positive().optional(),
 	before: z.coerce.number().int().positive().optional()
 });
+
+/**
+ * A submission through the API: the entry's data in its kind's input schema (checked by
+ * parseEntryInput, field paths prefixed with "data."), the visibility asked for, and whether to
+ * send it for review at once or keep it as a draft.
+ */
+export const apiSubmissionSchema = z.strictObject({
+	kind: entryKindParam,
+	data: z.record(z.string(), z.unknown()),
+	edit: z
+		.string()
+		.regex(/^HL\d{6}$/, 'the accession of the entry to change, e.g. HL000123')
+		.nullable()
+		.default(null),
+	visibility: z
+		.object({
+			visibility: z.enum(VISIBILITIES),
+			groupId: z.number().int().positive().nullable().optional(),
+			embargoUntil: z.string().nullable().optional()
+		})
+		.default({ visibility: 'public' }),
+	changeNote: z.string().trim().max(2000).nullable().default(null),
+	submit: z.boolean().default(false)
+});

@@ -1,5 +1,12 @@
 import type { RequestEvent } from '@sveltejs/kit';
 import { EntryNotFoundError, InvalidEntryDataError } from '../catalogue/errors';
+import { ForbiddenError, UnauthenticatedError } from '../auth/roles';
+import {
+	SubmissionAccessError,
+	SubmissionInvalidError,
+	SubmissionNotFoundError,
+	SubmissionStateError
+} from '../curation/errors';
 import { apiError } from './respond';
 
 /**
@@ -16,6 +23,14 @@ export function apiHandler<E extends RequestEvent>(handler: (event: E) => Promis
 			if (err instanceof InvalidEntryDataError) {
 				return apiError('bad_request', err.message, { [err.field]: [err.message] });
 			}
+			if (err instanceof UnauthenticatedError) return apiError('unauthorized', err.message);
+			if (err instanceof ForbiddenError) return apiError('forbidden', err.message);
+			if (err instanceof SubmissionInvalidError) {
+				return apiError('bad_request', err.message, err.fields);
+			}
+			if (err instanceof SubmissionStateError) return apiError('conflict', err.message);
+			if (err instanceof SubmissionAccessError) return apiError('forbidden', err.message);
+			if (err instanceof SubmissionNotFoundError) return apiError('not_found', err.message);
 			const errorId = crypto.randomUUID();
 			console.error(`[api ${errorId}] ${event.request.method} ${event.url.pathname}`, err);
 			return Response.json(

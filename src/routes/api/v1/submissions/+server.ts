@@ -1,0 +1,65 @@
+import { json } from '@sveltejs/kit';
+import {
+	apiSubmissionSchema,
+	parseEntryInput,
+	visibilityRequestSchema
+} from '$lib/schemas/submission';
+import { assertRole } from '$lib/server/auth/roles';
+import { parseJsonBody } from '$lib/server/api/body';
+import { apiHandler } from '$lib/server/api/handler';
+import { apiError } from '$lib/server/api/respond';
+import { db } from '$lib/server/db';
+import { deliver } from '$lib/server/curation/outbox';
+import { loadSubmissionView } from '$lib/server/curation/queue';
+import { createDraft, submitForReview } from '$lib/server/curation/submissions';
+import type { RequestHandler } from './$types';
+
+/**
+ * POST /api/v1/submissions — a contributor deposits one entry (new, or with `edit` a new version
+ * of an existing one) as a draft or straight into review. The same zod schemas as the forms.
+ */
+export const POST: RequestHandler = apiHandler(async (event) => {
+	assertRole(event.locals.user, 'contributor');
+	const user = event.locals.user;
+	const body = await parseJsonBody(event.request, apiSubmissionSchema);
+	if (!body.ok) return body.response;
+	const { kind, data, edit, changeNote, submit } = body.data;
+	const entry = parseEntryInput(kind, data);
+	const visibility = visibilityRequestSchema.safeParse(body.data.visibility);
+	const fields: Record<string, string[]> = {};
+	if (!entry.ok) for (const [k, v] of Object.entries(entry.fields)) fields[`data.${k}`] = v;
+	if (!visibility.success) {
+		for (const i of visibility.error.issues)
+			(fields[`visibility.${i.path.join('.')}`] ??= []).push(i.message);
+	}
+	if (!entry.ok || !visibility.success) {
+		return apiError('bad_request', `Invalid field(s): ${Object.keys(fields).join(', ')}`, fields);
+	}
+	const result = await db.transaction().execute(async (trx) => {
+		const draft = await createDraft(trx, user, {
+			entry: entry.entry,
+			visibility: visibility.data,
+			changeNote,
+			editAccession: edit
+		});
+		const sent = submit
+			? await submitForReview(trx, user, draft.submissionId, event.url.origin)
+			: null;
+		return { ...draft, mails: sent?.mails ?? [] };
+	});
+	await deliver(result.mails);
+	const view = await loadSubmissionView(db, user, result.submissionId);
+	return json(
+		{
+			id: result.submissionId,
+			accession: result.accession,
+			status: view.submission.status,
+			warnings: view.versions.flatMap((v) => v.warnings),
+			links: {
+				self: `/api/v1/submissions/${result.submissionId}`,
+				page: `/submissions/${result.submissionId}`
+			}
+		},
+		{ status: 201, headers: { location: `/api/v1/submissions/${result.submissionId}` } }
+	);
+});
