@@ -116,10 +116,10 @@ describe('curation, end to end', () => {
 		await curator.goto(link as string);
 		expect(await curator.locator('[data-warning=range]').count()).toBe(1);
 		// Returning without a comment is refused, by field.
-		await curator.getByLabel('Return for changes').check();
+		await curator.getByLabel('Return for changes', { exact: true }).check();
 		await curator.getByRole('button', { name: 'Record decision' }).click();
 		await curator.locator('[data-field-error=comment]').waitFor();
-		await curator.getByLabel('Return for changes').check();
+		await curator.getByLabel('Return for changes', { exact: true }).check();
 		await curator
 			.locator('textarea[name=comment]')
 			.fill('+250 mV is far outside the [4Fe-4S]2+/1+ range: check the sign.');
@@ -140,7 +140,8 @@ describe('curation, end to end', () => {
 
 		await curator.goto('/review');
 		await curator.locator(`[data-submission="${submissionUrl.split('/').pop()}"] a`).click();
-		await curator.getByLabel('Approve').check();
+		await curator.waitForURL(/\/review\/\d+$/);
+		await curator.getByLabel('Approve', { exact: true }).check();
 		await curator.getByRole('button', { name: 'Record decision' }).click();
 		await curator.getByTestId('decision-done').waitFor();
 		expect(await curator.getByTestId('decision-done').textContent()).toContain(`${accession} v1`);
@@ -183,7 +184,7 @@ describe('curation, end to end', () => {
 			(await contributor.getByTestId('proposed-version').getAttribute('data-accession')) ?? '';
 		const id = contributor.url().split('?')[0]?.split('/').pop();
 		await curator.goto(`/review/${id}`);
-		await curator.getByLabel('Approve').check();
+		await curator.getByLabel('Approve', { exact: true }).check();
 		await curator.getByRole('button', { name: 'Record decision' }).click();
 		await curator.getByTestId('decision-done').waitFor();
 
