@@ -1,6 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import { signUpForm } from '$lib/schemas/account';
-import { mailRequests } from '$lib/server/auth/rateLimit';
+import { refuseTooManyMailRequests } from '$lib/server/auth/rateLimit';
 import { AccountExistsError, registerAccount } from '$lib/server/auth/selfService';
 import { db } from '$lib/server/db';
 import { parseForm } from '$lib/server/forms';
@@ -12,13 +12,8 @@ export const actions: Actions = {
 		if (!form.ok) return form.failure;
 		const { password: _password, confirm: _confirm, ...values } = form.values;
 		const address = event.getClientAddress();
-		if (mailRequests.retryAfterMs(address) > 0) {
-			return fail(429, {
-				values,
-				errors: { form: ['Too many requests from your address; try again later.'] }
-			});
-		}
-		mailRequests.recordFailure(address);
+		const refusal = refuseTooManyMailRequests(address, values);
+		if (refusal) return refusal;
 		try {
 			await registerAccount(db, form.data, event.url.origin);
 		} catch (e) {

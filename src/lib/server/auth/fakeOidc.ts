@@ -1,6 +1,7 @@
 import { generateKeyPairSync, randomBytes } from 'node:crypto';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { closeHttpServer } from '../loopback';
 import Provider, { type KoaContextWithOIDC } from 'oidc-provider';
 
 /**
@@ -80,8 +81,7 @@ export class FakeOidcProvider {
 	async close(): Promise<void> {
 		const server = this.server;
 		if (!server) return;
-		server.closeAllConnections();
-		await new Promise<void>((resolve) => server.close(() => resolve()));
 		this.server = null;
+		await closeHttpServer(server);
 	}
 }

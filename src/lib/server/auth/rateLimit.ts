@@ -1,3 +1,4 @@
+import { fail } from '@sveltejs/kit';
 /**
  * Failed sign-in attempts counted per key (an account's e-mail, a client address) over a sliding
  * window. In memory, per server process: a restart forgives everyone, which is acceptable for a
@@ -42,3 +43,18 @@ export const addressAttempts = new AttemptLimiter(30, 15 * 60_000);
 
 /** Requests that send mail (sign-up, reset), counted per client address: ten per fifteen minutes. */
 export const mailRequests = new AttemptLimiter(10, 15 * 60_000);
+
+/**
+ * Counts a mail-sending request from a client address; the 429 answer for a form action when
+ * the address has sent too many, else null.
+ */
+export function refuseTooManyMailRequests(address: string, values: Record<string, string>) {
+	if (mailRequests.retryAfterMs(address) > 0) {
+		return fail(429, {
+			values,
+			errors: { form: ['Too many requests from your address; try again later.'] }
+		});
+	}
+	mailRequests.recordFailure(address);
+	return null;
+}

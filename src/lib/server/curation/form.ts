@@ -1,8 +1,13 @@
-import { error, fail } from '@sveltejs/kit';
+import { error, fail, type RequestEvent } from '@sveltejs/kit';
+import type { SessionUser } from '../auth/roles';
+import { db } from '../db';
+import { deliver } from './outbox';
+import { addComment } from './reviews';
 import { readEntryForm } from '$lib/catalogue/entryForm';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import {
+	commentBody,
 	parseEntryInput,
 	submissionMetaSchema,
 	visibilityRequestSchema,
@@ -77,4 +82,25 @@ export function curationFailure(e: unknown, values: Record<string, string> = {})
 	if (e instanceof SubmissionAccessError) error(403, { message: e.message });
 	if (e instanceof SubmissionNotFoundError) error(404, { message: e.message });
 	throw e;
+}
+
+/** The comment form of a submission page (contributor's or curator's): validate, post, mail. */
+export async function postComment(event: RequestEvent, user: SessionUser, submissionId: number) {
+	const body = commentBody.safeParse((await event.request.formData()).get('body') ?? '');
+	if (!body.success) {
+		return fail(400, { commentErrors: { body: body.error.issues.map((i) => i.message) } });
+	}
+	let mails;
+	try {
+		mails = await db
+			.transaction()
+			.execute(
+				async (trx) =>
+					(await addComment(trx, user, submissionId, body.data, event.url.origin)).mails
+			);
+	} catch (e) {
+		return curationFailure(e);
+	}
+	await deliver(mails);
+	return { commented: true };
 }

@@ -75,9 +75,9 @@ async function summarise(
 	return out;
 }
 
-/** The review queue, oldest submission first, so nothing waits longest by accident. */
-export async function listQueue(db: Kysely<Database>, filter: QueueFilter): Promise<QueueRow[]> {
-	let q = db
+/** Submissions with their contributor's address: what both lists start from. */
+function submissionRows(db: Kysely<Database>) {
+	return db
 		.selectFrom('submission')
 		.leftJoin('User', 'User.id', 'submission.submitted_by')
 		.select([
@@ -88,7 +88,12 @@ export async function listQueue(db: Kysely<Database>, filter: QueueFilter): Prom
 			'submission.submitted_at',
 			'submission.updated_at',
 			'User.email as contributor'
-		])
+		]);
+}
+
+/** The review queue, oldest submission first, so nothing waits longest by accident. */
+export async function listQueue(db: Kysely<Database>, filter: QueueFilter): Promise<QueueRow[]> {
+	let q = submissionRows(db)
 		.where('submission.status', '=', filter.status)
 		.where('submission.channel', '!=', 'seed')
 		.orderBy('submission.submitted_at', 'asc')
@@ -116,18 +121,7 @@ export async function listQueue(db: Kysely<Database>, filter: QueueFilter): Prom
 }
 
 export async function listOwnSubmissions(db: Kysely<Database>, userId: string) {
-	const rows = await db
-		.selectFrom('submission')
-		.leftJoin('User', 'User.id', 'submission.submitted_by')
-		.select([
-			'submission.id',
-			'submission.title',
-			'submission.status',
-			'submission.channel',
-			'submission.submitted_at',
-			'submission.updated_at',
-			'User.email as contributor'
-		])
+	const rows = await submissionRows(db)
 		.where('submission.submitted_by', '=', userId)
 		.orderBy('submission.updated_at', 'desc')
 		.limit(500)

@@ -1,5 +1,6 @@
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { closeHttpServer } from '../loopback';
 import { cslFromMetadata, type DoiMetadata } from './cslJson';
 
 /**
@@ -44,8 +45,7 @@ export class FakeDoiService {
 	async close(): Promise<void> {
 		const server = this.server;
 		if (!server) return;
-		server.closeAllConnections();
-		await new Promise<void>((resolve) => server.close(() => resolve()));
 		this.server = null;
+		await closeHttpServer(server);
 	}
 }

@@ -1,6 +1,5 @@
-import { fail } from '@sveltejs/kit';
 import { signInLinkForm } from '$lib/schemas/account';
-import { mailRequests } from '$lib/server/auth/rateLimit';
+import { refuseTooManyMailRequests } from '$lib/server/auth/rateLimit';
 import { signInWith } from '$lib/server/auth/signInWith';
 import { findUserForSignIn } from '$lib/server/auth/users';
 import { db } from '$lib/server/db';
@@ -18,13 +17,8 @@ export const actions: Actions = {
 		const form = await parseForm(event.request, signInLinkForm);
 		if (!form.ok) return form.failure;
 		const address = event.getClientAddress();
-		if (mailRequests.retryAfterMs(address) > 0) {
-			return fail(429, {
-				values: form.values,
-				errors: { form: ['Too many requests from your address; try again later.'] }
-			});
-		}
-		mailRequests.recordFailure(address);
+		const refusal = refuseTooManyMailRequests(address, form.values);
+		if (refusal) return refusal;
 		const user = await findUserForSignIn(db, form.data.email);
 		// The same answer whether or not the account exists, so the form cannot probe for accounts.
 		if (!user || user.disabledAt !== null) return { sent: true };

@@ -1,13 +1,11 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { commentBody } from '$lib/schemas/submission';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { SubmissionNotFoundError } from '$lib/server/curation/errors';
-import { curationFailure, readSubmissionForm } from '$lib/server/curation/form';
+import { curationFailure, postComment, readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefaults';
 import { deliver } from '$lib/server/curation/outbox';
 import { loadSubmissionView } from '$lib/server/curation/queue';
-import { addComment } from '$lib/server/curation/reviews';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
 import { fillFromDoi } from '$lib/server/sources/lookupAction';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
@@ -82,22 +80,6 @@ export const actions: Actions = {
 	},
 	comment: async (event) => {
 		const user = requireRole(event, 'contributor');
-		const id = Number(event.params.id);
-		const body = commentBody.safeParse((await event.request.formData()).get('body') ?? '');
-		if (!body.success) {
-			return fail(400, { commentErrors: { body: body.error.issues.map((i) => i.message) } });
-		}
-		let mails;
-		try {
-			mails = await db
-				.transaction()
-				.execute(
-					async (trx) => (await addComment(trx, user, id, body.data, event.url.origin)).mails
-				);
-		} catch (e) {
-			return curationFailure(e);
-		}
-		await deliver(mails);
-		return { commented: true };
+		return postComment(event, user, Number(event.params.id));
 	}
 };

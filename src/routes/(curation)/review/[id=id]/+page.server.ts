@@ -1,13 +1,13 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schemas/calc';
-import { commentBody, reviewDecisionSchema } from '$lib/schemas/submission';
+import { reviewDecisionSchema } from '$lib/schemas/submission';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { SubmissionNotFoundError } from '$lib/server/curation/errors';
-import { curationFailure } from '$lib/server/curation/form';
+import { curationFailure, postComment } from '$lib/server/curation/form';
 import { deliver } from '$lib/server/curation/outbox';
 import { loadSubmissionView } from '$lib/server/curation/queue';
-import { addComment, decideSubmission } from '$lib/server/curation/reviews';
+import { decideSubmission } from '$lib/server/curation/reviews';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -46,22 +46,6 @@ export const actions: Actions = {
 	},
 	comment: async (event) => {
 		const user = requireRole(event, 'curator');
-		const id = Number(event.params.id);
-		const body = commentBody.safeParse((await event.request.formData()).get('body') ?? '');
-		if (!body.success) {
-			return fail(400, { commentErrors: { body: body.error.issues.map((i) => i.message) } });
-		}
-		let mails;
-		try {
-			mails = await db
-				.transaction()
-				.execute(
-					async (trx) => (await addComment(trx, user, id, body.data, event.url.origin)).mails
-				);
-		} catch (e) {
-			return curationFailure(e);
-		}
-		await deliver(mails);
-		return { commented: true };
+		return postComment(event, user, Number(event.params.id));
 	}
 };
