@@ -158,7 +158,7 @@ export interface FormReading {
 }
 
 /** The trade writes minus signs and decimal points several ways; read them all. */
-function readNumber(text: string): number | null {
+export function readNumber(text: string): number | null {
 	const normalised = text
 		.trim()
 		.replace(/[\u2212\u2012\u2013]/g, '-')
@@ -167,7 +167,7 @@ function readNumber(text: string): number | null {
 	return Number(normalised);
 }
 
-function readTemperature(text: string): number | null {
+export function readTemperature(text: string): number | null {
 	const match = /^(.*?)\s*(°\s*C|℃|C|K)?$/i.exec(text.trim());
 	const value = readNumber(match?.[1] ?? '');
 	if (value === null) return null;

@@ -18,7 +18,9 @@ export type InputResult = { ok: true; entry: EntryData } | { ok: false; fields: 
 
 /** Missing fields read "required" rather than zod's type message. */
 const requiredMessage = (issue: { code: string; input?: unknown }) =>
-	issue.code === 'invalid_type' && issue.input === undefined ? 'required' : undefined;
+	(issue.code === 'invalid_type' || issue.code === 'invalid_value') && issue.input === undefined
+		? 'required'
+		: undefined;
 
 /** Validates a contributor's input for a kind and turns it into the data a version stores. */
 export function parseEntryInput(kind: EntryKind, input: unknown): InputResult {

@@ -152,3 +152,125 @@ export async function addComment(
 		mails: isOwner ? [] : await commentMail(trx, submission, user.name ?? user.email, body, origin)
 	};
 }
+
+/**
+ * A curator's decision on a CSV batch row by row: every row is approved except those listed to
+ * return (by file row number), which go back to the contributor with the comment. The batch is
+ * approved, partially approved, or returned when no row was approved.
+ */
+export async function decideBatch(
+	trx: Kysely<Database>,
+	curator: SessionUser,
+	submissionId: number,
+	decision: { returnRows: number[]; comment: string },
+	origin: string
+): Promise<DecisionOutcome & { returned: number }> {
+	assertRole(curator, 'curator');
+	const submission = await loadSubmission(trx, submissionId);
+	if (submission.status !== 'submitted') {
+		throw new SubmissionStateError(
+			`submission ${submissionId} is ${submission.status}; only submitted ones await a decision`
+		);
+	}
+	if (submission.submitted_by === curator.id) {
+		throw new SubmissionAccessError('another curator must review your own submission');
+	}
+	const versions = await trx
+		.selectFrom('entry_version')
+		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+		.select(['entry_version.id', 'entry_version.row_number', 'entry.accession'])
+		.where('entry_version.submission_id', '=', submissionId)
+		.orderBy('entry_version.id')
+		.execute();
+	const toReturn = new Set(decision.returnRows);
+	const unknown = decision.returnRows.filter((r) => !versions.some((v) => v.row_number === r));
+	if (unknown.length > 0) {
+		throw new SubmissionInvalidError({
+			returnRows: [`no rows ${unknown.join(', ')} in this batch`]
+		});
+	}
+	if (toReturn.size > 0 && decision.comment.trim().length < 3) {
+		throw new SubmissionInvalidError({ comment: ['say what needs changing in the returned rows'] });
+	}
+	const now = new Date().toISOString();
+	const approved: DecisionOutcome['approved'] = [];
+	for (const v of versions) {
+		if (v.row_number !== null && toReturn.has(v.row_number)) continue;
+		try {
+			const { version } = await approveVersion(trx, v.id, {
+				approvedBy: curator.id,
+				approvedAt: now
+			});
+			approved.push({ accession: v.accession, version });
+		} catch (e) {
+			if (e instanceof InvalidEntryDataError) {
+				throw new SubmissionInvalidError({
+					[e.field]: [`row ${v.row_number ?? '?'} (${v.accession}): ${e.detail}`]
+				});
+			}
+			throw e;
+		}
+	}
+	const returnedIds = versions
+		.filter((v) => v.row_number !== null && toReturn.has(v.row_number))
+		.map((v) => v.id);
+	if (returnedIds.length > 0) {
+		await trx
+			.updateTable('entry_version')
+			.set({ status: 'returned' })
+			.where('id', 'in', returnedIds)
+			.execute();
+		await trx
+			.insertInto('submission_comment')
+			.values(
+				returnedIds.map((id) => ({
+					submission_id: submissionId,
+					entry_version_id: id,
+					author_id: curator.id,
+					body: decision.comment
+				}))
+			)
+			.execute();
+	}
+	const status =
+		returnedIds.length === 0
+			? 'approved'
+			: approved.length === 0
+				? 'returned'
+				: 'partially_approved';
+	await trx
+		.updateTable('submission')
+		.set({ status, updated_at: now })
+		.where('id', '=', submissionId)
+		.execute();
+	await trx
+		.insertInto('review')
+		.values({
+			submission_id: submissionId,
+			reviewer_id: curator.id,
+			decision: returnedIds.length === 0 ? 'approve' : 'return',
+			comment: decision.comment || null
+		})
+		.execute();
+	await writeAudit(trx, {
+		actorId: curator.id,
+		action: `review.batch`,
+		submissionId,
+		before: { status: submission.status },
+		after: { status, approved: approved.length, returnedRows: [...toReturn].sort((a, b) => a - b) },
+		detail: decision.comment || null
+	});
+	const comment =
+		returnedIds.length > 0
+			? `${approved.length} row(s) approved; rows ${[...toReturn].sort((a, b) => a - b).join(', ')} returned: ${decision.comment}`
+			: decision.comment;
+	const mails = await outcomeMail(
+		trx,
+		submission,
+		returnedIds.length === 0 ? 'approve' : 'return',
+		comment,
+		origin,
+		approved.slice(0, 20)
+	);
+	return { approved, returned: returnedIds.length, mails };
+}

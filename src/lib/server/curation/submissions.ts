@@ -30,7 +30,7 @@ export interface DraftInput {
 /** States in which the contributor may still change the data. */
 const EDITABLE: readonly SubmissionStatus[] = ['draft', 'returned'];
 
-async function assertGroupAllowed(
+export async function assertGroupAllowed(
 	trx: Kysely<Database>,
 	user: SessionUser,
 	visibility: VisibilityChange

@@ -142,6 +142,9 @@ export interface EntryVersionTable {
 	visibility: Visibility | null;
 	group_id: number | null;
 	embargo_until: string | null;
+	/** For a CSV batch: the file row, and the warnings (JSON list of text) found on checking. */
+	row_number: number | null;
+	warnings: string | null;
 }
 
 export interface SubmissionTable {

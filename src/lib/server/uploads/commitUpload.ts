@@ -1,0 +1,169 @@
+import { sql, type Kysely } from 'kysely';
+import { formatAccession } from '$lib/schemas/accession';
+import { UPLOAD_KIND_LABELS } from '$lib/catalogue/uploadColumns';
+import type { SessionUser } from '../auth/roles';
+import { writeAudit } from '../audit/log';
+import type { Database } from '../db/schema';
+import type { VisibilityChange } from '../catalogue/entries';
+import { assertGroupAllowed } from '../curation/submissions';
+import { noticesForNewSubmission } from '../curation/notices';
+import type { OutgoingMail } from '../curation/outbox';
+import type { UploadCheck } from './checkUpload';
+
+/**
+ * Commits a checked CSV file as one submission awaiting review: every new protein and entry,
+ * each with its submitted version, in the caller's transaction — all rows or none. Rows go in
+ * as multi-row inserts in chunks, yielding to the event loop between chunks.
+ */
+export class UploadHasErrorsError extends Error {
+	constructor(readonly errorCount: number) {
+		super(`the file has ${errorCount} error(s); fix them and check it again before committing`);
+		this.name = 'UploadHasErrorsError';
+	}
+}
+
+const CHUNK_ROWS = 500;
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+export interface CommitResult {
+	submissionId: number;
+	created: number;
+	mails: OutgoingMail[];
+}
+
+export async function commitUpload(
+	trx: Kysely<Database>,
+	user: SessionUser,
+	check: UploadCheck,
+	meta: {
+		filename: string;
+		visibility: VisibilityChange;
+		changeNote: string | null;
+		origin: string;
+	}
+): Promise<CommitResult> {
+	if (check.errorCount > 0) throw new UploadHasErrorsError(check.errorCount);
+	await assertGroupAllowed(trx, user, meta.visibility);
+	const now = new Date().toISOString();
+	const total = check.proteins.length + check.entries.length;
+	const { id: submissionId } = await trx
+		.insertInto('submission')
+		.values({
+			channel: 'csv',
+			status: 'submitted',
+			title: `CSV batch: ${check.entries.length} ${UPLOAD_KIND_LABELS[check.kind].toLowerCase()}${check.proteins.length ? ` and ${check.proteins.length} new protein(s)` : ''} from ${meta.filename}`,
+			submitted_by: user.id,
+			content_sha256: check.sha256,
+			row_count: check.rowCount,
+			submitted_at: now
+		})
+		.returning('id')
+		.executeTakeFirstOrThrow();
+
+	// Ids are handed out here rather than by SQLite so that accessions (derived from ids) can be
+	// written in the same multi-row insert; the transaction holds the write lock meanwhile.
+	const last = await sql<{
+		seq: number;
+	}>`select coalesce((select seq from sqlite_sequence where name = 'entry'), 0) as seq`.execute(
+		trx
+	);
+	let nextId = (last.rows[0]?.seq ?? 0) + 1;
+	const proteinAccessions = new Map<string, string>();
+	const planned = [
+		...check.proteins.map((p) => ({
+			row: p.row,
+			kind: 'protein' as const,
+			data: p.data as unknown,
+			warnings: [] as string[],
+			proteinKey: p.key,
+			newProteinKey: null as string | null
+		})),
+		...check.entries.map((e) => ({
+			row: e.row,
+			kind: e.entry.kind,
+			data: e.entry.data as unknown,
+			warnings: e.warnings,
+			proteinKey: null as string | null,
+			newProteinKey: e.newProteinKey
+		}))
+	];
+	const ids = planned.map(() => nextId++);
+	planned.forEach((p, i) => {
+		if (p.proteinKey) proteinAccessions.set(p.proteinKey, formatAccession(ids[i] as number));
+	});
+
+	for (let start = 0; start < planned.length; start += CHUNK_ROWS) {
+		const chunk = planned.slice(start, start + CHUNK_ROWS);
+		await trx
+			.insertInto('entry')
+			.values(
+				chunk.map((p, j) => ({
+					id: ids[start + j] as number,
+					accession: formatAccession(ids[start + j] as number),
+					kind: p.kind,
+					visibility: 'public' as const,
+					group_id: null,
+					embargo_until: null,
+					is_demo: 0,
+					created_by: user.id,
+					merged_into_entry_id: null
+				}))
+			)
+			.execute();
+		await trx
+			.insertInto('entry_version')
+			.values(
+				chunk.map((p, j) => {
+					const data =
+						p.newProteinKey !== null
+							? {
+									...(p.data as Record<string, unknown>),
+									proteinAccession: proteinAccessions.get(p.newProteinKey)
+								}
+							: p.data;
+					return {
+						entry_id: ids[start + j] as number,
+						version: null,
+						status: 'submitted' as const,
+						data: JSON.stringify(data),
+						change_note: meta.changeNote,
+						submission_id: submissionId,
+						based_on_version: null,
+						created_by: user.id,
+						visibility: meta.visibility.visibility,
+						group_id: meta.visibility.groupId,
+						embargo_until: meta.visibility.embargoUntil,
+						row_number: p.row,
+						warnings: p.warnings.length ? JSON.stringify(p.warnings) : null
+					};
+				})
+			)
+			.execute();
+		await yieldToEventLoop();
+	}
+
+	await writeAudit(trx, {
+		actorId: user.id,
+		action: 'submission.upload',
+		submissionId,
+		after: {
+			kind: check.kind,
+			file: meta.filename,
+			sha256: check.sha256,
+			rows: check.rowCount,
+			entries: check.entries.length,
+			proteins: check.proteins.length,
+			warnings: check.warningCount
+		}
+	});
+	const submission = await trx
+		.selectFrom('submission')
+		.selectAll()
+		.where('id', '=', submissionId)
+		.executeTakeFirstOrThrow();
+	return {
+		submissionId,
+		created: total,
+		mails: await noticesForNewSubmission(trx, submission, meta.origin)
+	};
+}

@@ -1,0 +1,264 @@
+import { readFileSync } from 'node:fs';
+import type { Kysely } from 'kysely';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { SessionUser } from '$lib/server/auth/roles';
+import type { Database } from '$lib/server/db/schema';
+import { checkUpload } from '$lib/server/uploads/checkUpload';
+import { commitUpload, UploadHasErrorsError } from '$lib/server/uploads/commitUpload';
+import { decideBatch } from '$lib/server/curation/reviews';
+import { CsvTooLargeError } from '$lib/server/uploads/readCsv';
+import { loadDemoScenario } from '$seed/load';
+import { createTempDatabase } from '../support/tempDb';
+
+let db: Kysely<Database>;
+let remove: () => Promise<void>;
+let contributor: SessionUser;
+let curator: SessionUser;
+const fixture = (name: string) => readFileSync(`tests/fixtures/csv/${name}`, 'utf8');
+const PUBLIC = { visibility: 'public' as const, groupId: null, embargoUntil: null };
+const options = { viewer: null, maxRows: 200_000 };
+const origin = 'http://hopline.test';
+
+async function user(role: 'contributor' | 'curator', email: string): Promise<SessionUser> {
+	const { id } = await db
+		.insertInto('User')
+		.values({
+			email,
+			name: role,
+			role,
+			emailVerified: null,
+			image: null,
+			passwordHash: null,
+			disabledAt: null
+		})
+		.returning('id')
+		.executeTakeFirstOrThrow();
+	return { id, email, name: role, role, groupIds: [] };
+}
+
+beforeAll(async () => {
+	({ db, remove } = await createTempDatabase());
+	await loadDemoScenario(db);
+	contributor = await user('contributor', 'c@lab.test');
+	curator = await user('curator', 'k@lab.test');
+});
+afterAll(async () => remove());
+
+describe('checking a CSV file', () => {
+	it('reads BOM, CRLF, quotes, the Unicode minus, units in header and cell, names for centres, blank rows', async () => {
+		const check = await checkUpload(db, fixture('potentials-good.csv'), 'potential', options);
+		expect(check.issues.filter((i) => i.severity === 'error')).toEqual([]);
+		expect(check.rowCount).toBe(3);
+		const data = check.entries.map((e) => e.entry.data as Record<string, unknown>);
+		expect(data[0]).toMatchObject({
+			centreAccession: 'HL000010',
+			reportedValue: -262,
+			reportedUnit: 'mV',
+			emMvShe: -262,
+			note: 'remeasured, second prep'
+		});
+		// −0.545 V vs SCE at 25 °C: +241 mV to SHE (the SCE offset at 25 °C, from memory: 241.2 mV).
+		expect(data[1]).toMatchObject({
+			reportedValue: -0.545,
+			reportedUnit: 'V',
+			referenceElectrode: 'SCE',
+			temperatureK: 298.15
+		});
+		expect(data[1]?.emMvShe).toBeCloseTo(-545 + 241, -1);
+		expect(data[2]).toMatchObject({ centreAccession: 'HL000030', ph: 9, temperatureK: 288 });
+		expect(check.entries.map((e) => e.row)).toEqual([2, 3, 4]);
+	});
+	it('reads semicolon files with decimal commas, labels for vocabularies and °C in the header', async () => {
+		const check = await checkUpload(db, fixture('potentials-semicolon.csv'), 'potential', options);
+		expect(check.delimiter).toBe(';');
+		expect(check.errorCount).toBe(0);
+		const [a, b] = check.entries.map((e) => e.entry.data as Record<string, unknown>);
+		expect(a).toMatchObject({
+			reportedValue: -0.271,
+			ph: 7.5,
+			temperatureK: 293.15,
+			method: 'epr_titration'
+		});
+		expect(b).toMatchObject({ reportedValue: -280.5, referenceElectrode: 'AgAgCl_sat' });
+	});
+	it('reads tab-separated files', async () => {
+		const check = await checkUpload(db, fixture('potentials-tab.csv'), 'potential', options);
+		expect(check.delimiter).toBe('\t');
+		expect(check.entries).toHaveLength(1);
+	});
+	it('names the row, column, value and problem of each bad row, with a suggestion', async () => {
+		const check = await checkUpload(db, fixture('potentials-bad.csv'), 'potential', options);
+		const errors = check.issues.filter((i) => i.severity === 'error');
+		expect(errors).toEqual([
+			{
+				row: 2,
+				column: 'method',
+				value: 'epr_titraton',
+				message: expect.stringMatching(
+					/^"epr_titraton" is not a method; did you mean "epr_titration"\? Allowed: /
+				),
+				severity: 'error'
+			},
+			{
+				row: 3,
+				column: 'centreAccession',
+				value: 'HL000999',
+				message: 'no centre HL000999 in the registry (or not visible to you)',
+				severity: 'error'
+			},
+			{ row: 4, column: 'ph', value: '15', message: 'pH must be 0–14', severity: 'error' }
+		]);
+		expect(check.entries.map((e) => e.row)).toEqual([5]);
+	});
+	it('creates a protein named in an earlier row and finds an approved one by name', async () => {
+		const check = await checkUpload(db, fixture('centres-new-protein.csv'), 'centre', options);
+		expect(check.issues.filter((i) => i.severity === 'error')).toEqual([]);
+		expect(check.proteins.map((p) => [p.row, p.data.name])).toEqual([
+			[2, 'Demo upload oxidoreductase']
+		]);
+		expect(check.entries.map((e) => e.newProteinKey !== null)).toEqual([true, true, false]);
+		expect((check.entries[1]?.entry.data as Record<string, unknown>).cofactorKind).toBe(
+			'fe2s2_rieske'
+		);
+		expect((check.entries[2]?.entry.data as Record<string, unknown>).proteinAccession).toBe(
+			'HL000029'
+		);
+	});
+	it('flags duplicates inside the file as errors and of approved values as warnings', async () => {
+		const line = 'HL000010,[4Fe-4S]2+/1+,-250,mV,SHE,7,298.15,epr_titration,20';
+		const text = `centreAccession,couple,reportedValue,reportedUnit,referenceElectrode,ph,temperatureK,method,uncertaintyMv\n${line}\n${line}\n`;
+		const check = await checkUpload(db, text, 'potential', options);
+		expect(check.issues.find((i) => i.severity === 'error')).toMatchObject({
+			row: 3,
+			message: 'repeats row 2'
+		});
+		expect(check.issues.find((i) => i.severity === 'warning')?.message).toMatch(
+			/^already in the registry as HL\d{6}$/
+		);
+	});
+	it('reports a missing required column once, and refuses files over the row limit', async () => {
+		const check = await checkUpload(
+			db,
+			'couple,reportedValue\n[4Fe-4S]2+/1+,-250\n',
+			'potential',
+			options
+		);
+		expect(check.issues.filter((i) => i.row === 1).map((i) => i.column)).toEqual(['method']);
+		// The missing column is named once, not again on every row; what the row can still give is asked of it.
+		expect(check.issues.filter((i) => i.row === 2).map((i) => [i.column, i.message])).toEqual([
+			['centreAccession', "required: the centre's accession, or the protein and centreLabel"],
+			['reportedUnit', expect.stringMatching(/^required: a reportedUnit column, a unit in the header/)],
+			['referenceElectrode', expect.stringMatching(/^required: a referenceElectrode column, or "vs SCE"/)]
+		]);
+		await expect(
+			checkUpload(db, 'a\n1\n2\n3\n', 'potential', { viewer: null, maxRows: 2 })
+		).rejects.toBeInstanceOf(CsvTooLargeError);
+	});
+});
+
+describe('committing and reviewing a batch', () => {
+	it('refuses a file with errors and writes nothing', async () => {
+		const check = await checkUpload(db, fixture('potentials-bad.csv'), 'potential', options);
+		const before = await db
+			.selectFrom('entry')
+			.select((eb) => eb.fn.countAll().as('n'))
+			.executeTakeFirstOrThrow();
+		await expect(
+			db
+				.transaction()
+				.execute((trx) =>
+					commitUpload(trx, contributor, check, {
+						filename: 'bad.csv',
+						visibility: PUBLIC,
+						changeNote: null,
+						origin
+					})
+				)
+		).rejects.toBeInstanceOf(UploadHasErrorsError);
+		const after = await db
+			.selectFrom('entry')
+			.select((eb) => eb.fn.countAll().as('n'))
+			.executeTakeFirstOrThrow();
+		expect(after.n).toBe(before.n);
+	});
+	it('commits all rows as one submission, detects the same file again, and approves row by row', async () => {
+		const text = fixture('centres-new-protein.csv');
+		const check = await checkUpload(db, text, 'centre', options);
+		const result = await db
+			.transaction()
+			.execute((trx) =>
+				commitUpload(trx, contributor, check, {
+					filename: 'centres.csv',
+					visibility: PUBLIC,
+					changeNote: 'from our lab book',
+					origin
+				})
+			);
+		expect(result.created).toBe(4);
+		expect(result.mails.map((m) => m.to)).toEqual(['k@lab.test']);
+		const versions = await db
+			.selectFrom('entry_version')
+			.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+			.select([
+				'entry.kind',
+				'entry.accession',
+				'entry_version.row_number',
+				'entry_version.status',
+				'entry_version.data'
+			])
+			.where('submission_id', '=', result.submissionId)
+			.orderBy('entry_version.id')
+			.execute();
+		expect(versions.map((v) => [v.kind, v.row_number, v.status])).toEqual([
+			['protein', 2, 'submitted'],
+			['centre', 2, 'submitted'],
+			['centre', 3, 'submitted'],
+			['centre', 4, 'submitted']
+		]);
+		// Centres of the new protein name its reserved accession.
+		expect(JSON.parse(versions[1]?.data ?? '{}').proteinAccession).toBe(versions[0]?.accession);
+
+		const again = await checkUpload(db, text, 'centre', options);
+		expect(again.previousUpload?.submissionId).toBe(result.submissionId);
+
+		await expect(
+			db
+				.transaction()
+				.execute((trx) =>
+					decideBatch(trx, curator, result.submissionId, { returnRows: [4], comment: '' }, origin)
+				)
+		).rejects.toThrow(/say what needs changing/);
+		const outcome = await db
+			.transaction()
+			.execute((trx) =>
+				decideBatch(
+					trx,
+					curator,
+					result.submissionId,
+					{ returnRows: [4], comment: 'Cluster C: check the ligation' },
+					origin
+				)
+			);
+		expect(outcome.approved).toHaveLength(3);
+		expect(outcome.returned).toBe(1);
+		const submission = await db
+			.selectFrom('submission')
+			.select('status')
+			.where('id', '=', result.submissionId)
+			.executeTakeFirstOrThrow();
+		expect(submission.status).toBe('partially_approved');
+		const centre = await db
+			.selectFrom('centre')
+			.innerJoin('entry', 'entry.id', 'centre.entry_id')
+			.select(['centre.label', 'entry.accession'])
+			.where('centre.label', '=', 'U2')
+			.executeTakeFirstOrThrow();
+		expect(centre.accession).toBe(versions[2]?.accession);
+		const returnedComment = await db
+			.selectFrom('submission_comment')
+			.select(['entry_version_id', 'body'])
+			.where('submission_id', '=', result.submissionId)
+			.execute();
+		expect(returnedComment).toHaveLength(1);
+	});
+});
