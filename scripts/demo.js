@@ -18,6 +18,8 @@ const server = spawn(process.execPath, ['build'], {
 		HOST: host,
 		ORIGIN: origin,
 		HOPLINE_DEMO: 'true',
+		// The app enforces its own body limits (src/lib/server/requestLimits.ts).
+		BODY_SIZE_LIMIT: 'Infinity',
 		DATABASE_PATH: process.env.DATABASE_PATH ?? './data/demo.sqlite'
 	}
 });

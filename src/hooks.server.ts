@@ -9,6 +9,7 @@ import { loadSessionUser } from '$lib/server/auth/users';
 import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
 import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
+import { limitRequestSize } from '$lib/server/requestLimits';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -39,7 +40,12 @@ const attachUser: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-export const handle: Handle = sequence(attachRequestFacts, authHandle, attachUser);
+export const handle: Handle = sequence(
+	attachRequestFacts,
+	limitRequestSize,
+	authHandle,
+	attachUser
+);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	const errorId = event.locals.requestId ?? crypto.randomUUID();

@@ -147,8 +147,14 @@ describe('checking a CSV file', () => {
 		// The missing column is named once, not again on every row; what the row can still give is asked of it.
 		expect(check.issues.filter((i) => i.row === 2).map((i) => [i.column, i.message])).toEqual([
 			['centreAccession', "required: the centre's accession, or the protein and centreLabel"],
-			['reportedUnit', expect.stringMatching(/^required: a reportedUnit column, a unit in the header/)],
-			['referenceElectrode', expect.stringMatching(/^required: a referenceElectrode column, or "vs SCE"/)]
+			[
+				'reportedUnit',
+				expect.stringMatching(/^required: a reportedUnit column, a unit in the header/)
+			],
+			[
+				'referenceElectrode',
+				expect.stringMatching(/^required: a referenceElectrode column, or "vs SCE"/)
+			]
 		]);
 		await expect(
 			checkUpload(db, 'a\n1\n2\n3\n', 'potential', { viewer: null, maxRows: 2 })
@@ -164,16 +170,14 @@ describe('committing and reviewing a batch', () => {
 			.select((eb) => eb.fn.countAll().as('n'))
 			.executeTakeFirstOrThrow();
 		await expect(
-			db
-				.transaction()
-				.execute((trx) =>
-					commitUpload(trx, contributor, check, {
-						filename: 'bad.csv',
-						visibility: PUBLIC,
-						changeNote: null,
-						origin
-					})
-				)
+			db.transaction().execute((trx) =>
+				commitUpload(trx, contributor, check, {
+					filename: 'bad.csv',
+					visibility: PUBLIC,
+					changeNote: null,
+					origin
+				})
+			)
 		).rejects.toBeInstanceOf(UploadHasErrorsError);
 		const after = await db
 			.selectFrom('entry')
@@ -184,16 +188,14 @@ describe('committing and reviewing a batch', () => {
 	it('commits all rows as one submission, detects the same file again, and approves row by row', async () => {
 		const text = fixture('centres-new-protein.csv');
 		const check = await checkUpload(db, text, 'centre', options);
-		const result = await db
-			.transaction()
-			.execute((trx) =>
-				commitUpload(trx, contributor, check, {
-					filename: 'centres.csv',
-					visibility: PUBLIC,
-					changeNote: 'from our lab book',
-					origin
-				})
-			);
+		const result = await db.transaction().execute((trx) =>
+			commitUpload(trx, contributor, check, {
+				filename: 'centres.csv',
+				visibility: PUBLIC,
+				changeNote: 'from our lab book',
+				origin
+			})
+		);
 		expect(result.created).toBe(4);
 		expect(result.mails.map((m) => m.to)).toEqual(['k@lab.test']);
 		const versions = await db

@@ -41,6 +41,8 @@ export default async function setup(project: TestProject) {
 			HOST: '127.0.0.1',
 			ORIGIN: baseUrl,
 			HOPLINE_DEMO: 'true',
+			// The app enforces its own body limits (src/lib/server/requestLimits.ts).
+			BODY_SIZE_LIMIT: 'Infinity',
 			DATABASE_PATH: join(dir, 'e2e.sqlite')
 		},
 		stdio: ['ignore', 'pipe', 'pipe']

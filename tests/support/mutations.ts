@@ -154,13 +154,27 @@ export const MUTATIONS: Mutation[] = [
 		least: 'contributor' as const,
 		body: {}
 	})),
-	...(['decide', 'comment'] as const).map((name) => ({
+	...(['decide', 'batch', 'comment'] as const).map((name) => ({
 		file: '(curation)/review/[id=id]/+page.server.ts',
 		name,
 		url: `/review/999999?/${name}`,
 		least: 'curator' as const,
 		body: {}
 	})),
+	...(['check', 'commit'] as const).map((name) => ({
+		file: '(app)/submissions/upload/+page.server.ts',
+		name,
+		url: `/submissions/upload?/${name}`,
+		least: 'contributor' as const,
+		body: { kind: 'potential' }
+	})),
+	{
+		file: 'api/v1/uploads/check/+server.ts',
+		name: 'POST',
+		url: '/api/v1/uploads/check',
+		least: 'contributor',
+		body: { json: {} }
+	},
 	{
 		file: 'account/+page.server.ts',
 		name: 'notices',

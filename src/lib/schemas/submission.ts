@@ -196,3 +196,42 @@ export const apiSubmissionSchema = z.strictObject({
 	changeNote: z.string().trim().max(2000).nullable().default(null),
 	submit: z.boolean().default(false)
 });
+
+/** Paging through a CSV batch on its review page: ?page=N&flagged=1. */
+export const batchQuerySchema = z.strictObject({
+	page: z.coerce.number().int().min(1).max(100_000).default(1),
+	flagged: z.enum(['1', '0']).optional()
+});
+
+export const BATCH_PAGE_SIZE = 100;
+
+/** Row numbers as people type them: "4, 9-12 15". */
+export const rowListField = z
+	.string()
+	.trim()
+	.max(20_000)
+	.regex(/^[\d\s,;-]*$/, 'row numbers separated by commas, with ranges such as 9-12')
+	.transform((text, ctx) => {
+		const rows = new Set<number>();
+		for (const part of text.split(/[\s,;]+/).filter(Boolean)) {
+			const [a, b] = part.split('-').map(Number);
+			if (
+				a === undefined ||
+				!Number.isInteger(a) ||
+				(b !== undefined && (!Number.isInteger(b) || b < a))
+			) {
+				ctx.addIssue({
+					code: 'custom',
+					message: `"${part}" is not a row number or a range such as 9-12`
+				});
+				return z.NEVER;
+			}
+			for (let r = a; r <= (b ?? a); r++) rows.add(r);
+		}
+		return [...rows].sort((x, y) => x - y);
+	});
+
+export const batchDecisionSchema = z.object({
+	returnRows: rowListField.default([]),
+	comment: z.string().trim().max(4000).default('')
+});

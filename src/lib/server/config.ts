@@ -51,7 +51,20 @@ const configSchema = z.object({
 		.enum(['true', 'false', '1', '0', ''])
 		.default('false')
 		.transform((v) => v === 'true' || v === '1'),
-	FAKE_OIDC_PORT: z.coerce.number().int().min(0).max(65535).default(0)
+	FAKE_OIDC_PORT: z.coerce.number().int().min(0).max(65535).default(0),
+	/** Largest CSV upload, bytes (default 20 MB), and most data rows in one file. */
+	UPLOAD_MAX_BYTES: z.coerce
+		.number()
+		.int()
+		.min(1024)
+		.default(20 * 1024 * 1024),
+	UPLOAD_MAX_ROWS: z.coerce.number().int().min(1).default(200_000),
+	/** Largest request body anywhere else (forms, JSON), bytes. */
+	BODY_MAX_BYTES: z.coerce
+		.number()
+		.int()
+		.min(1024)
+		.default(2 * 1024 * 1024)
 });
 
 export type Config = z.infer<typeof configSchema>;

@@ -5,6 +5,7 @@ import { SubmissionNotFoundError } from '$lib/server/curation/errors';
 import { curationFailure, postComment, readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefaults';
 import { deliver } from '$lib/server/curation/outbox';
+import { batchForPage } from '$lib/server/curation/batchPage';
 import { loadSubmissionView } from '$lib/server/curation/queue';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
 import { fillFromDoi } from '$lib/server/sources/lookupAction';
@@ -21,15 +22,18 @@ export const load: PageServerLoad = async (event) => {
 	const first = view.versions[0];
 	return {
 		view,
+		batch: view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null,
 		groups: await groupsForSharing(db, user),
 		values: first
 			? valuesOfVersion(first.kind, first.data, first.requestedVisibility, first.changeNote)
 			: {},
-		notice: event.url.searchParams.has('submitted')
-			? 'Submitted for review. The curators have been told.'
-			: event.url.searchParams.has('saved')
-				? 'Draft saved. Only you and the curators can see it.'
-				: null
+		notice: event.url.searchParams.has('uploaded')
+			? 'Uploaded and submitted for review. The curators have been told.'
+			: event.url.searchParams.has('submitted')
+				? 'Submitted for review. The curators have been told.'
+				: event.url.searchParams.has('saved')
+					? 'Draft saved. Only you and the curators can see it.'
+					: null
 	};
 };
 

@@ -1,13 +1,14 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schemas/calc';
-import { reviewDecisionSchema } from '$lib/schemas/submission';
+import { batchDecisionSchema, reviewDecisionSchema } from '$lib/schemas/submission';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { SubmissionNotFoundError } from '$lib/server/curation/errors';
 import { curationFailure, postComment } from '$lib/server/curation/form';
 import { deliver } from '$lib/server/curation/outbox';
 import { loadSubmissionView } from '$lib/server/curation/queue';
-import { decideSubmission } from '$lib/server/curation/reviews';
+import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
+import { batchForPage } from '$lib/server/curation/batchPage';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -18,7 +19,8 @@ export const load: PageServerLoad = async (event) => {
 		throw e;
 	});
 	if (!view) error(404, { message: `no submission ${id}` });
-	return { view };
+	const batch = view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null;
+	return { view, batch };
 };
 
 export const actions: Actions = {
@@ -43,6 +45,28 @@ export const actions: Actions = {
 		}
 		await deliver(outcome.mails);
 		return { decided: parsed.data.decision, approved: outcome.approved };
+	},
+	/** A CSV batch row by row: approve every row except those listed, which go back with the comment. */
+	batch: async (event) => {
+		const user = requireRole(event, 'curator');
+		const id = Number(event.params.id);
+		const values = Object.fromEntries(await event.request.formData());
+		const parsed = batchDecisionSchema.safeParse(values);
+		const strings = {
+			returnRows: String(values.returnRows ?? ''),
+			comment: String(values.comment ?? '')
+		};
+		if (!parsed.success) return fail(400, { values: strings, errors: fieldErrors(parsed.error) });
+		let outcome;
+		try {
+			outcome = await db
+				.transaction()
+				.execute((trx) => decideBatch(trx, user, id, parsed.data, event.url.origin));
+		} catch (e) {
+			return curationFailure(e, strings);
+		}
+		await deliver(outcome.mails);
+		return { batchDone: { approved: outcome.approved.length, returned: outcome.returned } };
 	},
 	comment: async (event) => {
 		const user = requireRole(event, 'curator');

@@ -1,0 +1,37 @@
+import { UPLOAD_COLUMNS } from '$lib/catalogue/uploadColumns';
+import { formatField } from '$lib/catalogue/fields';
+import type { UploadCheck } from './checkUpload';
+
+/** What a page shows of a check: counts, the first issues, and a preview of what would be created. */
+export function summariseCheck(check: UploadCheck, limits: { issues: number; preview: number }) {
+	const fields = UPLOAD_COLUMNS[check.kind]
+		.map((c) => c.name)
+		.filter((n) => check.entries.some((e) => (e.entry.data as Record<string, unknown>)[n] != null));
+	if (check.kind === 'potential') fields.splice(fields.indexOf('reportedValue') + 1, 0, 'emMvShe');
+	return {
+		kind: check.kind,
+		sha256: check.sha256,
+		byteSize: check.byteSize,
+		delimiter: check.delimiter === '\t' ? 'tab' : check.delimiter,
+		rowCount: check.rowCount,
+		columns: check.columns,
+		errorCount: check.errorCount,
+		warningCount: check.warningCount,
+		wouldCreate: { entries: check.entries.length, proteins: check.proteins.length },
+		previousUpload: check.previousUpload,
+		issues: check.issues.slice(0, limits.issues),
+		moreIssues: Math.max(0, check.issues.length - limits.issues),
+		preview: {
+			fields,
+			rows: check.entries.slice(0, limits.preview).map((e) => ({
+				row: e.row,
+				warnings: e.warnings.length,
+				cells: fields.map((f) =>
+					formatField(f, (e.entry.data as Record<string, unknown>)[f], check.kind)
+				)
+			}))
+		}
+	};
+}
+
+export type CheckSummary = ReturnType<typeof summariseCheck>;

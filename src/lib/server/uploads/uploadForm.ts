@@ -1,0 +1,90 @@
+import { z } from 'zod';
+import { UPLOAD_KINDS, type UploadKind } from '$lib/catalogue/uploadColumns';
+import type { FieldErrors } from '$lib/schemas/searchParams';
+import {
+	submissionMetaSchema,
+	visibilityRequestSchema,
+	type VisibilityRequest
+} from '$lib/schemas/submission';
+import { config } from '../config';
+import { uploadLimitMessage, uploadTooLargeMessage } from '../requestLimits';
+
+/**
+ * Reads the upload form (kind, file, visibility, note) and the file's text. Size is checked from
+ * the request's length before the body is read, and again on the file itself.
+ */
+export type UploadForm =
+	| {
+			ok: true;
+			kind: UploadKind;
+			filename: string;
+			text: string;
+			visibility: VisibilityRequest;
+			changeNote: string | null;
+			values: Record<string, string>;
+	  }
+	| { ok: false; status: 400 | 413; values: Record<string, string>; errors: FieldErrors };
+
+const kindField = z.enum(UPLOAD_KINDS, { error: `expected one of ${UPLOAD_KINDS.join(', ')}` });
+
+export async function readUploadForm(request: Request): Promise<UploadForm> {
+	const tooLarge = uploadTooLargeMessage(Number(request.headers.get('content-length') ?? 0));
+	if (tooLarge) return { ok: false, status: 413, values: {}, errors: { file: [tooLarge] } };
+	const type = request.headers.get('content-type') ?? '';
+	if (!type.startsWith('multipart/form-data')) {
+		return {
+			ok: false,
+			status: 400,
+			values: {},
+			errors: { file: ['send the file as multipart/form-data (fields kind and file)'] }
+		};
+	}
+	let form: FormData;
+	try {
+		form = await request.formData();
+	} catch {
+		return {
+			ok: false,
+			status: 400,
+			values: {},
+			errors: { file: ['the multipart body could not be read'] }
+		};
+	}
+	const values: Record<string, string> = {};
+	for (const [k, v] of form) if (typeof v === 'string') values[k] = v;
+	const errors: FieldErrors = {};
+	const kind = kindField.safeParse(values.kind);
+	if (!kind.success) errors.kind = kind.error.issues.map((i) => i.message);
+	const file = form.get('file');
+	if (!(file instanceof File) || file.size === 0) errors.file = ['choose a CSV file'];
+	else if (file.size > config.UPLOAD_MAX_BYTES)
+		return { ok: false, status: 413, values, errors: { file: [uploadLimitMessage(file.size)] } };
+	const visibility = visibilityRequestSchema.safeParse({
+		visibility: values.visibility || 'public',
+		groupId: values.groupId || null,
+		embargoUntil: values.embargoUntil || null
+	});
+	if (!visibility.success) {
+		for (const i of visibility.error.issues) (errors[String(i.path[0])] ??= []).push(i.message);
+	}
+	const meta = submissionMetaSchema.safeParse({ changeNote: values.changeNote ?? '' });
+	if (!meta.success) errors.changeNote = meta.error.issues.map((i) => i.message);
+	if (
+		!kind.success ||
+		!(file instanceof File) ||
+		file.size === 0 ||
+		!visibility.success ||
+		!meta.success
+	) {
+		return { ok: false, status: 400, values, errors };
+	}
+	return {
+		ok: true,
+		kind: kind.data,
+		filename: file.name || 'upload.csv',
+		text: await file.text(),
+		visibility: visibility.data,
+		changeNote: meta.data.changeNote,
+		values
+	};
+}

@@ -1,0 +1,92 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { UPLOAD_KINDS } from '$lib/catalogue/uploadColumns';
+import { requireRole } from '$lib/server/auth/guards';
+import { config } from '$lib/server/config';
+import { db } from '$lib/server/db';
+import { curationFailure } from '$lib/server/curation/form';
+import { groupsForSharing } from '$lib/server/curation/formDefaults';
+import { deliver } from '$lib/server/curation/outbox';
+import { checkUpload } from '$lib/server/uploads/checkUpload';
+import { commitUpload } from '$lib/server/uploads/commitUpload';
+import { CsvTooLargeError } from '$lib/server/uploads/readCsv';
+import { summariseCheck } from '$lib/server/uploads/summary';
+import { readUploadForm } from '$lib/server/uploads/uploadForm';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'contributor');
+	return {
+		kinds: UPLOAD_KINDS,
+		groups: await groupsForSharing(db, user),
+		limits: { bytes: config.UPLOAD_MAX_BYTES, rows: config.UPLOAD_MAX_ROWS }
+	};
+};
+
+const SHOWN = { issues: 500, preview: 20 };
+
+/** Reads and checks the posted file; a failure to return, or the check. */
+async function checked(event: RequestEvent) {
+	const user = requireRole(event, 'contributor');
+	const form = await readUploadForm(event.request);
+	if (!form.ok)
+		return { user, failure: fail(form.status, { values: form.values, errors: form.errors }) };
+	try {
+		const check = await checkUpload(db, form.text, form.kind, {
+			viewer: { groupIds: user.groupIds },
+			maxRows: config.UPLOAD_MAX_ROWS
+		});
+		return { user, form, check };
+	} catch (e) {
+		if (!(e instanceof CsvTooLargeError)) throw e;
+		return {
+			user,
+			failure: fail(413, {
+				values: form.values,
+				errors: {
+					file: [`The file has more than ${e.limit} data rows, the limit per file; split it.`]
+				}
+			})
+		};
+	}
+}
+
+export const actions: Actions = {
+	/** The dry run: what the file would create, and every problem in it. Writes nothing. */
+	check: async (event) => {
+		const r = await checked(event);
+		if ('failure' in r) return r.failure;
+		return { values: r.form.values, report: summariseCheck(r.check, SHOWN) };
+	},
+	/** Checks again (the server never trusts an earlier answer) and commits all rows or none. */
+	commit: async (event) => {
+		const r = await checked(event);
+		if ('failure' in r) return r.failure;
+		const { user, form, check } = r;
+		if (check.errorCount > 0) {
+			return fail(400, {
+				values: form.values,
+				report: summariseCheck(check, SHOWN),
+				errors: {
+					form: [
+						`Nothing was committed: the file has ${check.errorCount} error(s). Fix them and try again.`
+					]
+				}
+			});
+		}
+		let result;
+		try {
+			result = await db.transaction().execute((trx) =>
+				commitUpload(trx, user, check, {
+					filename: form.filename,
+					visibility: form.visibility,
+					changeNote: form.changeNote,
+					origin: event.url.origin
+				})
+			);
+		} catch (e) {
+			return curationFailure(e, form.values);
+		}
+		await deliver(result.mails);
+		redirect(303, `/submissions/${result.submissionId}?uploaded`);
+	}
+};

@@ -1,0 +1,67 @@
+import Papa from 'papaparse';
+import { json } from '@sveltejs/kit';
+import { assertRole } from '$lib/server/auth/roles';
+import { apiHandler } from '$lib/server/api/handler';
+import { apiError } from '$lib/server/api/respond';
+import { config } from '$lib/server/config';
+import { db } from '$lib/server/db';
+import { checkUpload } from '$lib/server/uploads/checkUpload';
+import { CsvTooLargeError } from '$lib/server/uploads/readCsv';
+import { summariseCheck } from '$lib/server/uploads/summary';
+import { readUploadForm } from '$lib/server/uploads/uploadForm';
+import type { RequestHandler } from './$types';
+
+/**
+ * POST /api/v1/uploads/check — checks a CSV file (multipart: kind, file) without writing
+ * anything. JSON: counts, every issue and a preview; ?format=csv: the issue report as a CSV
+ * download (row, column, value, severity, message).
+ */
+export const POST: RequestHandler = apiHandler(async (event) => {
+	assertRole(event.locals.user, 'contributor');
+	const user = event.locals.user;
+	const format = event.url.searchParams.get('format') ?? 'json';
+	if (format !== 'json' && format !== 'csv') {
+		return apiError('bad_request', 'format: expected json or csv', {
+			format: ['expected json or csv']
+		});
+	}
+	const form = await readUploadForm(event.request);
+	if (!form.ok) {
+		return apiError(
+			form.status === 413 ? 'payload_too_large' : 'bad_request',
+			Object.values(form.errors).flat().join(' '),
+			form.errors
+		);
+	}
+	let check;
+	try {
+		check = await checkUpload(db, form.text, form.kind, {
+			viewer: { groupIds: user.groupIds },
+			maxRows: config.UPLOAD_MAX_ROWS
+		});
+	} catch (e) {
+		if (e instanceof CsvTooLargeError)
+			return apiError(
+				'payload_too_large',
+				`The file has more than ${e.limit} data rows, the limit per file.`
+			);
+		throw e;
+	}
+	if (format === 'csv') {
+		const csv = Papa.unparse(
+			{
+				fields: ['row', 'column', 'value', 'severity', 'message'],
+				data: check.issues.map((i) => [i.row, i.column, i.value, i.severity, i.message])
+			},
+			{ newline: '\r\n', escapeFormulae: true }
+		);
+		const name = form.filename.replace(/\.[^.]+$/, '').replace(/[^A-Za-z0-9._-]/g, '_');
+		return new Response(csv, {
+			headers: {
+				'content-type': 'text/csv; charset=utf-8',
+				'content-disposition': `attachment; filename="${name}-report.csv"`
+			}
+		});
+	}
+	return json(summariseCheck(check, { issues: Number.MAX_SAFE_INTEGER, preview: 20 }));
+});
