@@ -97,11 +97,17 @@ const EXAMPLES: Record<string, string> = {
 	coordinatesA: '10.1 -4.2 33.0'
 };
 
+/** Where a kind's example differs from the shared one. */
+const KIND_EXAMPLES: Partial<Record<UploadKind, Record<string, string>>> = {
+	spin_record: { method: 'cw_epr_x', temperatureK: '10', note: 'invented example row' },
+	distance: { method: 'crystal_structure' }
+};
+
 function fromForm(kind: UploadKind): UploadColumn[] {
 	return ENTRY_FORM_FIELDS[kind].map((f) => ({
 		...f,
 		aliases: ALIASES[f.name] ?? [],
-		example: EXAMPLES[f.name] ?? ''
+		example: KIND_EXAMPLES[kind]?.[f.name] ?? EXAMPLES[f.name] ?? ''
 	}));
 }
 
