@@ -2,7 +2,9 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
+import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import '../support/fast-check';
 import { launchChromium } from '../support/browser';
 import { signInCookie } from '../support/session';
 
@@ -68,9 +70,9 @@ describe('CSV upload, end to end', () => {
 		await contributor.locator('input[type=file]').setInputFiles(path);
 		await contributor.getByRole('button', { name: /Check the file/ }).click();
 		await contributor.getByTestId('would-create').waitFor();
-		expect((await contributor.getByTestId('would-create').textContent())?.replace(/\s+/g, ' ')).toContain(
-			'4 potentials'
-		);
+		expect(
+			(await contributor.getByTestId('would-create').textContent())?.replace(/\s+/g, ' ')
+		).toContain('4 potentials');
 		expect(await contributor.getByTestId('dry-run-preview').locator('tbody tr').count()).toBe(4);
 		await contributor.getByRole('button', { name: /Commit for review/ }).click();
 		await contributor.waitForURL(/\/submissions\/\d+\?uploaded/);
@@ -131,6 +133,41 @@ describe('limits, templates and the column reference', () => {
 		const body = (await res.json()) as { error: { code: string; message: string } };
 		expect(body.error.code).toBe('payload_too_large');
 		expect(body.error.message).toMatch(/the limit is 20\.0 MB per file/);
+	});
+	it('never answers a malformed file or form with a server error', async () => {
+		const cookie = await signInCookie(
+			base,
+			'contributor@demo.hopline.test',
+			'demo-contributor-pass'
+		);
+		await fc.assert(
+			fc.asyncProperty(
+				fc.constantFrom('potential', 'spin_record', 'distance', 'centre', 'nonsense', ''),
+				fc.string({ maxLength: 400 }),
+				fc.constantFrom(
+					'/api/v1/uploads/check',
+					'/submissions/upload?/check',
+					'/submissions/upload?/commit'
+				),
+				async (kind, text, path) => {
+					const form = new FormData();
+					form.set('kind', kind);
+					form.set('file', new Blob([`centreAccession,couple,reportedValue\n${text}`]), 'f.csv');
+					const res = await fetch(`${base}${path}`, {
+						method: 'POST',
+						headers: {
+							origin: base,
+							cookie,
+							...(path.includes('?/') ? { 'x-sveltekit-action': 'true' } : {})
+						},
+						body: form
+					});
+					await res.arrayBuffer();
+					expect(res.status).toBeLessThan(500);
+				}
+			),
+			{ numRuns: 60 }
+		);
 	});
 	it('offers templates that pass their own check', async () => {
 		const cookie = await signInCookie(
