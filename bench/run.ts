@@ -2,6 +2,7 @@
 // 1. search (text + filters + first page) p50/p95 server-side on 100 000 potentials;
 // 2. API list throughput (100 rows a page) beside a raw node:http + better-sqlite3 server;
 // 3. server RSS after the search index is built;
+// 4. CSV upload: 100 000 rows checked and committed, beside raw prepared inserts (bench/upload.ts);
 // and first, the science engine's timings (bench/science.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
@@ -13,6 +14,7 @@ import type { PotentialFilter } from '../src/lib/schemas/catalogueQuery';
 import { encodeCursor } from '../src/lib/schemas/pagination';
 import { ensureDataset } from './dataset';
 import { benchScience } from './science';
+import { benchUpload } from './upload';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -189,3 +191,4 @@ console.log(
 );
 await benchSearch();
 await benchApi();
+await benchUpload(DATASET);

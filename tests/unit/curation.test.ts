@@ -190,3 +190,22 @@ describe('route matchers', () => {
 		expect(matchKind('spin-record')).toBe(false);
 	});
 });
+
+describe('a potential that converts out of range', () => {
+	it('is an error on the reported value, not an exception', () => {
+		const r = parseEntryInput('potential', {
+			centreAccession: 'HL000001',
+			couple: 'Fe3+/Fe2+',
+			reportedValue: 5,
+			reportedUnit: 'V',
+			referenceElectrode: 'SHE',
+			method: 'computed'
+		});
+		expect(r).toEqual({
+			ok: false,
+			fields: {
+				reportedValue: ['converts to 5000 mV vs SHE, outside -2000 to 2000 mV; check the unit']
+			}
+		});
+	});
+});

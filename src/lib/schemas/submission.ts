@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { ENTRY_DATA_SCHEMAS, parseEntryData, type EntryData } from './entryData';
-import { normalisePotential, potentialInputSchema } from './potential';
+import { ENTRY_DATA_SCHEMAS, type EntryData } from './entryData';
+import { normalisePotential, potentialInputSchema, potentialSchema } from './potential';
 import type { FieldErrors } from './searchParams';
 import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
 
@@ -32,11 +32,24 @@ export function parseEntryInput(kind: EntryKind, input: unknown): InputResult {
 		}
 		return { ok: false, fields };
 	}
-	const data =
-		kind === 'potential'
-			? normalisePotential(parsed.data as z.infer<typeof potentialInputSchema>)
-			: parsed.data;
-	return { ok: true, entry: parseEntryData(kind, data) };
+	if (kind !== 'potential') {
+		// The input schema of every other kind is its stored schema: the data is already checked.
+		return { ok: true, entry: { kind, data: parsed.data } as EntryData };
+	}
+	const data = normalisePotential(parsed.data as z.infer<typeof potentialInputSchema>);
+	const emField = potentialSchema.shape.emMvShe;
+	const em = emField.safeParse(data.emMvShe);
+	if (!em.success) {
+		return {
+			ok: false,
+			fields: {
+				reportedValue: [
+					`converts to ${data.emMvShe} mV vs SHE, outside ${emField.minValue} to ${emField.maxValue} mV; check the unit`
+				]
+			}
+		};
+	}
+	return { ok: true, entry: { kind: 'potential', data } };
 }
 
 /** A date such as 2027-06-30; embargoes end at the start of that day, UTC. */

@@ -46,6 +46,31 @@ export const spinKey = (centre: string, level: string, method: string, t: number
 export const distanceKey = (a: string, b: string, structure: string) =>
 	`${a < b ? a : b}|${a < b ? b : a}|${structure.toLowerCase()}`;
 
+const PAGE = 5000;
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+/**
+ * All rows of a query, read a page at a time in entry-id order with a pause between pages, so
+ * that reading a large catalogue never holds the event loop for long.
+ */
+async function paged<T extends { entry_id: number }>(
+	page: (afterId: number) => Promise<T[]>,
+	each: (row: T) => void = () => {}
+): Promise<T[]> {
+	const all: T[] = [];
+	let after = 0;
+	for (;;) {
+		const rows = await page(after);
+		for (const row of rows) {
+			all.push(row);
+			each(row);
+		}
+		if (rows.length < PAGE) return all;
+		after = (rows.at(-1) as T).entry_id;
+		await yieldToEventLoop();
+	}
+}
+
 export async function loadUploadLookups(
 	db: Kysely<Database>,
 	viewer: Viewer | null
@@ -56,9 +81,14 @@ export async function loadUploadLookups(
 			.innerJoin('entry', 'entry.id', `${table as 'protein'}.entry_id`)
 			.where((eb) => entryIsVisible(eb, 'entry', viewer));
 
-	const proteins = await visible('protein')
-		.select(['entry.accession', 'protein.entry_id', 'protein.name'])
-		.execute();
+	const proteins = await paged((after) =>
+		visible('protein')
+			.select(['entry.accession', 'protein.entry_id', 'protein.name'])
+			.where('protein.entry_id', '>', after)
+			.orderBy('protein.entry_id')
+			.limit(PAGE)
+			.execute()
+	);
 	const proteinsByAccession = new Map<string, { entryId: number; name: string }>();
 	const proteinsByName = new Map<string, { accession: string; entryId: number }[]>();
 	for (const p of proteins) {
@@ -70,18 +100,23 @@ export async function loadUploadLookups(
 		]);
 	}
 
-	const centres = await db
-		.selectFrom('centre')
-		.innerJoin('entry', 'entry.id', 'centre.entry_id')
-		.where((eb) => entryIsVisible(eb, 'entry', viewer))
-		.select([
-			'entry.accession',
-			'centre.entry_id',
-			'centre.protein_entry_id',
-			'centre.label',
-			'centre.cofactor_kind'
-		])
-		.execute();
+	const centres = await paged((after) =>
+		db
+			.selectFrom('centre')
+			.innerJoin('entry', 'entry.id', 'centre.entry_id')
+			.where((eb) => entryIsVisible(eb, 'entry', viewer))
+			.select([
+				'entry.accession',
+				'centre.entry_id',
+				'centre.protein_entry_id',
+				'centre.label',
+				'centre.cofactor_kind'
+			])
+			.where('centre.entry_id', '>', after)
+			.orderBy('centre.entry_id')
+			.limit(PAGE)
+			.execute()
+	);
 	const centresByAccession = new Map<string, CentreFact>();
 	const centresByProteinLabel = new Map<string, CentreFact>();
 	for (const c of centres) {
@@ -110,68 +145,82 @@ export async function loadUploadLookups(
 	// Duplicates and conflicts are judged against every approved value: a curator must hear of a
 	// clash with an embargoed value too, even if the contributor cannot see which one.
 	const potentialsByCentreCouple = new Map<string, ApprovedPotential[]>();
-	for (const p of await db
-		.selectFrom('potential')
-		.select([
-			'accession',
-			'centre_accession',
-			'couple',
-			'em_mv_she',
-			'uncertainty_mv',
-			'ph',
-			'temperature_k',
-			'method'
-		])
-		.execute()) {
-		const key = `${p.centre_accession}|${p.couple}`;
-		const list = potentialsByCentreCouple.get(key) ?? [];
-		list.push({
-			accession: p.accession,
-			couple: p.couple,
-			emMvShe: p.em_mv_she,
-			uncertaintyMv: p.uncertainty_mv,
-			ph: p.ph,
-			temperatureK: p.temperature_k,
-			method: p.method
-		});
-		potentialsByCentreCouple.set(key, list);
-	}
-
-	const accessionOf = new Map(
-		(
-			await db
-				.selectFrom('entry')
-				.select(['id', 'accession'])
-				.where('kind', '=', 'centre')
-				.execute()
-		).map((e) => [e.id, e.accession])
+	await paged(
+		(after) =>
+			db
+				.selectFrom('potential')
+				.select([
+					'entry_id',
+					'accession',
+					'centre_accession',
+					'couple',
+					'em_mv_she',
+					'uncertainty_mv',
+					'ph',
+					'temperature_k',
+					'method'
+				])
+				.where('entry_id', '>', after)
+				.orderBy('entry_id')
+				.limit(PAGE)
+				.execute(),
+		(p) => {
+			const key = `${p.centre_accession}|${p.couple}`;
+			const list = potentialsByCentreCouple.get(key) ?? [];
+			list.push({
+				accession: p.accession,
+				couple: p.couple,
+				emMvShe: p.em_mv_she,
+				uncertaintyMv: p.uncertainty_mv,
+				ph: p.ph,
+				temperatureK: p.temperature_k,
+				method: p.method
+			});
+			potentialsByCentreCouple.set(key, list);
+		}
 	);
+
+	const accessionOf = new Map(centres.map((c) => [c.entry_id, c.accession]));
 	const spinKeys = new Map<string, string>();
-	for (const s of await db
-		.selectFrom('spin_record')
-		.innerJoin('entry', 'entry.id', 'spin_record.entry_id')
-		.select([
-			'entry.accession',
-			'spin_record.centre_entry_id',
-			'spin_record.oxidation_level',
-			'spin_record.method',
-			'spin_record.temperature_k'
-		])
-		.execute()) {
+	const spins = await paged((after) =>
+		db
+			.selectFrom('spin_record')
+			.innerJoin('entry', 'entry.id', 'spin_record.entry_id')
+			.select([
+				'spin_record.entry_id',
+				'entry.accession',
+				'spin_record.centre_entry_id',
+				'spin_record.oxidation_level',
+				'spin_record.method',
+				'spin_record.temperature_k'
+			])
+			.where('spin_record.entry_id', '>', after)
+			.orderBy('spin_record.entry_id')
+			.limit(PAGE)
+			.execute()
+	);
+	for (const s of spins) {
 		const centre = accessionOf.get(s.centre_entry_id) ?? '';
 		spinKeys.set(spinKey(centre, s.oxidation_level, s.method, s.temperature_k), s.accession);
 	}
 	const distanceKeys = new Map<string, string>();
-	for (const d of await db
-		.selectFrom('distance')
-		.innerJoin('entry', 'entry.id', 'distance.entry_id')
-		.select([
-			'entry.accession',
-			'distance.centre_a_entry_id',
-			'distance.centre_b_entry_id',
-			'distance.structure_id'
-		])
-		.execute()) {
+	const distances = await paged((after) =>
+		db
+			.selectFrom('distance')
+			.innerJoin('entry', 'entry.id', 'distance.entry_id')
+			.select([
+				'distance.entry_id',
+				'entry.accession',
+				'distance.centre_a_entry_id',
+				'distance.centre_b_entry_id',
+				'distance.structure_id'
+			])
+			.where('distance.entry_id', '>', after)
+			.orderBy('distance.entry_id')
+			.limit(PAGE)
+			.execute()
+	);
+	for (const d of distances) {
 		distanceKeys.set(
 			distanceKey(
 				accessionOf.get(d.centre_a_entry_id) ?? '',
