@@ -14,6 +14,10 @@ import {
 import { commentMail, outcomeMail } from './notices';
 import type { OutgoingMail } from './outbox';
 import { setSubmissionStatus, submissionVersions } from './submissions';
+import { yieldToEventLoop } from '../eventLoop';
+
+/** Approving a large batch pauses every so many rows so that other requests are served. */
+const YIELD_EVERY = 100;
 
 /**
  * A curator's side of curation: the decision on a submission and the comment thread. Approval
@@ -57,7 +61,9 @@ export async function decideSubmission(
 	const approved: DecisionOutcome['approved'] = [];
 	const now = new Date().toISOString();
 	if (decision.decision === 'approve') {
-		for (const v of await submissionVersions(trx, submissionId)) {
+		const versions = await submissionVersions(trx, submissionId);
+		for (const [i, v] of versions.entries()) {
+			if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
 			try {
 				const { version } = await approveVersion(trx, v.id, {
 					approvedBy: curator.id,
@@ -194,7 +200,8 @@ export async function decideBatch(
 	}
 	const now = new Date().toISOString();
 	const approved: DecisionOutcome['approved'] = [];
-	for (const v of versions) {
+	for (const [i, v] of versions.entries()) {
+		if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
 		if (v.row_number !== null && toReturn.has(v.row_number)) continue;
 		try {
 			const { version } = await approveVersion(trx, v.id, {

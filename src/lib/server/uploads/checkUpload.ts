@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import { yieldToEventLoop } from '../eventLoop';
 import type { Kysely } from 'kysely';
 import { potentialConflict } from '$lib/catalogue/conflicts';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
@@ -79,8 +80,6 @@ const REQUIRED_HINTS: Record<string, string> = {
 /** Stands in for the accession of a protein this file creates, until the commit assigns one. */
 const NEW_PROTEIN_PLACEHOLDER = 'HL000000';
 const YIELD_EVERY = 500;
-
-const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 export async function checkUpload(
 	db: Kysely<Database>,

@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { yieldToEventLoop } from '../eventLoop';
 import { formatAccession } from '$lib/schemas/accession';
 import { UPLOAD_KIND_LABELS } from '$lib/catalogue/uploadColumns';
 import type { SessionUser } from '../auth/roles';
@@ -23,7 +24,6 @@ export class UploadHasErrorsError extends Error {
 }
 
 const CHUNK_ROWS = 500;
-const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 export interface CommitResult {
 	submissionId: number;

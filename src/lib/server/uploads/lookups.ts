@@ -1,4 +1,5 @@
 import type { Kysely } from 'kysely';
+import { yieldToEventLoop } from '../eventLoop';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
@@ -47,7 +48,6 @@ export const distanceKey = (a: string, b: string, structure: string) =>
 	`${a < b ? a : b}|${a < b ? b : a}|${structure.toLowerCase()}`;
 
 const PAGE = 5000;
-const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /**
  * All rows of a query, read a page at a time in entry-id order with a pause between pages, so
