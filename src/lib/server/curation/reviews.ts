@@ -35,6 +35,24 @@ async function loadSubmission(trx: Kysely<Database>, submissionId: number) {
 	return submission;
 }
 
+/**
+ * The submission a curator is about to decide on, checked to await a decision and (four eyes)
+ * not to be the curator's own.
+ */
+async function loadForDecision(trx: Kysely<Database>, curator: SessionUser, submissionId: number) {
+	assertRole(curator, 'curator');
+	const submission = await loadSubmission(trx, submissionId);
+	if (submission.status !== 'submitted') {
+		throw new SubmissionStateError(
+			`submission ${submissionId} is ${submission.status}; only submitted ones await a decision`
+		);
+	}
+	if (submission.submitted_by === curator.id) {
+		throw new SubmissionAccessError('another curator must review your own submission');
+	}
+	return submission;
+}
+
 export interface DecisionOutcome {
 	approved: { accession: string; version: number }[];
 	mails: OutgoingMail[];
@@ -47,17 +65,7 @@ export async function decideSubmission(
 	decision: { decision: ReviewDecision; comment: string },
 	origin: string
 ): Promise<DecisionOutcome> {
-	assertRole(curator, 'curator');
-	const submission = await loadSubmission(trx, submissionId);
-	if (submission.status !== 'submitted') {
-		throw new SubmissionStateError(
-			`submission ${submissionId} is ${submission.status}; only submitted ones await a decision`
-		);
-	}
-	// Four eyes: nobody approves, returns or rejects their own submission.
-	if (submission.submitted_by === curator.id) {
-		throw new SubmissionAccessError('another curator must review your own submission');
-	}
+	const submission = await loadForDecision(trx, curator, submissionId);
 	const approved: DecisionOutcome['approved'] = [];
 	const now = new Date().toISOString();
 	if (decision.decision === 'approve') {
@@ -171,16 +179,7 @@ export async function decideBatch(
 	decision: { returnRows: number[]; comment: string },
 	origin: string
 ): Promise<DecisionOutcome & { returned: number }> {
-	assertRole(curator, 'curator');
-	const submission = await loadSubmission(trx, submissionId);
-	if (submission.status !== 'submitted') {
-		throw new SubmissionStateError(
-			`submission ${submissionId} is ${submission.status}; only submitted ones await a decision`
-		);
-	}
-	if (submission.submitted_by === curator.id) {
-		throw new SubmissionAccessError('another curator must review your own submission');
-	}
+	const submission = await loadForDecision(trx, curator, submissionId);
 	const versions = await trx
 		.selectFrom('entry_version')
 		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
