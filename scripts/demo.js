@@ -39,7 +39,11 @@ for (let i = 0; i < 100; i++) {
 			console.log('Demo accounts (sign in at /signin):');
 			for (const a of accounts)
 				console.log(`  ${a.role.padEnd(12)} ${a.email.padEnd(32)} ${a.password}`);
-			console.log('');
+			console.log(
+				'\nMail the app sends (confirmations, sign-in links, review notices) lands in a local\n' +
+					'mailbox the admin reads at /admin/mail. "Continue with the demo institution" on\n' +
+					'/signin goes to a local OpenID Connect provider that accepts any e-mail address.\n'
+			);
 			break;
 		}
 	} catch {
