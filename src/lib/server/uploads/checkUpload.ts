@@ -3,12 +3,7 @@ import { yieldToEventLoop } from '../eventLoop';
 import type { Kysely } from 'kysely';
 import { potentialConflict } from '$lib/catalogue/conflicts';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
-import {
-	UPLOAD_COLUMNS,
-	columnForHeader,
-	type UploadColumn,
-	type UploadKind
-} from '$lib/catalogue/uploadColumns';
+import { UPLOAD_COLUMNS, columnForHeader, type UploadKind } from '$lib/catalogue/uploadColumns';
 import { isAccession } from '$lib/schemas/accession';
 import type { EntryData } from '$lib/schemas/entryData';
 import { proteinSchema, type Protein } from '$lib/schemas/protein';
@@ -170,19 +165,18 @@ export async function checkUpload(
 		const resolved = resolveReferences(state, values, texts, (col, val, msg) =>
 			issue(row, headerOf(col), val, msg)
 		);
-		const parsed = parseEntryInput(kind, stripHelperColumns(kind, values));
+		const parsed = parseEntryInput(kind, stripHelperColumns(values));
 		if (!parsed.ok) {
 			for (const [field, messages] of Object.entries(parsed.fields)) {
 				if (missing.has(field) && messages.every((m) => m === 'required')) continue;
-				if (issues.slice(before).some((x) => x.column === headerOf(field))) continue;
+				if (hasIssueSince(issues, before, (x) => x.column === headerOf(field))) continue;
 				const message = messages.includes('required')
 					? (REQUIRED_HINTS[field] ?? 'required')
 					: messages.join('; ');
 				issue(row, headerOf(field), texts[field] ?? '', message);
 			}
 		}
-		if (issues.length > before && issues.slice(before).some((x) => x.severity === 'error'))
-			continue;
+		if (hasIssueSince(issues, before, (x) => x.severity === 'error')) continue;
 		if (!parsed.ok || !resolved) continue;
 
 		const warnings: string[] = [];
@@ -236,6 +230,15 @@ export async function checkUpload(
 
 type Report = (column: string, value: string, message: string) => void;
 
+function hasIssueSince(
+	issues: UploadIssue[],
+	from: number,
+	test: (i: UploadIssue) => boolean
+): boolean {
+	for (let i = from; i < issues.length; i++) if (test(issues[i] as UploadIssue)) return true;
+	return false;
+}
+
 interface RowState {
 	kind: UploadKind;
 	lookups: UploadLookups;
@@ -274,29 +277,22 @@ function applyPotentialExtras(
 	}
 }
 
-/** Columns that only help find a protein or centre, removed before the entity schema sees the row. */
-function stripHelperColumns(
-	kind: UploadKind,
-	values: Record<string, unknown>
-): Record<string, unknown> {
-	const helpers = new Set(
-		UPLOAD_COLUMNS[kind]
-			.filter((c: UploadColumn) =>
-				[
-					'protein',
-					'centreLabel',
-					'centreALabel',
-					'centreBLabel',
-					'proteinName',
-					'organism',
-					'uniprot',
-					'structureIds'
-				].includes(c.name)
-			)
-			.map((c) => c.name)
-	);
-	// A centre's own fields are named like those of a new protein only for the protein columns above.
-	return Object.fromEntries(Object.entries(values).filter(([k]) => !helpers.has(k)));
+/** Columns that only find a protein or a centre (or describe a new protein); no entity field has these names. */
+const HELPER_COLUMNS = new Set([
+	'protein',
+	'centreLabel',
+	'centreALabel',
+	'centreBLabel',
+	'proteinName',
+	'organism',
+	'uniprot',
+	'structureIds'
+]);
+
+function stripHelperColumns(values: Record<string, unknown>): Record<string, unknown> {
+	const entity: Record<string, unknown> = {};
+	for (const key in values) if (!HELPER_COLUMNS.has(key)) entity[key] = values[key];
+	return entity;
 }
 
 function findProtein(
