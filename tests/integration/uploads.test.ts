@@ -256,11 +256,29 @@ describe('committing and reviewing a batch', () => {
 			.where('centre.label', '=', 'U2')
 			.executeTakeFirstOrThrow();
 		expect(centre.accession).toBe(versions[2]?.accession);
+		expect(outcome.mails[0]?.text).toContain('row 4: Cluster C: check the ligation');
 		const returnedComment = await db
 			.selectFrom('submission_comment')
 			.select(['entry_version_id', 'body'])
 			.where('submission_id', '=', result.submissionId)
 			.execute();
 		expect(returnedComment).toHaveLength(1);
+	});
+});
+
+describe('row comments of a batch decision', () => {
+	it('read "row: comment" lines, ranges included, and name a bad line', async () => {
+		const { batchDecisionSchema } = await import('$lib/schemas/submission');
+		expect(
+			batchDecisionSchema.parse({ returnRows: '2, 5-6', rowComments: '3: buffer?\n7-8) sign' })
+		).toEqual({
+			returnRows: [2, 5, 6],
+			rowComments: { 3: 'buffer?', 7: 'sign', 8: 'sign' },
+			comment: ''
+		});
+		const bad = batchDecisionSchema.safeParse({ rowComments: 'row four: sign' });
+		expect(bad.success || bad.error.issues[0]?.message).toBe(
+			'line 1: expected "row: comment", e.g. "4: check the ligation"'
+		);
 	});
 });

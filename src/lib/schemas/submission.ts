@@ -244,7 +244,32 @@ export const rowListField = z
 		return [...rows].sort((x, y) => x - y);
 	});
 
+/** One comment per returned row, a line each: "4: check the ligation" (ranges allowed: "9-12: …"). */
+export const rowCommentsField = z
+	.string()
+	.max(100_000)
+	.default('')
+	.transform((text, ctx) => {
+		const comments: Record<number, string> = {};
+		for (const [index, line] of text.split(/\r?\n/).entries()) {
+			if (!line.trim()) continue;
+			const m = /^\s*(\d+)(?:\s*-\s*(\d+))?\s*[:.)]\s*(.+)$/.exec(line);
+			const from = Number(m?.[1]);
+			const to = m?.[2] === undefined ? from : Number(m[2]);
+			if (!m || to < from) {
+				ctx.addIssue({
+					code: 'custom',
+					message: `line ${index + 1}: expected "row: comment", e.g. "4: check the ligation"`
+				});
+				return z.NEVER;
+			}
+			for (let r = from; r <= to; r++) comments[r] = (m[3] as string).trim();
+		}
+		return comments;
+	});
+
 export const batchDecisionSchema = z.object({
 	returnRows: rowListField.default([]),
+	rowComments: rowCommentsField,
 	comment: z.string().trim().max(4000).default('')
 });

@@ -176,7 +176,7 @@ export async function decideBatch(
 	trx: Kysely<Database>,
 	curator: SessionUser,
 	submissionId: number,
-	decision: { returnRows: number[]; comment: string },
+	decision: { returnRows: number[]; rowComments?: Record<number, string>; comment: string },
 	origin: string
 ): Promise<DecisionOutcome & { returned: number }> {
 	const submission = await loadForDecision(trx, curator, submissionId);
@@ -187,15 +187,22 @@ export async function decideBatch(
 		.where('entry_version.submission_id', '=', submissionId)
 		.orderBy('entry_version.id')
 		.execute();
-	const toReturn = new Set(decision.returnRows);
-	const unknown = decision.returnRows.filter((r) => !versions.some((v) => v.row_number === r));
+	const rowComments = decision.rowComments ?? {};
+	// A row given its own comment is returned too.
+	const toReturn = new Set([...decision.returnRows, ...Object.keys(rowComments).map(Number)]);
+	const unknown = [...toReturn].filter((r) => !versions.some((v) => v.row_number === r));
 	if (unknown.length > 0) {
 		throw new SubmissionInvalidError({
 			returnRows: [`no rows ${unknown.join(', ')} in this batch`]
 		});
 	}
-	if (toReturn.size > 0 && decision.comment.trim().length < 3) {
-		throw new SubmissionInvalidError({ comment: ['say what needs changing in the returned rows'] });
+	const uncommented = [...toReturn].filter((r) => !rowComments[r]);
+	if (uncommented.length > 0 && decision.comment.trim().length < 3) {
+		throw new SubmissionInvalidError({
+			comment: [
+				`say what needs changing in row(s) ${uncommented.join(', ')} here, or give each its own line below`
+			]
+		});
 	}
 	const now = new Date().toISOString();
 	const approved: DecisionOutcome['approved'] = [];
@@ -217,9 +224,8 @@ export async function decideBatch(
 			throw e;
 		}
 	}
-	const returnedIds = versions
-		.filter((v) => v.row_number !== null && toReturn.has(v.row_number))
-		.map((v) => v.id);
+	const returned = versions.filter((v) => v.row_number !== null && toReturn.has(v.row_number));
+	const returnedIds = returned.map((v) => v.id);
 	if (returnedIds.length > 0) {
 		await trx
 			.updateTable('entry_version')
@@ -229,11 +235,11 @@ export async function decideBatch(
 		await trx
 			.insertInto('submission_comment')
 			.values(
-				returnedIds.map((id) => ({
+				returned.map((v) => ({
 					submission_id: submissionId,
-					entry_version_id: id,
+					entry_version_id: v.id,
 					author_id: curator.id,
-					body: decision.comment
+					body: rowComments[v.row_number as number] ?? decision.comment
 				}))
 			)
 			.execute();
@@ -266,9 +272,12 @@ export async function decideBatch(
 		after: { status, approved: approved.length, returnedRows: [...toReturn].sort((a, b) => a - b) },
 		detail: decision.comment || null
 	});
+	const perRow = returned
+		.map((v) => `  row ${v.row_number}: ${rowComments[v.row_number as number] ?? decision.comment}`)
+		.join('\n');
 	const comment =
 		returnedIds.length > 0
-			? `${approved.length} row(s) approved; rows ${[...toReturn].sort((a, b) => a - b).join(', ')} returned: ${decision.comment}`
+			? `${approved.length} row(s) approved; ${returned.length} returned:\n${perRow}`
 			: decision.comment;
 	const mails = await outcomeMail(
 		trx,

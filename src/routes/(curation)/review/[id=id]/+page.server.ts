@@ -54,6 +54,7 @@ export const actions: Actions = {
 		const parsed = batchDecisionSchema.safeParse(values);
 		const strings = {
 			returnRows: String(values.returnRows ?? ''),
+			rowComments: String(values.rowComments ?? ''),
 			comment: String(values.comment ?? '')
 		};
 		if (!parsed.success) return fail(400, { values: strings, errors: fieldErrors(parsed.error) });
