@@ -17,6 +17,14 @@ export const UPLOAD_KIND_LABELS: Record<UploadKind, string> = {
 	centre: 'Centres and proteins'
 };
 
+/** What one row of each kind of file is, in the plural, for titles and counts. */
+export const UPLOAD_KIND_NOUNS: Record<UploadKind, string> = {
+	potential: 'potentials',
+	spin_record: 'spin records',
+	distance: 'distances',
+	centre: 'centres'
+};
+
 export interface UploadColumn extends FormField {
 	/** Other header spellings accepted (compared without case, spaces, units or punctuation). */
 	aliases: readonly string[];

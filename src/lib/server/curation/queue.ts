@@ -297,15 +297,17 @@ export async function loadSubmissionView(
 	const comments = await db
 		.selectFrom('submission_comment')
 		.innerJoin('User', 'User.id', 'submission_comment.author_id')
+		.leftJoin('entry_version', 'entry_version.id', 'submission_comment.entry_version_id')
 		.select([
 			'submission_comment.id',
 			'submission_comment.body',
 			'submission_comment.created_at',
+			'entry_version.row_number',
 			'User.email',
 			'User.name',
 			'User.role'
 		])
-		.where('submission_id', '=', submissionId)
+		.where('submission_comment.submission_id', '=', submissionId)
 		.orderBy('submission_comment.id')
 		.execute();
 	const reviews = await db
@@ -331,7 +333,8 @@ export async function loadSubmissionView(
 		versions,
 		comments: comments.map((c) => ({
 			id: c.id,
-			body: c.body,
+			// A comment on one row of a CSV batch says which row.
+			body: c.row_number === null ? c.body : `Row ${c.row_number}: ${c.body}`,
 			at: c.created_at,
 			author: c.name ?? c.email ?? 'unknown',
 			role: c.role

@@ -1,7 +1,7 @@
 import { sql, type Kysely } from 'kysely';
 import { yieldToEventLoop } from '../eventLoop';
 import { formatAccession } from '$lib/schemas/accession';
-import { UPLOAD_KIND_LABELS } from '$lib/catalogue/uploadColumns';
+import { UPLOAD_KIND_NOUNS } from '$lib/catalogue/uploadColumns';
 import type { SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
 import type { Database } from '../db/schema';
@@ -52,7 +52,7 @@ export async function commitUpload(
 		.values({
 			channel: 'csv',
 			status: 'submitted',
-			title: `CSV batch: ${check.entries.length} ${UPLOAD_KIND_LABELS[check.kind].toLowerCase()}${check.proteins.length ? ` and ${check.proteins.length} new protein(s)` : ''} from ${meta.filename}`,
+			title: `CSV batch: ${check.entries.length} ${UPLOAD_KIND_NOUNS[check.kind]}${check.proteins.length ? ` and ${check.proteins.length} new protein(s)` : ''} from ${meta.filename}`,
 			submitted_by: user.id,
 			content_sha256: check.sha256,
 			row_count: check.rowCount,
