@@ -76,18 +76,7 @@ async function batchCounts(db: Kysely<Database>, submissionId: number) {
 	};
 }
 
-async function summarise(
-	db: Kysely<Database>,
-	rows: {
-		id: number;
-		title: string;
-		status: SubmissionStatus;
-		channel: string;
-		submitted_at: string | null;
-		updated_at: string;
-		contributor: string | null;
-	}[]
-): Promise<QueueRow[]> {
+async function summarise(db: Kysely<Database>, rows: SubmissionListRow[]): Promise<QueueRow[]> {
 	const out: QueueRow[] = [];
 	for (const s of rows) {
 		if (s.channel === 'csv') {

@@ -53,6 +53,34 @@ async function loadForDecision(trx: Kysely<Database>, curator: SessionUser, subm
 	return submission;
 }
 
+/**
+ * Approves versions in the order given (proteins of a batch before the centres naming them),
+ * pausing now and then so other requests are served. A reference that does not resolve is
+ * reported with the row and accession it belongs to.
+ */
+async function approveInOrder(
+	trx: Kysely<Database>,
+	curator: SessionUser,
+	versions: readonly { id: number; accession: string; row_number?: number | null }[],
+	approvedAt: string
+): Promise<DecisionOutcome['approved']> {
+	const approved: DecisionOutcome['approved'] = [];
+	for (const [i, v] of versions.entries()) {
+		if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
+		try {
+			const { version } = await approveVersion(trx, v.id, { approvedBy: curator.id, approvedAt });
+			approved.push({ accession: v.accession, version });
+		} catch (e) {
+			if (e instanceof InvalidEntryDataError) {
+				const where = v.row_number ? `row ${v.row_number} (${v.accession})` : v.accession;
+				throw new SubmissionInvalidError({ [e.field]: [`${where}: ${e.detail}`] });
+			}
+			throw e;
+		}
+	}
+	return approved;
+}
+
 export interface DecisionOutcome {
 	approved: { accession: string; version: number }[];
 	mails: OutgoingMail[];
@@ -66,25 +94,12 @@ export async function decideSubmission(
 	origin: string
 ): Promise<DecisionOutcome> {
 	const submission = await loadForDecision(trx, curator, submissionId);
-	const approved: DecisionOutcome['approved'] = [];
 	const now = new Date().toISOString();
+	const approved =
+		decision.decision === 'approve'
+			? await approveInOrder(trx, curator, await submissionVersions(trx, submissionId), now)
+			: [];
 	if (decision.decision === 'approve') {
-		const versions = await submissionVersions(trx, submissionId);
-		for (const [i, v] of versions.entries()) {
-			if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
-			try {
-				const { version } = await approveVersion(trx, v.id, {
-					approvedBy: curator.id,
-					approvedAt: now
-				});
-				approved.push({ accession: v.accession, version });
-			} catch (e) {
-				if (e instanceof InvalidEntryDataError) {
-					throw new SubmissionInvalidError({ [e.field]: [`${v.accession}: ${e.detail}`] });
-				}
-				throw e;
-			}
-		}
 		await trx
 			.updateTable('submission')
 			.set({ status: 'approved', updated_at: now })
@@ -205,25 +220,12 @@ export async function decideBatch(
 		});
 	}
 	const now = new Date().toISOString();
-	const approved: DecisionOutcome['approved'] = [];
-	for (const [i, v] of versions.entries()) {
-		if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
-		if (v.row_number !== null && toReturn.has(v.row_number)) continue;
-		try {
-			const { version } = await approveVersion(trx, v.id, {
-				approvedBy: curator.id,
-				approvedAt: now
-			});
-			approved.push({ accession: v.accession, version });
-		} catch (e) {
-			if (e instanceof InvalidEntryDataError) {
-				throw new SubmissionInvalidError({
-					[e.field]: [`row ${v.row_number ?? '?'} (${v.accession}): ${e.detail}`]
-				});
-			}
-			throw e;
-		}
-	}
+	const approved = await approveInOrder(
+		trx,
+		curator,
+		versions.filter((v) => v.row_number === null || !toReturn.has(v.row_number)),
+		now
+	);
 	const returned = versions.filter((v) => v.row_number !== null && toReturn.has(v.row_number));
 	const returnedIds = returned.map((v) => v.id);
 	if (returnedIds.length > 0) {
