@@ -1,18 +1,13 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { launchChromium } from '../support/browser';
+import { launchChromium, signedInPage } from '../support/browser';
 
 const base = inject('baseUrl');
 let browser: Browser;
 let page: Page;
 beforeAll(async () => {
 	browser = await launchChromium();
-	page = await (await browser.newContext({ baseURL: base })).newPage();
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill('admin@demo.hopline.test');
-	await page.getByLabel('Password').fill('demo-admin-pass');
-	await page.getByRole('button', { name: 'Sign in' }).click();
-	await page.getByTestId('user-menu').waitFor();
+	page = await signedInPage(browser, base, 'admin@demo.hopline.test', 'demo-admin-pass');
 });
 afterAll(async () => browser?.close());
 
@@ -59,12 +54,12 @@ describe('administration in Chromium', () => {
 		expect(await page.getByTestId('admin-error').textContent()).toContain('last active admin');
 	});
 	it('a curator may not open the admin pages', async () => {
-		const other = await (await browser.newContext({ baseURL: base })).newPage();
-		await other.goto('/signin');
-		await other.getByLabel('E-mail').fill('curator@demo.hopline.test');
-		await other.getByLabel('Password').fill('demo-curator-pass');
-		await other.getByRole('button', { name: 'Sign in' }).click();
-		await other.getByTestId('user-menu').waitFor();
+		const other = await signedInPage(
+			browser,
+			base,
+			'curator@demo.hopline.test',
+			'demo-curator-pass'
+		);
 		const res = await other.goto('/admin/users');
 		expect(res?.status()).toBe(403);
 		expect(await other.locator('main').textContent()).toContain('needs the admin role');

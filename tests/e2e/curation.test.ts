@@ -1,6 +1,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { launchChromium } from '../support/browser';
+import { launchChromium, signedInPage } from '../support/browser';
+import { readDemoMail } from '../support/demoMail';
 
 /**
  * The curation story in real Chromium: a contributor's value with a range warning goes to the
@@ -14,26 +15,8 @@ let curator: Page;
 let admin: Page;
 let visitor: Page;
 
-async function signedIn(email: string, password: string): Promise<Page> {
-	const page = await (await browser.newContext({ baseURL: base })).newPage();
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill(email);
-	await page.getByLabel('Password').fill(password);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-	await page.getByTestId('user-menu').waitFor();
-	return page;
-}
-
-/** The newest message to `to` whose subject matches, read from the demo mailbox by the admin. */
-async function mailTo(to: string, subject: RegExp): Promise<string> {
-	await admin.goto('/admin/mail');
-	const message = admin
-		.locator('[data-testid=mail-message]', { hasText: to })
-		.filter({ hasText: subject })
-		.first();
-	await message.waitFor({ timeout: 10_000 });
-	return (await message.textContent()) ?? '';
-}
+const mailTo = (to: string, subject: RegExp) => readDemoMail(admin, to, subject);
+const signedIn = (email: string, password: string) => signedInPage(browser, base, email, password);
 
 /** A demo [4Fe-4S] centre with an approved 2+/1+ potential at pH 7, and that potential. */
 async function demoCentre(): Promise<{ centre: string; emMvShe: number }> {

@@ -1,35 +1,22 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { launchChromium } from '../support/browser';
+import { launchChromium, signedInPage, submitSignIn } from '../support/browser';
+import { linkIn, readDemoMail } from '../support/demoMail';
 
 const base = inject('baseUrl');
 let browser: Browser;
 let visitor: Page;
 let admin: Page;
 
-async function signIn(page: Page, email: string, password: string) {
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill(email);
-	await page.getByLabel('Password').fill(password);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-}
-
 /** The newest link to `path` in mail to `to`, read from the demo mailbox as an admin would. */
 async function linkFromMail(to: string, path: string): Promise<string> {
-	await admin.goto('/admin/mail');
-	const message = admin.locator('[data-testid=mail-message]', { hasText: to }).first();
-	const text = (await message.textContent()) ?? '';
-	const link = new RegExp(`${base}${path}[^\\s]+`).exec(text)?.[0];
-	if (!link) throw new Error(`no ${path} link in mail to ${to}: ${text}`);
-	return link;
+	return linkIn(await readDemoMail(admin, to), `${base}${path}`);
 }
 
 beforeAll(async () => {
 	browser = await launchChromium();
 	visitor = await (await browser.newContext({ baseURL: base })).newPage();
-	admin = await (await browser.newContext({ baseURL: base })).newPage();
-	await signIn(admin, 'admin@demo.hopline.test', 'demo-admin-pass');
-	await admin.getByTestId('user-menu').waitFor();
+	admin = await signedInPage(browser, base, 'admin@demo.hopline.test', 'demo-admin-pass');
 });
 afterAll(async () => browser?.close());
 
@@ -53,7 +40,7 @@ describe('sign-up and password reset by e-mail', () => {
 		await visitor.getByRole('button', { name: 'Create account' }).click();
 		await visitor.getByTestId('signup-sent').waitFor();
 
-		await signIn(visitor, email, 'first-password-1');
+		await submitSignIn(visitor, email, 'first-password-1');
 		expect(await visitor.getByTestId('signin-error').textContent()).toContain(
 			'Confirm your e-mail address'
 		);
@@ -64,7 +51,7 @@ describe('sign-up and password reset by e-mail', () => {
 		await visitor.goto(link);
 		expect(await visitor.getByTestId('verify-result').textContent()).toContain('does not work');
 
-		await signIn(visitor, email, 'first-password-1');
+		await submitSignIn(visitor, email, 'first-password-1');
 		await visitor.getByTestId('user-menu').waitFor();
 		expect(await visitor.getByTestId('user-menu').textContent()).toContain('reader');
 	});
@@ -82,7 +69,7 @@ describe('sign-up and password reset by e-mail', () => {
 		await other.getByRole('button', { name: 'Set password' }).click();
 		await other.getByTestId('reset-done').waitFor();
 
-		await signIn(other, email, 'second-password-2');
+		await submitSignIn(other, email, 'second-password-2');
 		await other.getByTestId('user-menu').waitFor();
 
 		const again = await (await browser.newContext({ baseURL: base })).newPage();

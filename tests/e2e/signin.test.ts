@@ -1,6 +1,6 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
-import { launchChromium } from '../support/browser';
+import { launchChromium, submitSignIn } from '../support/browser';
 
 const base = inject('baseUrl');
 let browser: Browser;
@@ -16,12 +16,7 @@ beforeEach(async () => {
 	page = await context.newPage();
 });
 
-async function signIn(email: string, password: string) {
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill(email);
-	await page.getByLabel('Password').fill(password);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-}
+const signIn = (email: string, password: string) => submitSignIn(page, email, password);
 
 describe('sign-in in Chromium', () => {
 	it('a demo curator signs in, sees the role, and signs out', async () => {

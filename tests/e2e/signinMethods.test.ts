@@ -1,6 +1,7 @@
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { launchChromium } from '../support/browser';
+import { launchChromium, signedInPage } from '../support/browser';
+import { linkIn, readDemoMail } from '../support/demoMail';
 
 // Sign-in by e-mail link (read from the SMTP fake) and by OpenID Connect (the oidc-provider fake).
 const base = inject('baseUrl');
@@ -11,25 +12,12 @@ const fresh = async () => (await browser.newContext({ baseURL: base })).newPage(
 
 beforeAll(async () => {
 	browser = await launchChromium();
-	admin = await fresh();
-	await admin.goto('/signin');
-	await admin.getByLabel('E-mail').fill('admin@demo.hopline.test');
-	await admin.getByLabel('Password').fill('demo-admin-pass');
-	await admin.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await admin.getByTestId('user-menu').waitFor();
+	admin = await signedInPage(browser, base, 'admin@demo.hopline.test', 'demo-admin-pass');
 });
 afterAll(async () => browser?.close());
 
 async function signInLink(to: string): Promise<string> {
-	await admin.goto('/admin/mail');
-	const message = admin
-		.locator('[data-testid=mail-message]', { hasText: to })
-		.filter({ hasText: 'sign-in link' })
-		.first();
-	const text = (await message.textContent()) ?? '';
-	const link = new RegExp(`${base}/auth/callback/email[^\\s]+`).exec(text)?.[0];
-	if (!link) throw new Error(`no sign-in link in mail to ${to}: ${text}`);
-	return link;
+	return linkIn(await readDemoMail(admin, to, 'sign-in link'), `${base}/auth/callback/email`);
 }
 
 describe('sign-in by e-mail link', () => {

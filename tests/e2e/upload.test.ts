@@ -5,7 +5,7 @@ import type { Browser, Page } from 'playwright-core';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import '../support/fast-check';
-import { launchChromium } from '../support/browser';
+import { launchChromium, signedInPage } from '../support/browser';
 import { signInCookie } from '../support/session';
 
 // The CSV story in Chromium: three errors, the report, the fix, a dry run, the commit, the
@@ -16,15 +16,8 @@ let contributor: Page;
 let curator: Page;
 const dir = mkdtempSync(join(tmpdir(), 'hopline-upload-'));
 
-async function signedIn(email: string, password: string): Promise<Page> {
-	const page = await (await browser.newContext({ baseURL: base, acceptDownloads: true })).newPage();
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill(email);
-	await page.getByLabel('Password').fill(password);
-	await page.getByRole('button', { name: 'Sign in', exact: true }).click();
-	await page.getByTestId('user-menu').waitFor();
-	return page;
-}
+const signedIn = (email: string, password: string) =>
+	signedInPage(browser, base, email, password, { acceptDownloads: true });
 
 beforeAll(async () => {
 	browser = await launchChromium();

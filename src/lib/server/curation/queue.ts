@@ -185,6 +185,32 @@ export interface VersionView {
 	approvedVersion: number | null;
 }
 
+/** The versions of a form submission, with what the page shows of each. */
+function formVersionRows(db: Kysely<Database>, submissionId: number) {
+	return db
+		.selectFrom('entry_version')
+		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+		.leftJoin('research_group', 'research_group.id', 'entry_version.group_id')
+		.select([
+			'entry_version.id',
+			'entry_version.status',
+			'entry_version.data',
+			'entry_version.change_note',
+			'entry_version.based_on_version',
+			'entry_version.version',
+			'entry_version.visibility',
+			'entry_version.group_id',
+			'entry_version.embargo_until',
+			'research_group.name as groupName',
+			'entry.id as entryId',
+			'entry.kind',
+			'entry.accession'
+		])
+		.where('entry_version.submission_id', '=', submissionId)
+		.orderBy('entry_version.id')
+		.execute();
+}
+
 /**
  * One submission in full for its contributor or a curator; null for anyone else (who must not
  * learn that it exists).
@@ -217,29 +243,7 @@ export async function loadSubmissionView(
 		throw new SubmissionNotFoundError(submissionId);
 
 	// A CSV batch is read page by page (loadBatchRows), never whole here.
-	const rows = await db
-		.selectFrom('entry_version')
-		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
-		.leftJoin('research_group', 'research_group.id', 'entry_version.group_id')
-		.where(sql<boolean>`${submission.channel} != 'csv'`)
-		.select([
-			'entry_version.id',
-			'entry_version.status',
-			'entry_version.data',
-			'entry_version.change_note',
-			'entry_version.based_on_version',
-			'entry_version.version',
-			'entry_version.visibility',
-			'entry_version.group_id',
-			'entry_version.embargo_until',
-			'research_group.name as groupName',
-			'entry.id as entryId',
-			'entry.kind',
-			'entry.accession'
-		])
-		.where('entry_version.submission_id', '=', submissionId)
-		.orderBy('entry_version.id')
-		.execute();
+	const rows = submission.channel === 'csv' ? [] : await formVersionRows(db, submissionId);
 	const versions: VersionView[] = [];
 	for (const r of rows) {
 		const entry = parseEntryData(r.kind, JSON.parse(r.data));
