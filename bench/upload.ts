@@ -83,7 +83,8 @@ export async function benchUpload(dataset: string): Promise<void> {
 					filename: 'bench.csv',
 					visibility: { visibility: 'public', groupId: null, embargoUntil: null },
 					changeNote: null,
-					origin: 'http://bench.test'
+					origin: 'http://bench.test',
+					pendingRowsMax: 1_000_000
 				}
 			)
 		);

@@ -104,7 +104,8 @@ describe('the curation workflow', () => {
 				entry: potential(centre, 250),
 				visibility: PUBLIC,
 				changeNote: null,
-				editAccession: null
+				editAccession: null,
+				pendingRowsMax: 1000
 			})
 		);
 		expect(accession).toMatch(/^HL\d{6}$/);
@@ -218,7 +219,8 @@ describe('the curation workflow', () => {
 				entry: potential(centre, existing.em_mv_she, { uncertaintyMv: 5, note: 'remeasured' }),
 				visibility: PUBLIC,
 				changeNote: 'tighter uncertainty',
-				editAccession: existing.accession
+				editAccession: existing.accession,
+				pendingRowsMax: 1000
 			})
 		);
 		expect(accession).toBe(existing.accession);
@@ -257,7 +259,8 @@ describe('the curation workflow', () => {
 				entry: potential(centre, -255, { ph: 9 }),
 				visibility: { visibility: 'embargoed', groupId, embargoUntil: '2099-01-01T00:00:00.000Z' },
 				changeNote: null,
-				editAccession: null
+				editAccession: null,
+				pendingRowsMax: 1000
 			})
 		);
 		await tx((trx) => submitForReview(trx, member, submissionId, origin));
@@ -294,7 +297,8 @@ describe('the curation workflow', () => {
 					entry: potential(centre, -250),
 					visibility: { visibility: 'group', groupId, embargoUntil: null },
 					changeNote: null,
-					editAccession: null
+					editAccession: null,
+					pendingRowsMax: 1000
 				})
 			)
 		).rejects.toBeInstanceOf(SubmissionInvalidError);
@@ -306,7 +310,8 @@ describe('the curation workflow', () => {
 				entry: potential('HL999999', -250),
 				visibility: PUBLIC,
 				changeNote: null,
-				editAccession: null
+				editAccession: null,
+				pendingRowsMax: 1000
 			})
 		);
 		const error = await tx((trx) => submitForReview(trx, contributor, submissionId, origin)).catch(
@@ -314,7 +319,7 @@ describe('the curation workflow', () => {
 		);
 		expect(error).toBeInstanceOf(SubmissionInvalidError);
 		expect((error as SubmissionInvalidError).fields).toEqual({
-			centreAccession: ['no entry HL999999']
+			centreAccession: ['no centre HL999999 in the registry (or not visible to you)']
 		});
 		const s = await db
 			.selectFrom('submission')
@@ -330,7 +335,8 @@ describe('the curation workflow', () => {
 				entry: potential(centre, -250, { ph: 6 }),
 				visibility: PUBLIC,
 				changeNote: null,
-				editAccession: null
+				editAccession: null,
+				pendingRowsMax: 1000
 			})
 		);
 		await tx((trx) => submitForReview(trx, curator, submissionId, origin));
@@ -373,7 +379,8 @@ describe('the curation workflow', () => {
 				entry: potential(centre, -250, { ph: 5 }),
 				visibility: PUBLIC,
 				changeNote: null,
-				editAccession: null
+				editAccession: null,
+				pendingRowsMax: 1000
 			})
 		);
 		await tx((trx) => submitForReview(trx, contributor, submissionId, origin));

@@ -123,7 +123,8 @@ describe('random CSV files', () => {
 							filename: 'fuzz.csv',
 							visibility: { visibility: 'public', groupId: null, embargoUntil: null },
 							changeNote: null,
-							origin: 'http://x.test'
+							origin: 'http://x.test',
+							pendingRowsMax: 1_000_000
 						})
 					)
 					.catch(() => null);

@@ -175,7 +175,8 @@ describe('committing and reviewing a batch', () => {
 					filename: 'bad.csv',
 					visibility: PUBLIC,
 					changeNote: null,
-					origin
+					origin,
+					pendingRowsMax: 1000
 				})
 			)
 		).rejects.toBeInstanceOf(UploadHasErrorsError);
@@ -193,7 +194,8 @@ describe('committing and reviewing a batch', () => {
 				filename: 'centres.csv',
 				visibility: PUBLIC,
 				changeNote: 'from our lab book',
-				origin
+				origin,
+				pendingRowsMax: 1000
 			})
 		);
 		expect(result.created).toBe(4);
@@ -220,7 +222,7 @@ describe('committing and reviewing a batch', () => {
 		// Centres of the new protein name its reserved accession.
 		expect(JSON.parse(versions[1]?.data ?? '{}').proteinAccession).toBe(versions[0]?.accession);
 
-		const again = await checkUpload(db, text, 'centre', options);
+		const again = await checkUpload(db, text, 'centre', { ...options, uploaderId: contributor.id });
 		expect(again.previousUpload?.submissionId).toBe(result.submissionId);
 
 		await expect(

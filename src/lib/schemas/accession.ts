@@ -1,18 +1,24 @@
 /**
- * Accessions: `HL` followed by exactly six digits. The number is the entry's row id, so an
- * accession is unique, never reused and says nothing about what the entry is.
+ * Accessions: `HL` followed by the entry's row id, written with six digits (zero-padded) up to
+ * 999 999 and with as many digits as it needs after that (HL1000000, …; never a leading zero
+ * there, so every number has exactly one spelling). The number is unique, never reused and says
+ * nothing about what the entry is. Every permalink minted with six digits stays valid.
  */
 
-export const ACCESSION_PATTERN = /^HL\d{6}$/;
-export const MAX_ACCESSION_NUMBER = 999_999;
+export const ACCESSION_PATTERN = /^HL(?:\d{6}|[1-9]\d{6,11})$/;
+/** Twelve digits: far beyond any registry, and still an exact integer in JavaScript and SQLite. */
+export const MAX_ACCESSION_NUMBER = 999_999_999_999;
+/** How an accession is described in messages. */
+export const ACCESSION_HINT = 'an accession: HL followed by six or more digits, e.g. HL000123';
 
 export function isAccession(value: string): boolean {
 	return ACCESSION_PATTERN.test(value);
 }
 
 /**
- * @throws {RangeError} when the id is not an integer from 1 to 999 999.
+ * @throws {RangeError} when the id is not an integer from 1 to MAX_ACCESSION_NUMBER.
  * @example formatAccession(123) // 'HL000123'
+ * @example formatAccession(1234567) // 'HL1234567'
  */
 export function formatAccession(id: number): string {
 	if (!Number.isInteger(id) || id < 1 || id > MAX_ACCESSION_NUMBER) {

@@ -1,12 +1,12 @@
 import { z } from 'zod';
-import { ACCESSION_PATTERN } from './accession';
+import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
 
 /** Field schemas shared by several entities: one definition of each rule. */
 
 export const accessionField = z
 	.string()
 	.trim()
-	.regex(ACCESSION_PATTERN, 'expected an accession: HL followed by six digits, e.g. HL000123');
+	.regex(ACCESSION_PATTERN, `expected ${ACCESSION_HINT}`);
 
 export const noteField = z.string().trim().max(4000).nullable().default(null);
 

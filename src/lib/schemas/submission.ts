@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
 import { ENTRY_DATA_SCHEMAS, type EntryData } from './entryData';
 import { normalisePotential, potentialInputSchema, potentialSchema } from './potential';
 import type { FieldErrors } from './searchParams';
@@ -177,11 +178,7 @@ export const auditQuerySchema = z.strictObject({
 		.regex(/^[a-z._]+$/, 'an action such as review.approve, or its start such as review')
 		.optional(),
 	actor: z.string().trim().toLowerCase().email('an e-mail address').optional(),
-	accession: z
-		.string()
-		.trim()
-		.regex(/^HL\d{6}$/, 'an accession such as HL000123')
-		.optional(),
+	accession: z.string().trim().regex(ACCESSION_PATTERN, ACCESSION_HINT).optional(),
 	submission: z.coerce.number().int().positive().optional(),
 	before: z.coerce.number().int().positive().optional()
 });
@@ -196,7 +193,7 @@ export const apiSubmissionSchema = z.strictObject({
 	data: z.record(z.string(), z.unknown()),
 	edit: z
 		.string()
-		.regex(/^HL\d{6}$/, 'the accession of the entry to change, e.g. HL000123')
+		.regex(ACCESSION_PATTERN, `the entry to change: ${ACCESSION_HINT}`)
 		.nullable()
 		.default(null),
 	visibility: z

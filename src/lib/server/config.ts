@@ -59,6 +59,11 @@ const configSchema = z.object({
 		.min(1024)
 		.default(20 * 1024 * 1024),
 	UPLOAD_MAX_ROWS: z.coerce.number().int().min(1).default(200_000),
+	/**
+	 * Most entry versions one contributor may have awaiting review (drafts, submitted, returned),
+	 * over forms, API and CSV together; the default lets one full-size file wait beside drafts.
+	 */
+	PENDING_ROWS_MAX: z.coerce.number().int().min(1).default(250_000),
 	/** Largest request body anywhere else (forms, JSON), bytes. */
 	BODY_MAX_BYTES: z.coerce
 		.number()

@@ -4,72 +4,14 @@ import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
 import { COFACTOR_KIND_LABELS, type CofactorKind, type EntryKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { EntryNotFoundError } from './errors';
-import { entryRowIsVisible, type Viewer } from './visibility';
+import type { Viewer } from './visibility';
+import { findVisibleEntry } from './visibleEntry';
 
 /** Reading one entry at one approved version, as permalinks show it. */
 
-/** Entries an entry of this kind depends on: seeing it requires seeing them. */
-async function dependencies(
-	db: Kysely<Database>,
-	entryId: number,
-	kind: EntryKind
-): Promise<number[]> {
-	const centresOf = async (ids: number[]) => {
-		const rows = await db
-			.selectFrom('centre')
-			.select('protein_entry_id')
-			.where('entry_id', 'in', ids.length ? ids : [-1])
-			.execute();
-		return [...ids, ...rows.map((r) => r.protein_entry_id)];
-	};
-	switch (kind) {
-		case 'centre':
-			return (await centresOf([entryId])).slice(1);
-		case 'potential': {
-			const p = await db
-				.selectFrom('potential')
-				.select('centre_entry_id')
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			return p ? centresOf([p.centre_entry_id]) : [];
-		}
-		case 'spin_record': {
-			const r = await db
-				.selectFrom('spin_record')
-				.select('centre_entry_id')
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			return r ? centresOf([r.centre_entry_id]) : [];
-		}
-		case 'distance': {
-			const d = await db
-				.selectFrom('distance')
-				.select(['centre_a_entry_id', 'centre_b_entry_id'])
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			return d ? centresOf([d.centre_a_entry_id, d.centre_b_entry_id]) : [];
-		}
-		default:
-			return [];
-	}
-}
-
-async function findVisibleEntry(db: Kysely<Database>, accession: string, viewer: Viewer | null) {
-	const entry = await db
-		.selectFrom('entry')
-		.selectAll()
-		.where('accession', '=', accession)
-		.executeTakeFirst();
-	if (!entry || !entryRowIsVisible(entry, viewer)) throw new EntryNotFoundError(accession);
-	const needed = await dependencies(db, entry.id, entry.kind);
-	if (needed.length > 0) {
-		const rows = await db
-			.selectFrom('entry')
-			.select(['visibility', 'embargo_until', 'group_id'])
-			.where('id', 'in', needed)
-			.execute();
-		if (!rows.every((r) => entryRowIsVisible(r, viewer))) throw new EntryNotFoundError(accession);
-	}
+async function findEntryOrThrow(db: Kysely<Database>, accession: string, viewer: Viewer | null) {
+	const entry = await findVisibleEntry(db, accession, viewer);
+	if (!entry) throw new EntryNotFoundError(accession);
 	return entry;
 }
 
@@ -158,7 +100,7 @@ export async function getEntryView(
 	version: number | undefined,
 	viewer: Viewer | null
 ): Promise<EntryView> {
-	const entry = await findVisibleEntry(db, accession, viewer);
+	const entry = await findEntryOrThrow(db, accession, viewer);
 	const versions = await approvedVersions(db, entry.id);
 	const latest = versions.at(-1);
 	if (!latest) throw new EntryNotFoundError(accession);
@@ -169,12 +111,13 @@ export async function getEntryView(
 	const references: EntryView['references'] = {};
 	for (const [field, value] of Object.entries(data)) {
 		if (!field.endsWith('Accession') || typeof value !== 'string') continue;
-		const ref = await db
-			.selectFrom('entry')
-			.select(['id', 'kind', 'visibility', 'embargo_until', 'group_id'])
-			.where('accession', '=', value)
-			.executeTakeFirst();
-		if (!ref || !entryRowIsVisible(ref, viewer)) continue;
+		const ref = await findVisibleEntry(db, value, viewer);
+		if (!ref) {
+			// A reference the reader may not see reads as no reference: its accession would
+			// reveal that a hidden entry exists.
+			data[field] = null;
+			continue;
+		}
 		references[field] = {
 			accession: value,
 			kind: ref.kind,
@@ -213,7 +156,7 @@ export async function compareVersions(
 	to: number,
 	viewer: Viewer | null
 ): Promise<{ changes: FieldChange[]; from: number; to: number }> {
-	const entry = await findVisibleEntry(db, accession, viewer);
+	const entry = await findEntryOrThrow(db, accession, viewer);
 	const versions = await approvedVersions(db, entry.id);
 	const a = versions.find((v) => v.version === from);
 	const b = versions.find((v) => v.version === to);

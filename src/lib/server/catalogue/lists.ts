@@ -36,8 +36,14 @@ export async function listProteins(
 	if (text.kind === 'accession') query = query.where('pe.accession', '=', text.accession);
 	if (text.kind === 'centres') {
 		const ids = text.ids.length > 0 ? text.ids : [-1];
+		// Only centres the reader may see can bring their protein into the answer.
 		query = query.where('pr.entry_id', 'in', (eb) =>
-			eb.selectFrom('centre').select('protein_entry_id').where('entry_id', 'in', ids)
+			eb
+				.selectFrom('centre as tc')
+				.innerJoin('entry as tce', 'tce.id', 'tc.entry_id')
+				.select('tc.protein_entry_id')
+				.where('tc.entry_id', 'in', ids)
+				.where((e2) => entryIsVisible(e2, 'tce', viewer))
 		);
 	}
 	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
@@ -57,9 +63,11 @@ export async function listProteins(
 			'pr.structure_ids',
 			'pe.is_demo',
 			eb
-				.selectFrom('centre')
+				.selectFrom('centre as cc')
+				.innerJoin('entry as cce', 'cce.id', 'cc.entry_id')
 				.select((e2) => e2.fn.countAll<number>().as('c'))
-				.whereRef('centre.protein_entry_id', '=', 'pr.entry_id')
+				.whereRef('cc.protein_entry_id', '=', 'pr.entry_id')
+				.where((e2) => entryIsVisible(e2, 'cce', viewer))
 				.as('centre_count')
 		])
 		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
@@ -179,8 +187,11 @@ export async function listSpinRecords(
 		temperature: 'r.temperature_k'
 	}[options.sort ?? 'accession'];
 	const rows = await query
-		.leftJoin('source as s', 's.entry_id', 'r.source_entry_id')
-		.leftJoin('entry as se', 'se.id', 'r.source_entry_id')
+		.leftJoin('entry as se', (join) =>
+			// A source the reader may not see is left out: its DOI and authors would leak.
+			join.onRef('se.id', '=', 'r.source_entry_id').on((eb) => entryIsVisible(eb, 'se', viewer))
+		)
+		.leftJoin('source as s', 's.entry_id', 'se.id')
 		.select([
 			'e.accession',
 			'r.version',
@@ -251,8 +262,11 @@ export async function listDistances(
 		options.sort ?? 'accession'
 	];
 	const rows = await query
-		.leftJoin('source as s', 's.entry_id', 'd.source_entry_id')
-		.leftJoin('entry as se', 'se.id', 'd.source_entry_id')
+		.leftJoin('entry as se', (join) =>
+			// A source the reader may not see is left out: its DOI and authors would leak.
+			join.onRef('se.id', '=', 'd.source_entry_id').on((eb) => entryIsVisible(eb, 'se', viewer))
+		)
+		.leftJoin('source as s', 's.entry_id', 'se.id')
 		.select([
 			'e.accession',
 			'd.version',

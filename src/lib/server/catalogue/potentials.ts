@@ -7,7 +7,7 @@ import { toPotentialDto } from './mappers';
 import { accessionNumber } from '$lib/schemas/accession';
 import { potentialIndex } from '../search/potentialIndex';
 import { resolveTextQuery } from './textMatch';
-import { potentialIsVisible, type Viewer } from './visibility';
+import { entryIsVisible, potentialIsVisible, type Viewer } from './visibility';
 
 export interface ListOptions<S extends string> {
 	sort?: S;
@@ -58,8 +58,13 @@ export async function listPotentials(
 			? []
 			: await db
 					.selectFrom('potential as p')
-					.leftJoin('source as s', 's.entry_id', 'p.source_entry_id')
-					.leftJoin('entry as se', 'se.id', 'p.source_entry_id')
+					.leftJoin('entry as se', (join) =>
+						// A source the reader may not see is left out: its DOI and authors would leak.
+						join
+							.onRef('se.id', '=', 'p.source_entry_id')
+							.on((eb) => entryIsVisible(eb, 'se', viewer))
+					)
+					.leftJoin('source as s', 's.entry_id', 'se.id')
 					.select([
 						'p.entry_id',
 						'p.accession',

@@ -3,17 +3,39 @@ import { COUPLES_BY_KIND, type CofactorKind, type EntryKind } from '$lib/schemas
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
 import { InvalidEntryDataError } from './errors';
+import type { Viewer } from './visibility';
+import { findVisibleEntry, notVisibleMessage } from './visibleEntry';
+
+/**
+ * Who resolves a reference: a reader (contributor checking a form, a CSV row, an API body), who
+ * may name only approved entries they can see; or the registry itself when approving, which
+ * resolves against everything approved.
+ */
+export type ReferenceReader = Viewer | null | 'registry';
 
 /**
  * Resolves an accession named in a version's data to the id of an approved entry of the
- * expected kind, or explains precisely why it cannot.
+ * expected kind, or explains precisely why it cannot — without telling a reader anything about
+ * an entry they may not see (see visibleEntry.ts).
  */
 export async function resolveReference(
 	db: Kysely<Database>,
 	field: string,
 	accession: string,
-	expected: EntryKind
+	expected: EntryKind,
+	reader: ReferenceReader = 'registry'
 ): Promise<number> {
+	if (reader !== 'registry') {
+		const row = await findVisibleEntry(db, accession, reader);
+		if (!row) throw new InvalidEntryDataError(field, notVisibleMessage(accession, expected));
+		if (row.kind !== expected) {
+			throw new InvalidEntryDataError(
+				field,
+				`${accession} is a ${row.kind}, expected a ${expected}`
+			);
+		}
+		return row.id;
+	}
 	const row = await db
 		.selectFrom('entry')
 		.select(['id', 'kind'])
@@ -80,7 +102,8 @@ const REFERENCE_FIELDS: Record<EntryKind, Record<string, EntryKind>> = {
  */
 export async function checkEntryReferences(
 	db: Kysely<Database>,
-	entry: EntryData
+	entry: EntryData,
+	reader: ReferenceReader
 ): Promise<Record<string, string[]>> {
 	const errors: Record<string, string[]> = {};
 	const data = entry.data as unknown as Record<string, unknown>;
@@ -89,7 +112,7 @@ export async function checkEntryReferences(
 		const accession = data[field];
 		if (typeof accession !== 'string') continue;
 		try {
-			ids[field] = await resolveReference(db, field, accession, expected);
+			ids[field] = await resolveReference(db, field, accession, expected, reader);
 		} catch (e) {
 			if (!(e instanceof InvalidEntryDataError)) throw e;
 			errors[field] = [e.detail];

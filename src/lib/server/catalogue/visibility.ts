@@ -86,3 +86,8 @@ export function potentialIsVisible<DB extends Database, TB extends keyof DB & st
 		...(groups.length > 0 ? [eb(sql.ref(`${alias}.group_id`), 'in', [...groups])] : [])
 	]);
 }
+
+/** The viewer a signed-in user reads as: their groups, whatever their role. */
+export function viewerOf(user: { groupIds: readonly number[] }): Viewer {
+	return { groupIds: user.groupIds };
+}

@@ -5,6 +5,7 @@ import type { EntryData } from '$lib/schemas/entryData';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { potentialIsVisible, type Viewer } from '../catalogue/visibility';
+import { findVisibleEntry } from '../catalogue/visibleEntry';
 
 /**
  * Warnings on a proposed version: things a curator should look at twice, none of which stops a
@@ -30,6 +31,12 @@ export async function warningsForVersion(
 ): Promise<VersionWarning[]> {
 	if (entry.kind !== 'potential') return [];
 	const d = entry.data;
+	const audience = options.audience;
+	// A centre the reader may not see gives no warning at all: even a range warning would name
+	// its cofactor kind.
+	if (audience !== 'curator' && !(await findVisibleEntry(db, d.centreAccession, audience))) {
+		return [];
+	}
 	const centre = await db
 		.selectFrom('centre')
 		.innerJoin('entry', 'entry.id', 'centre.entry_id')
@@ -53,7 +60,6 @@ export async function warningsForVersion(
 		.where('centre_entry_id', '=', centre.entry_id)
 		.where('couple', '=', d.couple);
 	if (options.entryId !== null) others = others.where('entry_id', '!=', options.entryId);
-	const audience = options.audience;
 	if (audience !== 'curator')
 		others = others.where((eb) => potentialIsVisible(eb, 'potential', audience));
 	for (const other of await others.execute()) {

@@ -36,3 +36,17 @@ export class SubmissionInvalidError extends Error {
 		this.name = 'SubmissionInvalidError';
 	}
 }
+
+/** A contributor already has as many rows awaiting review as one person may: 409. */
+export class PendingLimitError extends SubmissionStateError {
+	constructor(
+		readonly pending: number,
+		readonly adding: number,
+		readonly limit: number
+	) {
+		super(
+			`you have ${pending} row(s) awaiting review and this would add ${adding}; the limit is ${limit} per contributor — withdraw a submission or wait for its review`
+		);
+		this.name = 'PendingLimitError';
+	}
+}

@@ -4,7 +4,8 @@ import { parseEntryData } from '$lib/schemas/entryData';
 import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import type { Database, SubmissionStatus } from '../db/schema';
-import { warningsForVersion, type VersionWarning } from './checks';
+import { warningsForVersion, type VersionWarning, type WarningAudience } from './checks';
+import { viewerOf } from '../catalogue/visibility';
 import { SubmissionNotFoundError } from './errors';
 
 /** Reading submissions: the curators' queue, a contributor's own list, one submission in full. */
@@ -76,7 +77,11 @@ async function batchCounts(db: Kysely<Database>, submissionId: number) {
 	};
 }
 
-async function summarise(db: Kysely<Database>, rows: SubmissionListRow[]): Promise<QueueRow[]> {
+async function summarise(
+	db: Kysely<Database>,
+	rows: SubmissionListRow[],
+	audience: WarningAudience
+): Promise<QueueRow[]> {
 	const out: QueueRow[] = [];
 	for (const s of rows) {
 		if (s.channel === 'csv') {
@@ -94,7 +99,7 @@ async function summarise(db: Kysely<Database>, rows: SubmissionListRow[]): Promi
 		for (const v of versions) {
 			const warnings = await warningsForVersion(db, parseEntryData(v.kind, JSON.parse(v.data)), {
 				entryId: v.entryId,
-				audience: 'curator'
+				audience
 			});
 			rangeWarnings += warnings.filter((w) => w.kind === 'range').length;
 			conflicts += warnings.filter((w) => w.kind === 'conflict').length;
@@ -148,19 +153,20 @@ export async function listQueue(db: Kysely<Database>, filter: QueueFilter): Prom
 			)
 		);
 	}
-	const rows = await summarise(db, await q.execute());
+	const rows = await summarise(db, await q.execute(), 'curator');
 	if (filter.flag === 'warnings') return rows.filter((r) => r.rangeWarnings > 0);
 	if (filter.flag === 'conflicts') return rows.filter((r) => r.conflicts > 0);
 	return rows;
 }
 
-export async function listOwnSubmissions(db: Kysely<Database>, userId: string) {
+/** A contributor's own submissions; their flags count only what the contributor may see. */
+export async function listOwnSubmissions(db: Kysely<Database>, user: SessionUser) {
 	const rows = await submissionRows(db)
-		.where('submission.submitted_by', '=', userId)
+		.where('submission.submitted_by', '=', user.id)
 		.orderBy('submission.updated_at', 'desc')
 		.limit(500)
 		.execute();
-	return summarise(db, rows);
+	return summarise(db, rows, viewerOf(user));
 }
 
 export interface VersionView {
@@ -241,6 +247,10 @@ export async function loadSubmissionView(
 	const isCurator = roleAtLeast(user.role, 'curator');
 	if (submission.submitted_by !== user.id && !isCurator)
 		throw new SubmissionNotFoundError(submissionId);
+	// Curators reviewing someone else's submission compare with every approved value; anyone
+	// reading their own (curators included) only with what they may see.
+	const audience: WarningAudience =
+		isCurator && submission.submitted_by !== user.id ? 'curator' : viewerOf(user);
 
 	// A CSV batch is read page by page (loadBatchRows), never whole here.
 	const rows = submission.channel === 'csv' ? [] : await formVersionRows(db, submissionId);
@@ -282,7 +292,7 @@ export async function loadSubmissionView(
 					: null,
 			warnings: await warningsForVersion(db, entry, {
 				entryId: r.entryId,
-				audience: isCurator ? 'curator' : { groupIds: user.groupIds }
+				audience
 			}),
 			approvedVersion: r.version
 		});

@@ -6,6 +6,8 @@ import { writeAudit } from '../audit/log';
 import type { Database, SubmissionStatus } from '../db/schema';
 import { addVersion, createEntry, type VisibilityChange } from '../catalogue/entries';
 import { checkEntryReferences } from '../catalogue/references';
+import { findVisibleEntry, notVisibleMessage } from '../catalogue/visibleEntry';
+import { viewerOf } from '../catalogue/visibility';
 import {
 	SubmissionAccessError,
 	SubmissionInvalidError,
@@ -13,6 +15,7 @@ import {
 	SubmissionStateError
 } from './errors';
 import { noticesForNewSubmission } from './notices';
+import { assertPendingRoom } from './pending';
 import type { OutgoingMail } from './outbox';
 
 /**
@@ -82,17 +85,18 @@ export function submissionTitle(entry: EntryData, editing: string | null): strin
 export async function createDraft(
 	trx: Kysely<Database>,
 	user: SessionUser,
-	input: DraftInput & { editAccession: string | null }
+	input: DraftInput & { editAccession: string | null; pendingRowsMax: number }
 ): Promise<{ submissionId: number; accession: string }> {
 	await assertGroupAllowed(trx, user, input.visibility);
+	await assertPendingRoom(trx, user.id, 1, input.pendingRowsMax);
 	let entry: { id: number; accession: string };
 	if (input.editAccession) {
-		const existing = await trx
-			.selectFrom('entry')
-			.select(['id', 'accession', 'kind'])
-			.where('accession', '=', input.editAccession)
-			.executeTakeFirst();
-		if (!existing) throw new SubmissionInvalidError({ entry: [`no entry ${input.editAccession}`] });
+		// Only an approved entry the user may see can get a proposed new version; anything else
+		// (unknown, hidden, or someone's pending accession) is answered alike.
+		const existing = await findVisibleEntry(trx, input.editAccession, viewerOf(user));
+		if (!existing) {
+			throw new SubmissionInvalidError({ entry: [notVisibleMessage(input.editAccession)] });
+		}
 		if (existing.kind !== input.entry.kind) {
 			throw new SubmissionInvalidError({
 				entry: [`${input.editAccession} is a ${existing.kind}, not a ${input.entry.kind}`]
@@ -252,7 +256,11 @@ export async function submitForReview(
 		throw new SubmissionStateError(`submission ${submissionId} is already ${submission.status}`);
 	}
 	for (const v of await formVersion(trx, submissionId)) {
-		const errors = await checkEntryReferences(trx, parseEntryData(v.kind, JSON.parse(v.data)));
+		const errors = await checkEntryReferences(
+			trx,
+			parseEntryData(v.kind, JSON.parse(v.data)),
+			viewerOf(user)
+		);
 		if (Object.keys(errors).length > 0) throw new SubmissionInvalidError(errors);
 	}
 	await setStatus(trx, submissionId, 'submitted', 'submitted');

@@ -80,7 +80,12 @@ export async function checkUpload(
 	db: Kysely<Database>,
 	text: string,
 	kind: UploadKind,
-	options: { viewer: Viewer | null; maxRows: number }
+	options: {
+		viewer: Viewer | null;
+		maxRows: number;
+		/** The uploader: only their own earlier uploads of the same file are recognised. */
+		uploaderId?: string | null;
+	}
 ): Promise<UploadCheck> {
 	const sha256 = createHash('sha256').update(text).digest('hex');
 	const table = await readCsv(text, { maxRows: options.maxRows });
@@ -203,13 +208,17 @@ export async function checkUpload(
 	}
 
 	issues.sort((a, b) => a.row - b.row);
-	const previous = await db
-		.selectFrom('submission')
-		.select(['id', 'status', 'created_at'])
-		.where('content_sha256', '=', sha256)
-		.where('status', '!=', 'withdrawn')
-		.orderBy('id', 'desc')
-		.executeTakeFirst();
+	// Someone else's upload of the same file is none of the uploader's business.
+	const previous = options.uploaderId
+		? await db
+				.selectFrom('submission')
+				.select(['id', 'status', 'created_at'])
+				.where('content_sha256', '=', sha256)
+				.where('submitted_by', '=', options.uploaderId)
+				.where('status', '!=', 'withdrawn')
+				.orderBy('id', 'desc')
+				.executeTakeFirst()
+		: undefined;
 	return {
 		kind,
 		sha256,

@@ -8,6 +8,7 @@ import type { Database } from '../db/schema';
 import type { VisibilityChange } from '../catalogue/entries';
 import { assertGroupAllowed } from '../curation/submissions';
 import { noticesForNewSubmission } from '../curation/notices';
+import { assertPendingRoom } from '../curation/pending';
 import type { OutgoingMail } from '../curation/outbox';
 import type { UploadCheck } from './checkUpload';
 
@@ -41,12 +42,14 @@ export async function commitUpload(
 		visibility: VisibilityChange;
 		changeNote: string | null;
 		origin: string;
+		pendingRowsMax: number;
 	}
 ): Promise<CommitResult> {
 	if (check.errorCount > 0) throw new UploadHasErrorsError(check.errorCount);
 	await assertGroupAllowed(trx, user, meta.visibility);
 	const now = new Date().toISOString();
 	const total = check.proteins.length + check.entries.length;
+	await assertPendingRoom(trx, user.id, total, meta.pendingRowsMax);
 	const { id: submissionId } = await trx
 		.insertInto('submission')
 		.values({

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import { yieldToEventLoop } from '../eventLoop';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
-import { entryIsVisible, type Viewer } from '../catalogue/visibility';
+import { entryIsVisible, potentialIsVisible, type Viewer } from '../catalogue/visibility';
 
 /**
  * What a CSV check needs to know about the registry, read once per file rather than once per
@@ -104,7 +104,11 @@ export async function loadUploadLookups(
 		db
 			.selectFrom('centre')
 			.innerJoin('entry', 'entry.id', 'centre.entry_id')
-			.where((eb) => entryIsVisible(eb, 'entry', viewer))
+			.innerJoin('entry as pe', 'pe.id', 'centre.protein_entry_id')
+			// A centre is usable only with its protein: both must be visible.
+			.where((eb) =>
+				eb.and([entryIsVisible(eb, 'entry', viewer), entryIsVisible(eb, 'pe', viewer)])
+			)
 			.select([
 				'entry.accession',
 				'centre.entry_id',
@@ -142,8 +146,9 @@ export async function loadUploadLookups(
 		).map((s) => s.accession)
 	);
 
-	// Duplicates and conflicts are judged against every approved value: a curator must hear of a
-	// clash with an embargoed value too, even if the contributor cannot see which one.
+	// Duplicates and conflicts are judged only against values the uploader may see: a message
+	// naming a hidden value (or a count including one) would give it away. Curators compare with
+	// every approved value on the review page.
 	const potentialsByCentreCouple = new Map<string, ApprovedPotential[]>();
 	await paged(
 		(after) =>
@@ -161,6 +166,7 @@ export async function loadUploadLookups(
 					'method'
 				])
 				.where('entry_id', '>', after)
+				.where((eb) => potentialIsVisible(eb, 'potential', viewer))
 				.orderBy('entry_id')
 				.limit(PAGE)
 				.execute(),
@@ -195,6 +201,7 @@ export async function loadUploadLookups(
 				'spin_record.temperature_k'
 			])
 			.where('spin_record.entry_id', '>', after)
+			.where((eb) => entryIsVisible(eb, 'entry', viewer))
 			.orderBy('spin_record.entry_id')
 			.limit(PAGE)
 			.execute()
@@ -216,6 +223,7 @@ export async function loadUploadLookups(
 				'distance.structure_id'
 			])
 			.where('distance.entry_id', '>', after)
+			.where((eb) => entryIsVisible(eb, 'entry', viewer))
 			.orderBy('distance.entry_id')
 			.limit(PAGE)
 			.execute()

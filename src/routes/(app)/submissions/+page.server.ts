@@ -5,5 +5,5 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'contributor');
-	return { submissions: await listOwnSubmissions(db, user.id) };
+	return { submissions: await listOwnSubmissions(db, user) };
 };

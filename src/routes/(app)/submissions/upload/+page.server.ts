@@ -33,6 +33,7 @@ async function checked(event: RequestEvent) {
 	try {
 		const check = await checkUpload(db, form.text, form.kind, {
 			viewer: { groupIds: user.groupIds },
+			uploaderId: user.id,
 			maxRows: config.UPLOAD_MAX_ROWS
 		});
 		return { user, form, check };
@@ -80,7 +81,8 @@ export const actions: Actions = {
 					filename: form.filename,
 					visibility: form.visibility,
 					changeNote: form.changeNote,
-					origin: event.url.origin
+					origin: event.url.origin,
+					pendingRowsMax: config.PENDING_ROWS_MAX
 				})
 			);
 		} catch (e) {

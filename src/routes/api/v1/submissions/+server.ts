@@ -8,6 +8,7 @@ import { assertRole } from '$lib/server/auth/roles';
 import { parseJsonBody } from '$lib/server/api/body';
 import { apiHandler } from '$lib/server/api/handler';
 import { apiError } from '$lib/server/api/respond';
+import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
 import { deliver } from '$lib/server/curation/outbox';
 import { loadSubmissionView } from '$lib/server/curation/queue';
@@ -40,7 +41,8 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 			entry: entry.entry,
 			visibility: visibility.data,
 			changeNote,
-			editAccession: edit
+			editAccession: edit,
+			pendingRowsMax: config.PENDING_ROWS_MAX
 		});
 		const sent = submit
 			? await submitForReview(trx, user, draft.submissionId, event.url.origin)

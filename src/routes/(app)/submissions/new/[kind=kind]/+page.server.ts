@@ -1,6 +1,7 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { isAccession } from '$lib/schemas/accession';
 import { requireRole } from '$lib/server/auth/guards';
+import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
 import { curationFailure, readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesForEditing } from '$lib/server/curation/formDefaults';
@@ -37,7 +38,8 @@ async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean)
 				entry: form.entry,
 				visibility: form.visibility,
 				changeNote: form.changeNote,
-				editAccession: edit && isAccession(edit) ? edit : null
+				editAccession: edit && isAccession(edit) ? edit : null,
+				pendingRowsMax: config.PENDING_ROWS_MAX
 			});
 			const sent = andSubmit
 				? await submitForReview(trx, user, draft.submissionId, event.url.origin)

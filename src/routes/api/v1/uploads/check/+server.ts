@@ -37,6 +37,7 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 	try {
 		check = await checkUpload(db, form.text, form.kind, {
 			viewer: { groupIds: user.groupIds },
+			uploaderId: user.id,
 			maxRows: config.UPLOAD_MAX_ROWS
 		});
 	} catch (e) {
