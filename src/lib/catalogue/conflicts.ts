@@ -41,22 +41,34 @@ export function comparableConditions(a: ComparablePotential, b: ComparablePotent
 	return Math.abs(ta - tb) <= CONFLICT_RULES.temperatureWindowK;
 }
 
-/** The conflict between two potentials, or null when they agree or cannot be compared. */
-export function potentialConflict(
+/**
+ * The rounded difference a − b (mV) and the combined uncertainty when the two conflict, or null.
+ * Allocation-free apart from its result, for scanning many candidates.
+ */
+function conflictSizes(
 	a: ComparablePotential,
 	b: ComparablePotential
-): PotentialConflict | null {
+): { differenceMv: number; combinedUncertaintyMv: number } | null {
 	if (!comparableConditions(a, b)) return null;
 	const ua = a.uncertaintyMv ?? CONFLICT_RULES.defaultUncertaintyMv;
 	const ub = b.uncertaintyMv ?? CONFLICT_RULES.defaultUncertaintyMv;
 	const combinedUncertaintyMv = Math.round(Math.hypot(ua, ub) * 10) / 10;
 	const differenceMv = Math.round((a.emMvShe - b.emMvShe) * 10) / 10;
 	if (Math.abs(differenceMv) <= CONFLICT_RULES.coverageFactor * combinedUncertaintyMv) return null;
-	return {
-		differenceMv,
-		combinedUncertaintyMv,
-		message: `differs by ${Math.abs(differenceMv)} mV; combined uncertainty ±${combinedUncertaintyMv} mV`
-	};
+	return { differenceMv, combinedUncertaintyMv };
+}
+
+function conflictMessage(c: { differenceMv: number; combinedUncertaintyMv: number }): string {
+	return `differs by ${Math.abs(c.differenceMv)} mV; combined uncertainty ±${c.combinedUncertaintyMv} mV`;
+}
+
+/** The conflict between two potentials, or null when they agree or cannot be compared. */
+export function potentialConflict(
+	a: ComparablePotential,
+	b: ComparablePotential
+): PotentialConflict | null {
+	const c = conflictSizes(a, b);
+	return c ? { ...c, message: conflictMessage(c) } : null;
 }
 
 /** The rule in words, shown beside every conflict flag. */
@@ -76,29 +88,95 @@ export interface ConflictFlag {
 	message: string;
 }
 
-/**
- * For each listed potential, the others of the same centre it conflicts with. Potentials of
- * different centres are never compared.
- */
-export function conflictsAmong(
-	potentials: readonly ListedPotential[]
-): Map<string, ConflictFlag[]> {
-	const flags = new Map<string, ConflictFlag[]>();
-	for (let i = 0; i < potentials.length; i++) {
-		for (let j = i + 1; j < potentials.length; j++) {
-			const a = potentials[i] as ListedPotential;
-			const b = potentials[j] as ListedPotential;
-			if (a.centre.accession !== b.centre.accession) continue;
-			const c = potentialConflict(a, b);
-			if (!c) continue;
-			const add = (from: ListedPotential, to: ListedPotential) => {
-				const list = flags.get(from.accession) ?? [];
-				list.push({ accession: to.accession, message: `${to.accession}: ${c.message}` });
-				flags.set(from.accession, list);
-			};
-			add(a, b);
-			add(b, a);
-		}
+/** The conflicts of one shown potential: how many, and the first few, largest difference first. */
+export interface ConflictSummary {
+	count: number;
+	listed: ConflictFlag[];
+}
+
+/** How many conflicting values are named per potential; the rest are counted. */
+export const CONFLICTS_LISTED = 5;
+
+/** Candidates of one centre and couple, those with a pH sorted by it, those without apart. */
+interface Bucket {
+	withPh: ListedPotential[];
+	withoutPh: ListedPotential[];
+}
+
+function bucketKey(p: ListedPotential): string {
+	return `${p.centre.accession}|${p.couple}`;
+}
+
+/** Index of the first candidate whose pH is at least `ph` (candidates sorted by pH). */
+function lowerBound(sorted: readonly ListedPotential[], ph: number): number {
+	let lo = 0;
+	let hi = sorted.length;
+	while (lo < hi) {
+		const mid = (lo + hi) >>> 1;
+		if ((sorted[mid] as ListedPotential).ph! < ph) lo = mid + 1;
+		else hi = mid;
 	}
-	return flags;
+	return lo;
+}
+
+/**
+ * For each shown potential, the candidates (approved values the reader may see) it conflicts
+ * with under `potentialConflict`. Candidates are grouped by centre and couple and sorted by pH
+ * once (O(n log n)); each shown potential then looks only at the pH window around its own pH,
+ * so a page of r rows over n candidates costs O(n log n + r·w) for w values in a window, and the
+ * answer holds at most CONFLICTS_LISTED names per row however many values disagree.
+ */
+export function conflictsForShown(
+	shown: readonly ListedPotential[],
+	candidates: readonly ListedPotential[],
+	listed: number = CONFLICTS_LISTED
+): Map<string, ConflictSummary> {
+	const buckets = new Map<string, Bucket>();
+	for (const c of candidates) {
+		const key = bucketKey(c);
+		let b = buckets.get(key);
+		if (!b) buckets.set(key, (b = { withPh: [], withoutPh: [] }));
+		(c.ph === null ? b.withoutPh : b.withPh).push(c);
+	}
+	for (const b of buckets.values()) b.withPh.sort((x, y) => x.ph! - y.ph!);
+
+	const result = new Map<string, ConflictSummary>();
+	for (const p of shown) {
+		const b = buckets.get(bucketKey(p));
+		if (!b) continue;
+		let window: readonly ListedPotential[];
+		if (p.ph === null) window = b.withoutPh;
+		else {
+			const from = lowerBound(b.withPh, p.ph - CONFLICT_RULES.phWindow);
+			const to = lowerBound(b.withPh, p.ph + CONFLICT_RULES.phWindow + 1e-9);
+			window = b.withPh.slice(from, to);
+		}
+		// The `listed` largest differences, kept sorted (largest first) as the scan goes.
+		const top: {
+			other: ListedPotential;
+			sizes: { differenceMv: number; combinedUncertaintyMv: number };
+		}[] = [];
+		let count = 0;
+		for (const other of window) {
+			if (other.accession === p.accession) continue;
+			const sizes = conflictSizes(p, other);
+			if (!sizes) continue;
+			count++;
+			const size = Math.abs(sizes.differenceMv);
+			if (top.length === listed && size <= Math.abs(top[listed - 1]!.sizes.differenceMv)) continue;
+			let at = top.length;
+			while (at > 0 && Math.abs(top[at - 1]!.sizes.differenceMv) < size) at--;
+			top.splice(at, 0, { other, sizes });
+			if (top.length > listed) top.pop();
+		}
+		if (count === 0) continue;
+		result.set(p.accession, {
+			count,
+			listed: top.map(({ other, sizes }) => ({
+				accession: other.accession,
+				message: `${other.accession}: ${conflictMessage(sizes)}`
+			}))
+		});
+	}
+	return result;
 }

@@ -1,5 +1,13 @@
 import type { CentreDto, DistanceDto, PotentialDto } from './dto';
 
+/** What the ladder reads of each record: callers may pass full DTOs or just these fields. */
+export type LadderCentre = Pick<CentreDto, 'accession' | 'label'>;
+export type LadderPotential = Pick<
+	PotentialDto,
+	'accession' | 'emMvShe' | 'couple' | 'ph' | 'temperatureK'
+> & { centre: { accession: string } };
+export type LadderDistance = Pick<DistanceDto, 'centreA' | 'centreB' | 'edgeToEdgeA'>;
+
 /**
  * The energy ladder of a protein: its centres in electron-transfer chain order, each with one
  * representative Em. Pure; the page draws it.
@@ -38,8 +46,8 @@ export interface Ladder {
 	branches: LadderStep[];
 }
 
-function representative(potentials: PotentialDto[]): PotentialDto | null {
-	let best: PotentialDto | null = null;
+function representative(potentials: LadderPotential[]): LadderPotential | null {
+	let best: LadderPotential | null = null;
 	let bestScore = Infinity;
 	for (const p of potentials) {
 		const score = Math.abs((p.ph ?? 7) - 7) + Math.abs((p.temperatureK ?? 298.15) - 298.15) / 10;
@@ -76,14 +84,14 @@ function farthest(
 }
 
 export function buildLadder(
-	centres: CentreDto[],
-	potentials: PotentialDto[],
-	distances: DistanceDto[]
+	centres: LadderCentre[],
+	potentials: LadderPotential[],
+	distances: LadderDistance[]
 ): Ladder {
-	const byCentre = new Map<string, PotentialDto[]>();
+	const byCentre = new Map<string, LadderPotential[]>();
 	for (const p of potentials)
 		byCentre.set(p.centre.accession, [...(byCentre.get(p.centre.accession) ?? []), p]);
-	const step = (c: CentreDto): LadderStep => {
+	const step = (c: LadderCentre): LadderStep => {
 		const p = representative(byCentre.get(c.accession) ?? []);
 		return {
 			centre: c.accession,
@@ -124,7 +132,7 @@ export function buildLadder(
 		if (candidate.length > path.length) path = candidate;
 	}
 	const byId = new Map(centres.map((c) => [c.accession, c]));
-	let steps = path.map((id) => step(byId.get(id) as CentreDto));
+	let steps = path.map((id) => step(byId.get(id) as LadderCentre));
 	// Electrons run on average from low to high Em: start the ladder at the more negative end.
 	const first = steps[0]?.emMv;
 	const last = steps.at(-1)?.emMv;

@@ -13,7 +13,7 @@ export const CHAIN_LAMBDA_EV = 0.7;
  */
 export function estimateLadderChain(
 	ladder: Ladder,
-	potentials: PotentialDto[]
+	potentials: Pick<PotentialDto, 'accession' | 'uncertaintyMv'>[]
 ): ChainEstimate | null {
 	const steps = ladder.steps.filter((s) => s.emMv !== null);
 	if (steps.length < 2 || steps.length !== ladder.steps.length) return null;

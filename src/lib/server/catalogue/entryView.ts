@@ -15,14 +15,31 @@ async function findEntryOrThrow(db: Kysely<Database>, accession: string, viewer:
 	return entry;
 }
 
-async function approvedVersions(db: Kysely<Database>, entryId: number) {
+/** How many versions an entry page lists (the newest); older ones stay at their permalinks. */
+export const VERSIONS_LISTED = 100;
+
+/** The newest VERSIONS_LISTED approved versions, oldest first, without their data. */
+async function listedVersions(db: Kysely<Database>, entryId: number) {
+	const newest = await db
+		.selectFrom('entry_version')
+		.select(['version', 'approved_at', 'change_note'])
+		.where('entry_id', '=', entryId)
+		.where('status', '=', 'approved')
+		.orderBy('version', 'desc')
+		.limit(VERSIONS_LISTED)
+		.execute();
+	return newest.reverse();
+}
+
+/** One approved version with its data, or undefined. */
+async function approvedVersion(db: Kysely<Database>, entryId: number, version: number) {
 	return db
 		.selectFrom('entry_version')
 		.select(['version', 'approved_at', 'change_note', 'data'])
 		.where('entry_id', '=', entryId)
 		.where('status', '=', 'approved')
-		.orderBy('version', 'asc')
-		.execute();
+		.where('version', '=', version)
+		.executeTakeFirst();
 }
 
 /** A short human title for an entry of any kind, from the latest projection. */
@@ -101,10 +118,10 @@ export async function getEntryView(
 	viewer: Viewer | null
 ): Promise<EntryView> {
 	const entry = await findEntryOrThrow(db, accession, viewer);
-	const versions = await approvedVersions(db, entry.id);
+	const versions = await listedVersions(db, entry.id);
 	const latest = versions.at(-1);
 	if (!latest) throw new EntryNotFoundError(accession);
-	const chosen = version === undefined ? latest : versions.find((v) => v.version === version);
+	const chosen = await approvedVersion(db, entry.id, version ?? (latest.version as number));
 	if (!chosen) throw new EntryNotFoundError(accession, version);
 	const data = JSON.parse(chosen.data) as Record<string, unknown>;
 
@@ -157,9 +174,8 @@ export async function compareVersions(
 	viewer: Viewer | null
 ): Promise<{ changes: FieldChange[]; from: number; to: number }> {
 	const entry = await findEntryOrThrow(db, accession, viewer);
-	const versions = await approvedVersions(db, entry.id);
-	const a = versions.find((v) => v.version === from);
-	const b = versions.find((v) => v.version === to);
+	const a = await approvedVersion(db, entry.id, from);
+	const b = await approvedVersion(db, entry.id, to);
 	if (!a) throw new EntryNotFoundError(accession, from);
 	if (!b) throw new EntryNotFoundError(accession, to);
 	return { changes: diffEntryData(JSON.parse(a.data), JSON.parse(b.data)), from, to };

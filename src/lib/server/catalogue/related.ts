@@ -1,41 +1,68 @@
 import type { Kysely } from 'kysely';
 import type { CentreDto, DistanceDto, PotentialDto, SpinRecordDto } from '$lib/catalogue/dto';
+import { RELATED_PAGE_SIZE, type RelatedPages } from '$lib/schemas/relatedPages';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { listCentres, listDistances, listSpinRecords } from './lists';
 import { listPotentials } from './potentials';
 import type { Viewer } from './visibility';
 
-/** What an entry page shows beside a protein or a centre: its current related records. */
-export interface RelatedRecords {
-	centres: CentreDto[];
-	potentials: PotentialDto[];
-	spinRecords: SpinRecordDto[];
-	distances: DistanceDto[];
+/** One page of a related list: never more than RELATED_PAGE_SIZE rows, with the total. */
+export interface RelatedPage<T> {
+	items: T[];
+	total: number;
+	page: number;
+	pageCount: number;
 }
 
-const ALL = { limit: 2000, offset: 0 };
+/** What an entry page shows beside a protein or a centre: its current related records, paged. */
+export interface RelatedRecords {
+	centres: RelatedPage<CentreDto> | null;
+	potentials: RelatedPage<PotentialDto>;
+	spinRecords: RelatedPage<SpinRecordDto>;
+	distances: RelatedPage<DistanceDto>;
+}
+
+function paged<T>(p: { items: T[]; total: number }, page: number): RelatedPage<T> {
+	return {
+		items: p.items,
+		total: p.total,
+		page,
+		pageCount: Math.max(1, Math.ceil(p.total / RELATED_PAGE_SIZE))
+	};
+}
+
+const window = (page: number) => ({
+	limit: RELATED_PAGE_SIZE,
+	offset: (page - 1) * RELATED_PAGE_SIZE
+});
 
 export async function relatedRecords(
 	db: Kysely<Database>,
 	kind: EntryKind,
 	accession: string,
-	viewer: Viewer | null
+	viewer: Viewer | null,
+	pages: RelatedPages
 ): Promise<RelatedRecords | null> {
 	if (kind !== 'protein' && kind !== 'centre') return null;
 	const filter = kind === 'protein' ? { protein: accession } : { centre: accession };
 	const [centres, potentials, spinRecords, distances] = await Promise.all([
 		kind === 'protein'
-			? listCentres(db, { protein: accession }, { ...ALL, sort: 'protein' }, viewer)
+			? listCentres(
+					db,
+					{ protein: accession },
+					{ ...window(pages.centres), sort: 'protein' },
+					viewer
+				)
 			: null,
-		listPotentials(db, filter, { ...ALL, sort: 'protein' }, viewer),
-		listSpinRecords(db, filter, { ...ALL, sort: 'centre' }, viewer),
-		listDistances(db, filter, { ...ALL, sort: 'centre' }, viewer)
+		listPotentials(db, filter, { ...window(pages.potentials), sort: 'protein' }, viewer),
+		listSpinRecords(db, filter, { ...window(pages.spinRecords), sort: 'centre' }, viewer),
+		listDistances(db, filter, { ...window(pages.distances), sort: 'centre' }, viewer)
 	]);
 	return {
-		centres: centres?.items ?? [],
-		potentials: potentials.items,
-		spinRecords: spinRecords.items,
-		distances: distances.items
+		centres: centres ? paged(centres, pages.centres) : null,
+		potentials: paged(potentials, pages.potentials),
+		spinRecords: paged(spinRecords, pages.spinRecords),
+		distances: paged(distances, pages.distances)
 	};
 }

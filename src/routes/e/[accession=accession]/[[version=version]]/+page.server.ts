@@ -1,18 +1,33 @@
 import { error } from '@sveltejs/kit';
+import { describeConflictRule } from '$lib/catalogue/conflicts';
 import { buildLadder } from '$lib/catalogue/ladder';
-import { estimateLadderChain } from '$lib/server/calc/chainEstimate';
+import { roleAtLeast } from '$lib/roles';
 import { parseVersionSegment } from '$lib/schemas/accession';
+import { parseRelatedPages } from '$lib/schemas/relatedPages';
+import { estimateLadderChain } from '$lib/server/calc/chainEstimate';
+import { conflictFlags, conflictFlagsOfPotential } from '$lib/server/catalogue/conflictFlags';
 import { getEntryView } from '$lib/server/catalogue/entryView';
 import { EntryNotFoundError } from '$lib/server/catalogue/errors';
+import { ladderInputs } from '$lib/server/catalogue/ladderInputs';
 import { relatedRecords } from '$lib/server/catalogue/related';
 import { db } from '$lib/server/db';
-import { listPotentials } from '$lib/server/catalogue/potentials';
-import { conflictsAmong, describeConflictRule } from '$lib/catalogue/conflicts';
-import { roleAtLeast } from '$lib/roles';
 import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, locals }) => {
+/**
+ * An entry at one version, with (for proteins and centres) its related records one page per
+ * list, conflict flags for the potentials shown, and a protein's energy ladder — every part
+ * bounded, however many records the entry has.
+ */
+export const load: PageServerLoad = async ({ params, locals, url }) => {
 	const version = params.version ? (parseVersionSegment(params.version) ?? undefined) : undefined;
+	const pages = parseRelatedPages(url.searchParams);
+	if (!pages.ok) {
+		error(400, {
+			message: Object.entries(pages.fields)
+				.map(([field, messages]) => `${field}: ${messages.join('; ')}`)
+				.join(' · ')
+		});
+	}
 	const view = await getEntryView(db, params.accession, version, locals.viewer).catch(
 		(e: unknown) => {
 			if (e instanceof EntryNotFoundError) return null;
@@ -27,31 +42,28 @@ export const load: PageServerLoad = async ({ params, locals }) => {
 					: `Entry ${params.accession} has no version ${version}.`
 		});
 	}
-	const related = await relatedRecords(db, view.kind, view.accession, locals.viewer);
+	const related = await relatedRecords(db, view.kind, view.accession, locals.viewer, pages.pages);
+	const ladderData =
+		view.kind === 'protein' ? await ladderInputs(db, view.accession, locals.viewer) : null;
 	const ladder =
-		view.kind === 'protein' && related
-			? buildLadder(related.centres, related.potentials, related.distances)
+		ladderData?.ok === true
+			? buildLadder(ladderData.centres, ladderData.potentials, ladderData.distances)
 			: null;
-	const chain = ladder && related ? estimateLadderChain(ladder, related.potentials) : null;
-	// A potential is flagged against the other approved values of its centre that it contradicts.
-	const siblings =
-		view.kind === 'potential' && typeof view.data.centreAccession === 'string'
-			? (
-					await listPotentials(
-						db,
-						{ centre: view.data.centreAccession },
-						{ limit: 2000, offset: 0, sort: 'protein' },
-						locals.viewer
-					)
-				).items
-			: (related?.potentials ?? []);
-	const conflicts = Object.fromEntries(conflictsAmong(siblings));
+	const chain =
+		ladder && ladderData?.ok ? estimateLadderChain(ladder, ladderData.potentials) : null;
+	// Flags for what the page shows: this potential, or the page of potentials listed.
+	const conflicts =
+		view.kind === 'potential'
+			? await conflictFlagsOfPotential(db, view.accession, locals.viewer)
+			: await conflictFlags(db, related?.potentials.items ?? [], locals.viewer);
 	return {
 		view,
 		related,
 		ladder,
+		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
 		chain,
-		conflicts,
+		conflicts: conflicts.flags,
+		conflictsTruncated: conflicts.truncated,
 		conflictRule: describeConflictRule(),
 		canPropose: locals.user !== null && roleAtLeast(locals.user.role, 'contributor'),
 		pinned: params.version !== undefined

@@ -1,0 +1,95 @@
+import type { Kysely } from 'kysely';
+import {
+	conflictsForShown,
+	type ConflictSummary,
+	type ListedPotential
+} from '$lib/catalogue/conflicts';
+import type { Database } from '../db/schema';
+import { potentialIsVisible, type Viewer } from './visibility';
+
+/**
+ * Conflict flags for the potentials a page shows, against the approved values of the same
+ * centres and couples that the reader may see. At most CANDIDATE_CAP values are read, however
+ * many a centre holds, so one page view costs bounded time and memory; the page says so when
+ * the cap was reached.
+ */
+export const CANDIDATE_CAP = 20_000;
+
+export interface ConflictFlags {
+	flags: Record<string, ConflictSummary>;
+	/** True when the centres hold more comparable values than were read. */
+	truncated: boolean;
+}
+
+export async function conflictFlags(
+	db: Kysely<Database>,
+	shown: readonly ListedPotential[],
+	viewer: Viewer | null
+): Promise<ConflictFlags> {
+	if (shown.length === 0) return { flags: {}, truncated: false };
+	const centres = [...new Set(shown.map((p) => p.centre.accession))];
+	const couples = [...new Set(shown.map((p) => p.couple))];
+	const rows = await db
+		.selectFrom('potential as p')
+		.select([
+			'p.accession',
+			'p.centre_accession',
+			'p.couple',
+			'p.em_mv_she',
+			'p.uncertainty_mv',
+			'p.ph',
+			'p.temperature_k'
+		])
+		// By centre id, which the read model indexes.
+		.where('p.centre_entry_id', 'in', (eb) =>
+			eb.selectFrom('entry').select('entry.id').where('entry.accession', 'in', centres)
+		)
+		.where('p.couple', 'in', couples)
+		.where((eb) => potentialIsVisible(eb, 'p', viewer))
+		.orderBy('p.entry_id')
+		.limit(CANDIDATE_CAP + 1)
+		.execute();
+	const truncated = rows.length > CANDIDATE_CAP;
+	const candidates: ListedPotential[] = rows.slice(0, CANDIDATE_CAP).map((r) => ({
+		accession: r.accession,
+		centre: { accession: r.centre_accession },
+		couple: r.couple,
+		emMvShe: r.em_mv_she,
+		uncertaintyMv: r.uncertainty_mv,
+		ph: r.ph,
+		temperatureK: r.temperature_k
+	}));
+	return { flags: Object.fromEntries(conflictsForShown(shown, candidates)), truncated };
+}
+
+/** Conflict flags of one approved potential (its latest approved values). */
+export async function conflictFlagsOfPotential(
+	db: Kysely<Database>,
+	accession: string,
+	viewer: Viewer | null
+): Promise<ConflictFlags> {
+	const row = await db
+		.selectFrom('potential')
+		.select([
+			'accession',
+			'centre_accession',
+			'couple',
+			'em_mv_she',
+			'uncertainty_mv',
+			'ph',
+			'temperature_k'
+		])
+		.where('accession', '=', accession)
+		.executeTakeFirst();
+	if (!row) return { flags: {}, truncated: false };
+	const shown: ListedPotential = {
+		accession: row.accession,
+		centre: { accession: row.centre_accession },
+		couple: row.couple,
+		emMvShe: row.em_mv_she,
+		uncertaintyMv: row.uncertainty_mv,
+		ph: row.ph,
+		temperatureK: row.temperature_k
+	};
+	return conflictFlags(db, [shown], viewer);
+}
