@@ -149,6 +149,15 @@ describe('hidden entries, read from outside their group', () => {
 				expect(blank(await api.text(), accession)).toBe(apiText);
 				// The 404 page carries a per-request error id; everything else must match.
 				const strip = (t: string) => t.replace(/[0-9a-f-]{36}/g, 'ID');
+				for (const path of [`/e/${accession}/v1`, `/e/${accession}/compare?from=1&to=1`])
+					expect((await get(path, cookie)).status, path).toBe(404);
+				// Filters naming a hidden entry answer as for an unknown one: nothing.
+				for (const filter of ['centre', 'protein']) {
+					const list = (await (
+						await get(`/api/v1/potentials?${filter}=${accession}`, cookie)
+					).json()) as { total: number };
+					expect(list.total).toBe(0);
+				}
 				const text = strip(blank(await page.text(), accession));
 				const want = strip(pageText);
 				if (text !== want) {
@@ -189,6 +198,17 @@ describe('hidden entries, read from outside their group', () => {
 				await get(`/api/v1/proteins?q=${HIDDEN_MARKS.centreLabel}`, cookie)
 			).json()) as { total: number };
 			expect(byLabel.total).toBe(0);
+			for (const q of [HIDDEN_MARKS.centreLabel, 'Hiddenase', 'hiddenensis']) {
+				for (const list of ['potentials', 'centres', 'proteins']) {
+					const found = (await (await get(`/api/v1/${list}?q=${q}`, cookie)).json()) as {
+						total: number;
+					};
+					expect(found.total, `${list}?q=${q}`).toBe(0);
+				}
+				const page = await get(`/search?q=${q}`, cookie);
+				// The reader's own query comes back in the search box, nothing else may.
+				expectNoSecret((await page.text()).replaceAll(q, 'QUERY'), `/search?q=${q}`);
+			}
 			// A protein's centre count counts only centres the reader may see.
 			const proteins = (await (await get(`/api/v1/proteins?limit=100`, cookie)).json()) as {
 				items: { accession: string; centreCount: number }[];
