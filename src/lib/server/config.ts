@@ -69,7 +69,7 @@ const configSchema = z.object({
 	 * "busy" (src/lib/server/auth/hashingQueue.ts).
 	 */
 	PASSWORD_HASH_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(2),
-	PASSWORD_HASH_QUEUE: z.coerce.number().int().min(0).max(1000).default(8),
+	PASSWORD_HASH_QUEUE: z.coerce.number().int().min(0).max(1000).default(4),
 	/** Largest CSV upload, bytes (default 20 MB), and most data rows in one file. */
 	UPLOAD_MAX_BYTES: z.coerce
 		.number()
