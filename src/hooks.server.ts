@@ -10,6 +10,7 @@ import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
 import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
 import { limitRequestSize } from '$lib/server/requestLimits';
+import { secureCookiesOnlyOverHttps } from '$lib/server/secureCookies';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -29,7 +30,10 @@ const attachRequestFacts: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-/** Reads the session's user (role, groups) from the database, so changes apply at once. */
+/**
+ * Reads the session's user (role, groups) from the database, so changes apply at once. Reading
+ * the session also checks that it was not ended (signed out, reset, disabled: auth/sessions.ts).
+ */
 const attachUser: Handle = async ({ event, resolve }) => {
 	const session = await event.locals.auth();
 	const id = session?.user?.id;
@@ -43,6 +47,7 @@ const attachUser: Handle = async ({ event, resolve }) => {
 export const handle: Handle = sequence(
 	attachRequestFacts,
 	limitRequestSize,
+	secureCookiesOnlyOverHttps,
 	authHandle,
 	attachUser
 );

@@ -52,9 +52,13 @@ function expected(m: Mutation, role: Role | null): Outcome {
 describe('authorization matrix', () => {
 	for (const m of MUTATIONS) {
 		for (const role of [null, ...ROLES] as (Role | null)[]) {
-			// Signing in or out changes the session; attempts stay on fresh cookies per call.
 			it(`${m.url} (${m.name}) as ${role ?? 'signed out'} → ${expected(m, role)}`, async () => {
 				expect(await attempt(m, role)).toBe(expected(m, role));
+				// Signing out ends the session on the server: the next attempts need a new one.
+				if (m.endsSession && role) {
+					const a = accounts.find((x) => x.role === role)!;
+					cookies.set(role, await signInCookie(base, a.email, a.password));
+				}
 			});
 		}
 	}

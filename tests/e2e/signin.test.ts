@@ -25,9 +25,22 @@ describe('sign-in in Chromium', () => {
 		expect(await page.getByTestId('user-menu').textContent()).toContain('curator');
 		await page.goto('/account');
 		expect(await page.getByTestId('account-role').textContent()).toBe('curator');
-		await page.getByRole('button', { name: 'Sign out' }).click();
+		await page.getByRole('button', { name: 'Sign out', exact: true }).click();
 		await page.waitForURL(`${base}/`);
 		expect(await page.getByTestId('user-menu').count()).toBe(0);
+	});
+	it('"Sign out everywhere" signs out the other browser too', async () => {
+		const other = await (await browser.newContext({ baseURL: base })).newPage();
+		await submitSignIn(other, 'reader@demo.hopline.test', 'demo-reader-pass');
+		await other.getByTestId('user-menu').waitFor();
+		await signIn('reader@demo.hopline.test', 'demo-reader-pass');
+		await page.getByTestId('user-menu').waitFor();
+		await page.goto('/account');
+		await page.getByRole('button', { name: 'Sign out everywhere' }).click();
+		await page.waitForURL(/\/signin/);
+		await other.reload();
+		expect(await other.getByTestId('user-menu').count()).toBe(0);
+		await other.context().close();
 	});
 	it('a wrong password gets a clear message and no session', async () => {
 		await signIn('contributor@demo.hopline.test', 'not-the-password');

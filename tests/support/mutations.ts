@@ -16,6 +16,8 @@ export interface Mutation {
 	least: Role | null;
 	/** A harmless body for the attempt (form fields or JSON). */
 	body: Record<string, string> | { json: unknown };
+	/** Ends the caller's session(s) when allowed: the matrix signs in again after trying it. */
+	endsSession?: true;
 }
 
 export const MUTATIONS: Mutation[] = [
@@ -61,7 +63,14 @@ export const MUTATIONS: Mutation[] = [
 		least: null,
 		body: { redirectTo: '/' }
 	},
-	{ file: 'signout/+page.server.ts', name: 'default', url: '/signout', least: null, body: {} },
+	{
+		file: 'signout/+page.server.ts',
+		name: 'default',
+		url: '/signout',
+		least: null,
+		body: {},
+		endsSession: true
+	},
 	{
 		file: 'calc/titration/+page.server.ts',
 		name: 'default',
@@ -181,5 +190,13 @@ export const MUTATIONS: Mutation[] = [
 		url: '/account?/notices',
 		least: 'curator',
 		body: { curationNotices: 'not-a-choice' }
+	},
+	{
+		file: 'account/+page.server.ts',
+		name: 'signOutEverywhere',
+		url: '/account?/signOutEverywhere',
+		least: 'reader',
+		body: {},
+		endsSession: true
 	}
 ];

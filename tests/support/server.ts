@@ -16,7 +16,10 @@ export async function freePort(): Promise<number> {
 }
 
 export interface RunningServer {
+	/** Where the test connects (always plain http on loopback). */
 	baseUrl: string;
+	/** The site's ORIGIN, as the app believes it is served (https behind a proxy, say). */
+	origin: string;
 	process: ChildProcess;
 	output: () => string;
 	/** SIGTERM, then SIGKILL after 5 s if anything keeps it alive. */
@@ -25,16 +28,19 @@ export interface RunningServer {
 
 export async function startServer(
 	databasePath: string,
-	env: Record<string, string> = {}
+	env: Record<string, string> = {},
+	options: { scheme?: 'http' | 'https' } = {}
 ): Promise<RunningServer> {
 	const port = await freePort();
 	const baseUrl = `http://127.0.0.1:${port}`;
+	// An https ORIGIN stands for a TLS-terminating proxy in front; the test still speaks http.
+	const origin = `${options.scheme ?? 'http'}://127.0.0.1:${port}`;
 	const server = spawn(process.execPath, ['build'], {
 		env: {
 			...process.env,
 			PORT: String(port),
 			HOST: '127.0.0.1',
-			ORIGIN: baseUrl,
+			ORIGIN: origin,
 			HOPLINE_DEMO: 'true',
 			// The app enforces its own body limits (src/lib/server/requestLimits.ts).
 			BODY_SIZE_LIMIT: 'Infinity',
@@ -60,6 +66,7 @@ export async function startServer(
 	}
 	return {
 		baseUrl,
+		origin,
 		process: server,
 		output: () => output,
 		stop: async () => {

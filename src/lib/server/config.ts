@@ -52,6 +52,24 @@ const configSchema = z.object({
 		.default('false')
 		.transform((v) => v === 'true' || v === '1'),
 	FAKE_OIDC_PORT: z.coerce.number().int().min(0).max(65535).default(0),
+	/**
+	 * Brakes on password guessing and mail sending (src/lib/server/auth/rateLimit.ts), counted in
+	 * memory per server process over a sliding window of AUTH_LIMIT_WINDOW_MINUTES: failed
+	 * password sign-ins per account and per client address; requests that send mail (sign-in
+	 * links, sign-up, password reset) per client address and per recipient.
+	 */
+	AUTH_LIMIT_WINDOW_MINUTES: z.coerce.number().int().min(1).max(1440).default(15),
+	SIGNIN_FAILURES_PER_ACCOUNT: z.coerce.number().int().min(1).max(1000).default(5),
+	SIGNIN_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).max(100_000).default(30),
+	MAIL_REQUESTS_PER_ADDRESS: z.coerce.number().int().min(1).max(100_000).default(10),
+	MAIL_REQUESTS_PER_RECIPIENT: z.coerce.number().int().min(1).max(1000).default(5),
+	/**
+	 * Password hashing (scrypt, 128 MiB and about a second of CPU each): how many run at once, and
+	 * how many more may wait; beyond that a sign-in, sign-up or reset is refused at once with
+	 * "busy" (src/lib/server/auth/hashingQueue.ts).
+	 */
+	PASSWORD_HASH_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(2),
+	PASSWORD_HASH_QUEUE: z.coerce.number().int().min(0).max(1000).default(4),
 	/** Largest CSV upload, bytes (default 20 MB), and most data rows in one file. */
 	UPLOAD_MAX_BYTES: z.coerce
 		.number()

@@ -1,5 +1,7 @@
 import { noticePreferenceForm } from '$lib/schemas/submission';
+import { signOut } from '$lib/server/auth/authjs';
 import { requireRole, requireUser } from '$lib/server/auth/guards';
+import { endAllSessions } from '$lib/server/auth/sessions';
 import { writeAudit } from '$lib/server/audit/log';
 import { db } from '$lib/server/db';
 import { parseForm } from '$lib/server/forms';
@@ -37,5 +39,15 @@ export const actions: Actions = {
 			});
 		});
 		return { saved: form.data.curationNotices };
+	},
+	/** Ends every session of the account, on every device, this one included. */
+	signOutEverywhere: async (event) => {
+		const user = requireUser(event);
+		await db.transaction().execute(async (trx) => {
+			await endAllSessions(trx, user.id);
+			await writeAudit(trx, { actorId: user.id, action: 'account.sign_out_everywhere' });
+		});
+		// Clears this browser's cookie and redirects (to the form's redirectTo).
+		await signOut(event);
 	}
 };

@@ -10,7 +10,7 @@ export const actions: Actions = {
 		const form = await parseForm(event.request, resetRequestForm);
 		if (!form.ok) return form.failure;
 		const address = event.getClientAddress();
-		const refusal = refuseTooManyMailRequests(address, form.values);
+		const refusal = refuseTooManyMailRequests(address, form.data.email, form.values);
 		if (refusal) return refusal;
 		await requestPasswordReset(db, form.data.email, event.url.origin);
 		return { sentTo: form.data.email };

@@ -1,24 +1,24 @@
 import { fail } from '@sveltejs/kit';
 import { signUpForm } from '$lib/schemas/account';
+import { BusyError } from '$lib/server/auth/hashingQueue';
 import { refuseTooManyMailRequests } from '$lib/server/auth/rateLimit';
-import { AccountExistsError, registerAccount } from '$lib/server/auth/selfService';
+import { registerAccount } from '$lib/server/auth/selfService';
 import { db } from '$lib/server/db';
 import { parseForm } from '$lib/server/forms';
 import type { Actions } from './$types';
 
 export const actions: Actions = {
+	/** The same answer whether or not the address has an account; the mail says which (selfService.ts). */
 	default: async (event) => {
 		const form = await parseForm(event.request, signUpForm);
 		if (!form.ok) return form.failure;
 		const { password: _password, confirm: _confirm, ...values } = form.values;
-		const address = event.getClientAddress();
-		const refusal = refuseTooManyMailRequests(address, values);
+		const refusal = refuseTooManyMailRequests(event.getClientAddress(), form.data.email, values);
 		if (refusal) return refusal;
 		try {
 			await registerAccount(db, form.data, event.url.origin);
 		} catch (e) {
-			if (e instanceof AccountExistsError)
-				return fail(400, { values, errors: { email: [e.message] } });
+			if (e instanceof BusyError) return fail(503, { values, errors: { form: [e.message] } });
 			throw e;
 		}
 		return { sentTo: form.data.email };

@@ -1,6 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { Database, Role } from '../db/schema';
 import { writeAudit } from '../audit/log';
+import { endAllSessions } from '../auth/sessions';
 
 /** Admin services: users, roles and groups. Every change is written to the audit log. */
 
@@ -77,7 +78,10 @@ export async function setUserRole(
 	await audit(trx, actorId, 'user.role', { userId, role: user.role }, { userId, role });
 }
 
-/** @throws {AdminRuleError} for an unknown user or when the last active admin would be disabled. */
+/**
+ * Disables (and signs out everywhere) or enables an account.
+ * @throws {AdminRuleError} for an unknown user or when the last active admin would be disabled.
+ */
 export async function setUserDisabled(
 	trx: Kysely<Database>,
 	actorId: string,
@@ -95,6 +99,8 @@ export async function setUserDisabled(
 	}
 	const disabledAt = disabled ? new Date().toISOString() : null;
 	await trx.updateTable('User').set({ disabledAt }).where('id', '=', userId).execute();
+	// Disabling ends every session at once; enabling again does not revive them.
+	if (disabled) await endAllSessions(trx, userId);
 	await audit(
 		trx,
 		actorId,

@@ -1,60 +1,96 @@
 import { fail } from '@sveltejs/kit';
+import { config } from '../config';
+
 /**
- * Failed sign-in attempts counted per key (an account's e-mail, a client address) over a sliding
- * window. In memory, per server process: a restart forgives everyone, which is acceptable for a
- * brake on password guessing (it is not an audit record).
+ * Attempts counted per key (an account's e-mail, a client address, a mail recipient) over a
+ * sliding window. In memory, per server process: a restart forgives everyone, which is
+ * acceptable for a brake on guessing and mail sending (it is not an audit record).
  */
 export class AttemptLimiter {
-	private failures = new Map<string, number[]>();
+	private attempts = new Map<string, number[]>();
+	/** Keys are swept of expired attempts whenever the map grows past this many. */
+	private sweepAt = 10_000;
 
 	constructor(
-		private readonly maxFailures: number,
+		private readonly maxAttempts: number,
 		private readonly windowMs: number,
 		private readonly now: () => number = Date.now
 	) {}
 
 	private recent(key: string): number[] {
 		const since = this.now() - this.windowMs;
-		const list = (this.failures.get(key) ?? []).filter((t) => t > since);
-		if (list.length) this.failures.set(key, list);
-		else this.failures.delete(key);
+		const list = (this.attempts.get(key) ?? []).filter((t) => t > since);
+		if (list.length) this.attempts.set(key, list);
+		else this.attempts.delete(key);
 		return list;
 	}
 
 	/** Milliseconds until the key may try again; 0 when it may try now. */
 	retryAfterMs(key: string): number {
 		const list = this.recent(key);
-		if (list.length < this.maxFailures) return 0;
-		return list[list.length - this.maxFailures]! + this.windowMs - this.now();
+		if (list.length < this.maxAttempts) return 0;
+		return list[list.length - this.maxAttempts]! + this.windowMs - this.now();
 	}
 
-	recordFailure(key: string): void {
-		this.failures.set(key, [...this.recent(key), this.now()]);
+	record(key: string): void {
+		this.attempts.set(key, [...this.recent(key), this.now()]);
+		if (this.attempts.size > this.sweepAt) {
+			for (const k of [...this.attempts.keys()]) this.recent(k);
+			this.sweepAt = Math.max(10_000, 2 * this.attempts.size);
+		}
+	}
+
+	/** Takes back the latest attempt (one that turned out not to count). */
+	forgiveOne(key: string): void {
+		const list = this.recent(key);
+		list.pop();
+		if (list.length) this.attempts.set(key, list);
+		else this.attempts.delete(key);
 	}
 
 	reset(key: string): void {
-		this.failures.delete(key);
+		this.attempts.delete(key);
+	}
+
+	/** Keys currently remembered (for tests of the sweep). */
+	get size(): number {
+		return this.attempts.size;
 	}
 }
 
-/** Five wrong passwords per account, thirty per client address, in any fifteen minutes. */
-export const accountAttempts = new AttemptLimiter(5, 15 * 60_000);
-export const addressAttempts = new AttemptLimiter(30, 15 * 60_000);
+const WINDOW_MS = config.AUTH_LIMIT_WINDOW_MINUTES * 60_000;
 
-/** Requests that send mail (sign-up, reset), counted per client address: ten per fifteen minutes. */
-export const mailRequests = new AttemptLimiter(10, 15 * 60_000);
+/** Failed password sign-ins per account (its e-mail) and per client address. */
+export const accountAttempts = new AttemptLimiter(config.SIGNIN_FAILURES_PER_ACCOUNT, WINDOW_MS);
+export const addressAttempts = new AttemptLimiter(config.SIGNIN_FAILURES_PER_ADDRESS, WINDOW_MS);
+
+/** Requests that send mail (sign-in links, sign-up, reset), per client address and per recipient. */
+export const mailsPerClient = new AttemptLimiter(config.MAIL_REQUESTS_PER_ADDRESS, WINDOW_MS);
+export const mailsPerRecipient = new AttemptLimiter(config.MAIL_REQUESTS_PER_RECIPIENT, WINDOW_MS);
 
 /**
- * Counts a mail-sending request from a client address; the 429 answer for a form action when
- * the address has sent too many, else null.
+ * Counts a request that may send mail to `recipient` from `client`, whether or not an account
+ * exists for the recipient (so the count reveals nothing).
+ * @returns 0 when it may go ahead (and it is counted), else the milliseconds to wait.
  */
-export function refuseTooManyMailRequests(address: string, values: Record<string, string>) {
-	if (mailRequests.retryAfterMs(address) > 0) {
-		return fail(429, {
-			values,
-			errors: { form: ['Too many requests from your address; try again later.'] }
-		});
-	}
-	mailRequests.recordFailure(address);
-	return null;
+export function takeMailRequest(client: string, recipient: string): number {
+	const key = recipient.trim().toLowerCase();
+	const wait = Math.max(mailsPerClient.retryAfterMs(client), mailsPerRecipient.retryAfterMs(key));
+	if (wait > 0) return wait;
+	mailsPerClient.record(client);
+	mailsPerRecipient.record(key);
+	return 0;
+}
+
+export const TOO_MANY_MAIL_REQUESTS =
+	'Too many requests for mail from your address or to this one; try again later.';
+
+/** takeMailRequest for a form action: the 429 answer when refused, else null. */
+export function refuseTooManyMailRequests(
+	client: string,
+	recipient: string,
+	values: Record<string, string>
+) {
+	if (takeMailRequest(client, recipient) === 0) return null;
+	return fail(429, { values, errors: { form: [TOO_MANY_MAIL_REQUESTS] } });
 }

@@ -1,5 +1,6 @@
 import type { RequestEvent } from '@sveltejs/kit';
-import { signIn } from './authjs';
+import { PasswordRefused, signIn } from './authjs';
+import type { PasswordRefusal } from './passwordSignIn';
 
 /**
  * Hands a sign-in to Auth.js from a form action. Auth.js reads the provider and its fields from
@@ -20,4 +21,23 @@ export async function signInWith(
 	headers.set('x-forwarded-proto', event.url.protocol.replace(':', ''));
 	const request = new Request(event.request.url, { method: 'POST', headers, body });
 	await signIn({ ...event, request });
+}
+
+/**
+ * Signs in with e-mail and password through Auth.js, whose `authorize` applies the limits and
+ * checks the password (auth/passwordSignIn.ts). Redirects when signed in; otherwise returns why
+ * not, for the form to say.
+ */
+export async function signInWithPassword(
+	event: RequestEvent,
+	fields: { email: string; password: string; redirectTo: string }
+): Promise<PasswordRefusal> {
+	try {
+		await signInWith(event, 'password', fields);
+	} catch (e) {
+		// Only the refusal is answered here; the redirect of a successful sign-in goes on up.
+		if (e instanceof PasswordRefused) return e.refusal;
+		throw e;
+	}
+	throw new Error('Auth.js neither signed in nor refused the password sign-in.');
 }

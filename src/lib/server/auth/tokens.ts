@@ -31,6 +31,22 @@ export async function issueToken(
 	return token;
 }
 
+/** Whether the token is known, unused and unexpired, without using it up. */
+export async function tokenIsValid(
+	db: Kysely<Database>,
+	purpose: TokenPurpose,
+	token: string
+): Promise<boolean> {
+	if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) return false;
+	const row = await db
+		.selectFrom('VerificationToken')
+		.select('expires')
+		.where('token', '=', digest(token))
+		.where('identifier', 'like', `${purpose}:%`)
+		.executeTakeFirst();
+	return !!row && row.expires >= new Date().toISOString();
+}
+
 /** The e-mail address the token was issued to, or null when it is unknown, used or expired. */
 export async function consumeToken(
 	db: Kysely<Database>,

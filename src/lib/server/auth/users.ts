@@ -38,22 +38,35 @@ export async function loadSessionUser(
 	};
 }
 
+/** @throws {BusyError} when the password hashing queue is full. */
 export async function createPasswordUser(
 	db: Kysely<Database>,
 	account: { email: string; name: string; password: string; role: Role; verified: boolean }
 ): Promise<string> {
-	const { id } = await db
+	const { password, ...rest } = account;
+	const id = await insertPasswordUser(db, { ...rest, passwordHash: await hashPassword(password) });
+	if (!id) throw new Error(`An account with the e-mail address ${account.email} exists already.`);
+	return id;
+}
+
+/** Inserts an account with a password hashed already; null when the address is taken. */
+export async function insertPasswordUser(
+	db: Kysely<Database>,
+	account: { email: string; name: string; passwordHash: string; role: Role; verified: boolean }
+): Promise<string | null> {
+	const row = await db
 		.insertInto('User')
 		.values({
 			email: account.email.toLowerCase(),
 			name: account.name,
 			role: account.role,
-			passwordHash: await hashPassword(account.password),
+			passwordHash: account.passwordHash,
 			emailVerified: account.verified ? new Date().toISOString() : null,
 			image: null,
 			disabledAt: null
 		})
+		.onConflict((oc) => oc.column('email').doNothing())
 		.returning('id')
-		.executeTakeFirstOrThrow();
-	return id;
+		.executeTakeFirst();
+	return row?.id ?? null;
 }

@@ -10,6 +10,7 @@ export interface Database {
 	Account: AccountTable;
 	Session: SessionTable;
 	VerificationToken: VerificationTokenTable;
+	revoked_session: RevokedSessionTable;
 	research_group: ResearchGroupTable;
 	group_member: GroupMemberTable;
 	entry: EntryTable;
@@ -57,6 +58,15 @@ export interface UserTable {
 	/** How a curator hears of new submissions: a mail each, one daily digest, or none. */
 	curationNotices: Generated<CurationNotices>;
 	lastDigestAt: string | null;
+	/** Raised to end every session of the user; each session cookie carries the one it began under. */
+	sessionGeneration: Generated<number>;
+}
+
+/** A signed-out session, refused until its cookie would have expired anyway. */
+export interface RevokedSessionTable {
+	id: string;
+	user_id: string;
+	expires_at: string;
 }
 
 export type CurationNotices = 'immediate' | 'daily' | 'off';

@@ -55,3 +55,15 @@ export async function sendMail(message: {
 	const t = await getTransport();
 	await t.sendMail({ from: config.MAIL_FROM, ...message, textEncoding: 'base64' });
 }
+
+/**
+ * Sends without making the request wait for the mail server, logging a failure. For mail whose
+ * sending must not show in the answer's timing: whether a sign-in link, a reset link or an
+ * "account exists" notice goes out depends on whether an account exists, and the answer must
+ * not tell.
+ */
+export function sendMailInBackground(message: { to: string; subject: string; text: string }): void {
+	sendMail(message).catch((e: unknown) =>
+		console.error(`Mail to ${message.to} ("${message.subject}") failed:`, e)
+	);
+}
