@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { yieldToEventLoop } from '../eventLoop';
 import type { Kysely } from 'kysely';
 import { potentialConflict } from '$lib/catalogue/conflicts';
+import type { CsvLimits } from '$lib/catalogue/csvRecords';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
 import { UPLOAD_COLUMNS, columnForHeader, type UploadKind } from '$lib/catalogue/uploadColumns';
 import { isAccession } from '$lib/schemas/accession';
@@ -80,10 +81,10 @@ export async function checkUpload(
 	db: Kysely<Database>,
 	text: string,
 	kind: UploadKind,
-	options: { viewer: Viewer | null; maxRows: number }
+	options: { viewer: Viewer | null; limits: CsvLimits }
 ): Promise<UploadCheck> {
 	const sha256 = createHash('sha256').update(text).digest('hex');
-	const table = await readCsv(text, { maxRows: options.maxRows });
+	const table = await readCsv(text, options.limits);
 	const lookups = await loadUploadLookups(db, options.viewer);
 	const issues: UploadIssue[] = table.problems.map((p) => ({
 		row: p.row,
