@@ -21,6 +21,28 @@ const config = {
 		alias: {
 			$migrations: 'migrations',
 			$seed: 'seed'
+		},
+		// The origin check lives in src/lib/server/http/originCheck.ts: the same rule for pages,
+		// the API's JSON error shape under /api, and no Origin needed by cookie-less scripts.
+		csrf: { trustedOrigins: ['*'] },
+		// Content-Security-Policy of every page, with a nonce for SvelteKit's inline script (a hash
+		// on prerendered pages). form-action is added per request in securityHeaders.ts, because
+		// the OpenID Connect issuer is known only at run time. See DEVELOPERS.md, "HTTP hardening".
+		csp: {
+			mode: 'auto',
+			directives: {
+				'default-src': ['self'],
+				'script-src': ['self'],
+				'style-src': ['self'],
+				'style-src-attr': ['none'],
+				'img-src': ['self'],
+				'font-src': ['self'],
+				'connect-src': ['self'],
+				'worker-src': ['self'],
+				'object-src': ['none'],
+				'base-uri': ['none'],
+				'frame-ancestors': ['none']
+			}
 		}
 	}
 };

@@ -10,6 +10,7 @@ import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
 import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
 import { limitRequestSize } from '$lib/server/requestLimits';
+import { httpHardening } from '$lib/server/http';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -42,6 +43,7 @@ const attachUser: Handle = async ({ event, resolve }) => {
 
 export const handle: Handle = sequence(
 	attachRequestFacts,
+	httpHardening,
 	limitRequestSize,
 	authHandle,
 	attachUser
