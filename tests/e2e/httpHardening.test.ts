@@ -206,7 +206,7 @@ describe('security headers', () => {
 		const csp = a.headers.get('content-security-policy') ?? '';
 		expect(csp).toMatch(/script-src 'self' 'nonce-[A-Za-z0-9+/=]+'/);
 		expect(csp).toContain("object-src 'none'");
-		expect(csp).toContain("style-src-attr 'none'");
+		expect(csp).toContain("style-src-attr 'unsafe-hashes' 'sha256-");
 		expect(csp).toMatch(/form-action 'self'/);
 		const nonce = /'nonce-([^']+)'/.exec(csp)?.[1];
 		expect(await a.text()).toContain(`nonce="${nonce}"`);
