@@ -63,7 +63,7 @@ const configSchema = z.object({
 	/**
 	 * The shape of one CSV row, checked while the file is read and before any cell is built
 	 * (src/lib/catalogue/csvRecords.ts): most cells in a row; longest row and longest cell in
-	 * characters. The widest template has under 40 columns and the longest text field (a note)
+	 * characters. The widest template has 16 columns and the longest text field (a note)
 	 * takes 4 000 characters, so the defaults leave room without letting one line cost gigabytes.
 	 */
 	UPLOAD_MAX_COLUMNS: z.coerce.number().int().min(10).max(100_000).default(200),
