@@ -30,10 +30,9 @@ export const NON_PAGE_CSP =
  * added here rather than in svelte.config.js.
  */
 async function formAction(): Promise<string> {
-	const oidc = await oidcSettings();
-	return ["form-action 'self'", oidc ? new URL(oidc.issuer).origin : null]
-		.filter(Boolean)
-		.join(' ');
+	// Sign-in reports its own failure to start the issuer; the page keeps the narrower policy.
+	const oidc = await oidcSettings().catch(() => null);
+	return oidc ? `form-action 'self' ${new URL(oidc.issuer).origin}` : "form-action 'self'";
 }
 
 export const securityHeaders: Handle = async ({ event, resolve }) => {
