@@ -13,6 +13,7 @@ import { openDatabase } from '../src/lib/server/db/connect';
 import { migrateToLatest } from '../src/lib/server/db/migrate';
 import { checkUpload } from '../src/lib/server/uploads/checkUpload';
 import { commitUpload } from '../src/lib/server/uploads/commitUpload';
+import { uploadCsvLimits } from '../src/lib/server/uploads/readCsv';
 
 const ROWS = 100_000;
 
@@ -72,7 +73,10 @@ export async function benchUpload(dataset: string): Promise<void> {
 		const delay = monitorEventLoopDelay({ resolution: 10 });
 		delay.enable();
 		const t0 = performance.now();
-		const check = await checkUpload(db, text, 'potential', { viewer: null, maxRows: 200_000 });
+		const check = await checkUpload(db, text, 'potential', {
+			viewer: null,
+			limits: uploadCsvLimits
+		});
 		const t1 = performance.now();
 		const result = await db.transaction().execute((trx) =>
 			commitUpload(

@@ -1,3 +1,5 @@
+/// <reference types="@sveltejs/adapter-node" />
+// adapter-node gives hooks the Node request as `event.platform.req` (absent under vite dev).
 import type { Viewer } from '$lib/server/catalogue/visibility';
 import type { SessionUser } from '$lib/server/auth/roles';
 

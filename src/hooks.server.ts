@@ -11,6 +11,7 @@ import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
 import { limitRequestSize } from '$lib/server/requestLimits';
 import { secureCookiesOnlyOverHttps } from '$lib/server/secureCookies';
+import { httpHardening } from '$lib/server/http';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -46,6 +47,7 @@ const attachUser: Handle = async ({ event, resolve }) => {
 
 export const handle: Handle = sequence(
 	attachRequestFacts,
+	httpHardening,
 	limitRequestSize,
 	secureCookiesOnlyOverHttps,
 	authHandle,

@@ -11,6 +11,7 @@ import { createDraft, submitForReview, withdrawSubmission } from '$lib/server/cu
 import type { Database } from '$lib/server/db/schema';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { commitUpload } from '$lib/server/uploads/commitUpload';
+import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
 
@@ -91,7 +92,10 @@ describe('the accession space', () => {
 			'centreAccession,couple,reportedValue (mV),referenceElectrode,ph,temperatureK,method',
 			`${centre},[4Fe-4S]2+/1+,-253,SHE,7,298.15,epr_titration`
 		].join('\n');
-		const check = await checkUpload(db, csv, 'potential', { viewer: null, maxRows: 10 });
+		const check = await checkUpload(db, csv, 'potential', {
+			viewer: null,
+			limits: uploadCsvLimits
+		});
 		expect(check.errorCount).toBe(0);
 		const committed = await db.transaction().execute((trx) =>
 			commitUpload(trx, contributor, check, {
@@ -148,7 +152,10 @@ describe('rows awaiting review per contributor', () => {
 			'centreAccession,couple,reportedValue (mV),referenceElectrode,ph,temperatureK,method',
 			...rows
 		].join('\n');
-		const check = await checkUpload(db, csv, 'potential', { viewer: null, maxRows: 10 });
+		const check = await checkUpload(db, csv, 'potential', {
+			viewer: null,
+			limits: uploadCsvLimits
+		});
 		const pending = await pendingRowCount(db, contributor.id);
 		const entriesBefore = await db
 			.selectFrom('entry')

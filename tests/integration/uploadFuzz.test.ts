@@ -6,7 +6,8 @@ import type { Database } from '$lib/server/db/schema';
 import { UPLOAD_COLUMNS, UPLOAD_KINDS } from '$lib/catalogue/uploadColumns';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { commitUpload } from '$lib/server/uploads/commitUpload';
-import { CsvTooLargeError } from '$lib/server/uploads/readCsv';
+import { CsvLimitError } from '$lib/catalogue/csvRecords';
+import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
 
@@ -101,9 +102,12 @@ describe('random CSV files', () => {
 			fc.asyncProperty(csvArb, async ({ kind, text }) => {
 				let check;
 				try {
-					check = await checkUpload(db, text, kind, { viewer: null, maxRows: 50 });
+					check = await checkUpload(db, text, kind, {
+						viewer: null,
+						limits: { ...uploadCsvLimits, maxRows: 50 }
+					});
 				} catch (e) {
-					if (e instanceof CsvTooLargeError) return;
+					if (e instanceof CsvLimitError) return;
 					throw e;
 				}
 				expect(check.errorCount).toBe(check.issues.filter((i) => i.severity === 'error').length);

@@ -6,7 +6,8 @@ import type { Database } from '$lib/server/db/schema';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { commitUpload, UploadHasErrorsError } from '$lib/server/uploads/commitUpload';
 import { decideBatch } from '$lib/server/curation/reviews';
-import { CsvTooLargeError } from '$lib/server/uploads/readCsv';
+import { CsvLimitError } from '$lib/catalogue/csvRecords';
+import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
 
@@ -16,7 +17,7 @@ let contributor: SessionUser;
 let curator: SessionUser;
 const fixture = (name: string) => readFileSync(`tests/fixtures/csv/${name}`, 'utf8');
 const PUBLIC = { visibility: 'public' as const, groupId: null, embargoUntil: null };
-const options = { viewer: null, maxRows: 200_000 };
+const options = { viewer: null, limits: uploadCsvLimits };
 const origin = 'http://hopline.test';
 
 async function user(role: 'contributor' | 'curator', email: string): Promise<SessionUser> {
@@ -157,8 +158,11 @@ describe('checking a CSV file', () => {
 			]
 		]);
 		await expect(
-			checkUpload(db, 'a\n1\n2\n3\n', 'potential', { viewer: null, maxRows: 2 })
-		).rejects.toBeInstanceOf(CsvTooLargeError);
+			checkUpload(db, 'a\n1\n2\n3\n', 'potential', {
+				viewer: null,
+				limits: { ...uploadCsvLimits, maxRows: 2 }
+			})
+		).rejects.toBeInstanceOf(CsvLimitError);
 	});
 });
 

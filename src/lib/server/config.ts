@@ -70,18 +70,28 @@ const configSchema = z.object({
 	 */
 	PASSWORD_HASH_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(2),
 	PASSWORD_HASH_QUEUE: z.coerce.number().int().min(0).max(1000).default(4),
-	/** Largest CSV upload, bytes (default 20 MB), and most data rows in one file. */
+	/** Largest CSV upload, bytes (default 20 MB). */
 	UPLOAD_MAX_BYTES: z.coerce
 		.number()
 		.int()
 		.min(1024)
 		.default(20 * 1024 * 1024),
+	/** Most rows in one CSV file after the header, blank rows included. */
 	UPLOAD_MAX_ROWS: z.coerce.number().int().min(1).default(200_000),
 	/**
 	 * Most entry versions one contributor may have awaiting review (drafts, submitted, returned),
 	 * over forms, API and CSV together; the default lets one full-size file wait beside drafts.
 	 */
 	PENDING_ROWS_MAX: z.coerce.number().int().min(1).default(250_000),
+	/**
+	 * The shape of one CSV row, checked while the file is read and before any cell is built
+	 * (src/lib/catalogue/csvRecords.ts): most cells in a row; longest row and longest cell in
+	 * characters. The widest template has 16 columns and the longest text field (a note)
+	 * takes 4 000 characters, so the defaults leave room without letting one line cost gigabytes.
+	 */
+	UPLOAD_MAX_COLUMNS: z.coerce.number().int().min(10).max(100_000).default(200),
+	UPLOAD_MAX_LINE_CHARS: z.coerce.number().int().min(1024).default(65_536),
+	UPLOAD_MAX_CELL_CHARS: z.coerce.number().int().min(1024).default(10_000),
 	/** Largest request body anywhere else (forms, JSON), bytes. */
 	BODY_MAX_BYTES: z.coerce
 		.number()

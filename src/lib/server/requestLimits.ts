@@ -1,5 +1,7 @@
+import type { IncomingMessage } from 'node:http';
 import type { Handle } from '@sveltejs/kit';
 import { config } from './config';
+import { withHeaders } from './http/headers';
 
 /**
  * Request-size limits, applied before any body is read. adapter-node's own limit is lifted
@@ -57,4 +59,53 @@ export const limitRequestSize: Handle = async ({ event, resolve }) => {
 				});
 	}
 	return resolve(event);
+};
+
+/** How much of an unread body is read and thrown away before answering, at most. */
+const DRAIN_MAX_BYTES = 64 * 1024 * 1024;
+const DRAIN_MAX_MS = 5000;
+
+/**
+ * Reads and discards what is left of a request body (nothing is kept), until it ends or the
+ * bounds above are passed. A client that is still sending when a socket is closed gets a reset
+ * instead of the answer (Node's own fetch fails with EPIPE), so the body is drained first.
+ */
+function drainBody(req: IncomingMessage): Promise<void> {
+	if (req.complete || req.destroyed) return Promise.resolve();
+	const declared = Number(req.headers['content-length']);
+	if (Number.isFinite(declared) && declared > DRAIN_MAX_BYTES) return Promise.resolve();
+	return new Promise((resolve) => {
+		let bytes = 0;
+		const done = () => {
+			clearTimeout(timer);
+			req.off('data', count).off('end', done).off('close', done);
+			resolve();
+		};
+		const count = (chunk: Buffer) => {
+			bytes += chunk.length;
+			if (bytes > DRAIN_MAX_BYTES) done();
+		};
+		const timer = setTimeout(done, DRAIN_MAX_MS);
+		// SvelteKit's body stream listens too and would keep every chunk: it is never read now.
+		req.removeAllListeners('data');
+		req.on('data', count).once('end', done).once('close', done);
+		req.resume();
+	});
+}
+
+/**
+ * Closes the connection after a response that left the request body unread: a refusal
+ * answered before reading it (the 413s above, a cross-site 403, a 401 from a guard). Node would
+ * otherwise keep the socket for the next request with the rest of the body still in it, and
+ * that next request would wait and fail. The rest of the body is drained first (within bounds)
+ * so that the client reads the answer; `Connection: close` then tells the client and makes Node
+ * end the socket once the response is written. Under vite dev there is no Node request to
+ * drain; an unread body stream is the sign there.
+ */
+export const closeIfBodyUnread: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	const node = event.platform?.req;
+	if (node ? node.complete : event.request.body === null || event.request.bodyUsed) return response;
+	if (node) await drainBody(node);
+	return withHeaders(response, { connection: 'close' });
 };

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { yieldToEventLoop } from '../eventLoop';
 import type { Kysely } from 'kysely';
 import { potentialConflict } from '$lib/catalogue/conflicts';
+import type { CsvLimits } from '$lib/catalogue/csvRecords';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
 import { UPLOAD_COLUMNS, columnForHeader, type UploadKind } from '$lib/catalogue/uploadColumns';
 import { isAccession } from '$lib/schemas/accession';
@@ -82,13 +83,13 @@ export async function checkUpload(
 	kind: UploadKind,
 	options: {
 		viewer: Viewer | null;
-		maxRows: number;
+		limits: CsvLimits;
 		/** The uploader: only their own earlier uploads of the same file are recognised. */
 		uploaderId?: string | null;
 	}
 ): Promise<UploadCheck> {
 	const sha256 = createHash('sha256').update(text).digest('hex');
-	const table = await readCsv(text, { maxRows: options.maxRows });
+	const table = await readCsv(text, options.limits);
 	const lookups = await loadUploadLookups(db, options.viewer);
 	const issues: UploadIssue[] = table.problems.map((p) => ({
 		row: p.row,

@@ -1,9 +1,18 @@
-import Papa, { type ParseResult, type Parser } from 'papaparse';
+import {
+	CsvRecordSplitter,
+	parseBlock,
+	type CsvBlock,
+	type CsvLimits
+} from '$lib/catalogue/csvRecords';
+import { config } from '../config';
+import { yieldToEventLoop } from '../eventLoop';
 
 /**
  * Reads CSV text as people export it from spreadsheets: comma, semicolon or tab; UTF-8 with or
  * without a byte-order mark; Windows or Unix line ends; quoted fields; blank rows anywhere. The
- * text is parsed in chunks that yield to the event loop, so a large file never stalls the server.
+ * text goes through the record splitter in chunks that yield to the event loop, so a large file
+ * never stalls the server, and a file beyond the limits (rows, columns, length of a row or a
+ * cell) is refused with CsvLimitError before papaparse builds anything for it.
  */
 export interface CsvTable {
 	delimiter: string;
@@ -14,52 +23,34 @@ export interface CsvTable {
 	problems: { row: number; message: string }[];
 }
 
-export class CsvTooLargeError extends Error {
-	constructor(readonly limit: number) {
-		super(`the file has more than ${limit} data rows`);
-		this.name = 'CsvTooLargeError';
-	}
-}
+/** The limits of an upload, from the configuration. */
+export const uploadCsvLimits: CsvLimits = {
+	maxRows: config.UPLOAD_MAX_ROWS,
+	maxColumns: config.UPLOAD_MAX_COLUMNS,
+	maxLineChars: config.UPLOAD_MAX_LINE_CHARS,
+	maxCellChars: config.UPLOAD_MAX_CELL_CHARS
+};
 
-const CHUNK_BYTES = 512 * 1024;
+const CHUNK_CHARS = 512 * 1024;
 
-export function readCsv(text: string, options: { maxRows: number }): Promise<CsvTable> {
+export async function readCsv(text: string, limits: CsvLimits): Promise<CsvTable> {
 	const source = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 	const table: CsvTable = { delimiter: ',', headers: [], rows: [], problems: [] };
-	let record = 0;
-	let tooMany = false;
-	return new Promise((resolve, reject) => {
-		Papa.parse<string[]>(source, {
-			delimitersToGuess: [',', ';', '\t'],
-			skipEmptyLines: false,
-			chunkSize: CHUNK_BYTES,
-			chunk: (results: ParseResult<string[]>, parser: Parser) => {
-				table.delimiter = results.meta.delimiter;
-				for (const e of results.errors) {
-					// Papa's row index counts records from 0 within the whole file.
-					if (e.code !== 'UndetectableDelimiter')
-						table.problems.push({ row: (e.row ?? 0) + record + 1, message: e.message });
-				}
-				for (const cells of results.data as string[][]) {
-					record++;
-					if (record === 1) {
-						table.headers = cells.map((h) => h.trim());
-						continue;
-					}
-					if (cells.every((c) => c.trim() === '')) continue;
-					if (table.rows.length >= options.maxRows) {
-						// abort() completes the parse at once; complete() then reports the limit.
-						tooMany = true;
-						parser.abort();
-						return;
-					}
-					table.rows.push({ row: record, cells });
-				}
-				parser.pause();
-				setImmediate(() => parser.resume());
-			},
-			complete: () => (tooMany ? reject(new CsvTooLargeError(options.maxRows)) : resolve(table)),
-			error: (e: Error) => reject(e)
-		});
-	});
+	const splitter = new CsvRecordSplitter(limits);
+	const take = (block: CsvBlock | null) => {
+		if (!block || !splitter.dialect) return;
+		const { records, problems } = parseBlock(block, splitter.dialect);
+		table.problems.push(...problems);
+		for (const { row, cells } of records) {
+			if (row === 1) table.headers = cells.map((h) => h.trim());
+			else if (cells.some((c) => c.trim() !== '')) table.rows.push({ row, cells });
+		}
+	};
+	for (let at = 0; at < source.length; at += CHUNK_CHARS) {
+		take(splitter.push(source.slice(at, at + CHUNK_CHARS)));
+		await yieldToEventLoop();
+	}
+	take(splitter.end());
+	table.delimiter = splitter.dialect?.delimiter ?? ',';
+	return table;
 }

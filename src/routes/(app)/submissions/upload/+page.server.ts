@@ -8,7 +8,8 @@ import { groupsForSharing } from '$lib/server/curation/formDefaults';
 import { deliver } from '$lib/server/curation/outbox';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { commitUpload } from '$lib/server/uploads/commitUpload';
-import { CsvTooLargeError } from '$lib/server/uploads/readCsv';
+import { CsvLimitError } from '$lib/catalogue/csvRecords';
+import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { summariseCheck } from '$lib/server/uploads/summary';
 import { readUploadForm } from '$lib/server/uploads/uploadForm';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
@@ -18,7 +19,7 @@ export const load: PageServerLoad = async (event) => {
 	return {
 		kinds: UPLOAD_KINDS,
 		groups: await groupsForSharing(db, user),
-		limits: { bytes: config.UPLOAD_MAX_BYTES, rows: config.UPLOAD_MAX_ROWS }
+		limits: { bytes: config.UPLOAD_MAX_BYTES, csv: uploadCsvLimits }
 	};
 };
 
@@ -34,20 +35,13 @@ async function checked(event: RequestEvent) {
 		const check = await checkUpload(db, form.text, form.kind, {
 			viewer: { groupIds: user.groupIds },
 			uploaderId: user.id,
-			maxRows: config.UPLOAD_MAX_ROWS
+			limits: uploadCsvLimits
 		});
 		return { user, form, check };
 	} catch (e) {
-		if (!(e instanceof CsvTooLargeError)) throw e;
-		return {
-			user,
-			failure: fail(413, {
-				values: form.values,
-				errors: {
-					file: [`The file has more than ${e.limit} data rows, the limit per file; split it.`]
-				}
-			})
-		};
+		if (!(e instanceof CsvLimitError)) throw e;
+		// Beside the file field: which row passed which limit.
+		return { user, failure: fail(413, { values: form.values, errors: { file: [e.message] } }) };
 	}
 }
 

@@ -3,10 +3,10 @@ import { json } from '@sveltejs/kit';
 import { assertRole } from '$lib/server/auth/roles';
 import { apiHandler } from '$lib/server/api/handler';
 import { apiError } from '$lib/server/api/respond';
-import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
-import { CsvTooLargeError } from '$lib/server/uploads/readCsv';
+import { CsvLimitError } from '$lib/catalogue/csvRecords';
+import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { summariseCheck } from '$lib/server/uploads/summary';
 import { readUploadForm } from '$lib/server/uploads/uploadForm';
 import type { RequestHandler } from './$types';
@@ -38,14 +38,12 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 		check = await checkUpload(db, form.text, form.kind, {
 			viewer: { groupIds: user.groupIds },
 			uploaderId: user.id,
-			maxRows: config.UPLOAD_MAX_ROWS
+			limits: uploadCsvLimits
 		});
 	} catch (e) {
-		if (e instanceof CsvTooLargeError)
-			return apiError(
-				'payload_too_large',
-				`The file has more than ${e.limit} data rows, the limit per file.`
-			);
+		// The message names the row and the limit it passed.
+		if (e instanceof CsvLimitError)
+			return apiError('payload_too_large', e.message, { file: [e.message] });
 		throw e;
 	}
 	if (format === 'csv') {
