@@ -1,6 +1,7 @@
 import { error } from '@sveltejs/kit';
 import { buildLadder } from '$lib/catalogue/ladder';
-import { estimateLadderChain } from '$lib/server/calc/chainEstimate';
+import { ladderChainInput } from '$lib/server/calc/chainEstimate';
+import { chainEstimateFor } from '$lib/server/calc/compute';
 import { parseVersionSegment } from '$lib/schemas/accession';
 import { getEntryView } from '$lib/server/catalogue/entryView';
 import { EntryNotFoundError } from '$lib/server/catalogue/errors';
@@ -32,7 +33,10 @@ export const load: PageServerLoad = async ({ params, locals }) => {
 		view.kind === 'protein' && related
 			? buildLadder(related.centres, related.potentials, related.distances)
 			: null;
-	const chain = ladder && related ? estimateLadderChain(ladder, related.potentials) : null;
+	// Computed in a calculation worker (and kept while the chain is unchanged).
+	const chain = await chainEstimateFor(
+		ladder && related ? ladderChainInput(ladder, related.potentials) : null
+	);
 	// A potential is flagged against the other approved values of its centre that it contradicts.
 	const siblings =
 		view.kind === 'potential' && typeof view.data.centreAccession === 'string'
@@ -50,7 +54,8 @@ export const load: PageServerLoad = async ({ params, locals }) => {
 		view,
 		related,
 		ladder,
-		chain,
+		chain: chain.estimate,
+		chainNote: chain.note,
 		conflicts,
 		conflictRule: describeConflictRule(),
 		canPropose: locals.user !== null && roleAtLeast(locals.user.role, 'contributor'),
