@@ -83,9 +83,10 @@ const configSchema = z.object({
 	/**
 	 * Running time allowed to one calculation, milliseconds (time spent waiting for a worker is
 	 * not counted). Past it the worker is terminated and the request answers 422. The largest
-	 * inputs the schemas accept take about a second on a 2-core machine.
+	 * inputs the schemas accept take about a second on an idle 2-core machine; the margin is for
+	 * a machine shared with other work.
 	 */
-	CALC_TIME_LIMIT_MS: z.coerce.number().int().min(10).max(600_000).default(5000),
+	CALC_TIME_LIMIT_MS: z.coerce.number().int().min(10).max(600_000).default(10_000),
 	/** Heap allowed to each calculation worker, MB; a worker that needs more is ended. */
 	CALC_WORKER_MEMORY_MB: z.coerce.number().int().min(16).max(16_384).default(256),
 	/**
