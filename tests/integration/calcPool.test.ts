@@ -1,5 +1,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { fitNernst, nernstFractionReduced } from '$lib/science';
+import { estimateChain, type LadderChainInput } from '$lib/server/calc/chainEstimate';
+import { chainEstimateFor } from '$lib/server/calc/compute';
 import { CalcBusyError, CalcTimeLimitError, CalcWorkerError } from '$lib/server/calc/errors';
 import { runCalcJob, type CalcJob } from '$lib/server/calc/jobs';
 import { WorkerPool, type WorkerPoolOptions } from '$lib/server/calc/pool';
@@ -118,5 +120,35 @@ describe('calculation worker pool', () => {
 			})
 		});
 		await expect(p.run(titration)).rejects.toBeInstanceOf(CalcWorkerError);
+	});
+});
+
+describe('protein-page chain estimates (the service’s own pool)', () => {
+	const input: LadderChainInput = {
+		chain: {
+			centres: [
+				{ id: 'HL000001', emMv: -400, emSigmaMv: 20 },
+				{ id: 'HL000002', emMv: -300, emSigmaMv: 15 },
+				{ id: 'HL000003', emMv: -150 }
+			],
+			hops: [
+				{ from: 'HL000001', to: 'HL000002', edgeDistanceA: 9 },
+				{ from: 'HL000002', to: 'HL000003', edgeDistanceA: 11 }
+			],
+			entry: 'HL000001',
+			exit: 'HL000003',
+			lambdaEv: 0.7,
+			temperatureK: 298.15,
+			model: 'moser-dutton'
+		},
+		labels: { HL000001: 'FS1', HL000002: 'FS2', HL000003: 'FS3' }
+	};
+
+	it('equals the estimate made in this thread, and is reused for the same chain', async () => {
+		const first = await chainEstimateFor(input);
+		expect(first).toEqual({ estimate: estimateChain(input), note: null });
+		const again = await chainEstimateFor(structuredClone(input));
+		expect(again.estimate).toBe(first.estimate); // the kept result, not a new computation
+		expect(await chainEstimateFor(null)).toEqual({ estimate: null, note: null });
 	});
 });
