@@ -121,6 +121,18 @@ describe('calculation worker pool', () => {
 		});
 		await expect(p.run(titration)).rejects.toBeInstanceOf(CalcWorkerError);
 	});
+
+	it('gives up on a worker that stays alive but never reports ready', async () => {
+		const p = pool({
+			startupLimitMs: 3000,
+			load: async () => ({
+				url: 'data:text/javascript,setInterval(() => {}, 1000)',
+				workerData: null
+			})
+		});
+		await expect(p.run(titration)).rejects.toThrow(/did not report ready within 3000 ms/);
+		expect(p.stats()).toEqual({ workers: 0, running: 0, queued: 0 });
+	});
 });
 
 describe('protein-page chain estimates (the service’s own pool)', () => {

@@ -35,6 +35,11 @@ export interface WorkerPoolOptions {
 	 * the module's URL is learnt by importing it (see calc.worker.ts).
 	 */
 	load: () => Promise<WorkerModule>;
+	/**
+	 * Time a new worker may take to load its module and report ready (tsx compiles it first in
+	 * development). @default 30000
+	 */
+	startupLimitMs?: number;
 }
 
 interface Task {
@@ -162,9 +167,17 @@ export class WorkerPool {
 			: new Worker(url, options);
 		slot.worker = worker;
 		slot.ready = false;
+		// A worker that never reports ready (a wrong module) must not hold the queue for ever.
+		const startupLimitMs = this.options.startupLimitMs ?? 30_000;
+		const startup = setTimeout(() => {
+			lost(`it did not report ready within ${startupLimitMs} ms`);
+			void worker.terminate();
+		}, startupLimitMs);
+		startup.unref();
 		worker.on('message', (reply: WorkerReply) => {
 			if (slot.worker !== worker) return;
 			if (reply.type === 'ready') {
+				clearTimeout(startup);
 				slot.ready = true;
 				if (this.queue.length) this.pump();
 				else worker.unref();
@@ -180,6 +193,7 @@ export class WorkerPool {
 			else worker.unref();
 		});
 		const lost = (reason: string) => {
+			clearTimeout(startup);
 			if (slot.worker !== worker) return; // terminated on purpose
 			const task = slot.task;
 			const wasReady = slot.ready;
