@@ -3,10 +3,7 @@
 /** Every worker is busy and the queue is full: 503 with Retry-After. */
 export class CalcBusyError extends Error {
 	constructor(readonly retryAfterSeconds: number) {
-		super(
-			`The calculators are busy; try again in ${retryAfterSeconds} s. ` +
-				'Signed-in users and smaller inputs do not skip the queue, but the wait is short.'
-		);
+		super(`The calculators are busy; try again in ${retryAfterSeconds} s.`);
 		this.name = 'CalcBusyError';
 	}
 }
