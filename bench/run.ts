@@ -3,6 +3,7 @@
 // 2. API list throughput (100 rows a page) beside a raw node:http + better-sqlite3 server;
 // 3. server RSS after the search index is built;
 // 4. CSV upload: 100 000 rows checked and committed, beside raw prepared inserts (bench/upload.ts);
+// 5. latency of GET /api/v1 while three heavy calculator requests run (bench/calc.ts);
 // and first, the science engine's timings (bench/science.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
@@ -15,6 +16,7 @@ import { encodeCursor } from '../src/lib/schemas/pagination';
 import { ensureDataset } from './dataset';
 import { benchScience } from './science';
 import { benchUpload } from './upload';
+import { benchCalcLatency } from './calc';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -192,3 +194,4 @@ console.log(
 await benchSearch();
 await benchApi();
 await benchUpload(DATASET);
+await benchCalcLatency();

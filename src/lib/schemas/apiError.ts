@@ -9,7 +9,13 @@ export const API_ERROR_CODES = {
 	method_not_allowed: 405,
 	conflict: 409,
 	payload_too_large: 413,
-	internal_error: 500
+	/** A calculation stopped at its time limit (CALC_TIME_LIMIT_MS). */
+	time_limit_exceeded: 422,
+	/** Too many calculations from one address without an account; see Retry-After. */
+	too_many_requests: 429,
+	internal_error: 500,
+	/** Every calculation worker is busy and the queue is full; see Retry-After. */
+	unavailable: 503
 } as const;
 export type ApiErrorCode = keyof typeof API_ERROR_CODES;
 

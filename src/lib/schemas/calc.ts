@@ -32,13 +32,30 @@ const finite = (min: number, max: number, unit = '') =>
 			`expected a number from ${min} to ${max}${unit}`
 		);
 
-export const MAX_TITRATION_POINTS = 5000;
+/*
+ * Input sizes are bounded by what each method needs, so that no single request can hold a
+ * calculation worker for long (the workers also have a time limit: CALC_TIME_LIMIT_MS).
+ * - Titration points: a redox titration has tens of points and a continuously logged one a few
+ *   hundred; 1 000 covers both (a two-component fit of 1 000 noisy points takes about 0.5 s).
+ * - DVR grid points: the Colbert–Miller DVR converges the lowest levels of the wells these inputs
+ *   allow to better than 0.1 cm⁻¹ with 150–300 points (checked against 1 000 points); 600 leaves
+ *   room for wide or heavy cases. The cost grows with the cube (600 points: about 1 s for the
+ *   levels and the H/D isotope effect together on a 2-core machine; 800 took 2.6 s).
+ * - Sampled potential rows: a scan along a proton coordinate has tens of points; 500 is ample.
+ */
+export const MAX_TITRATION_POINTS = 1000;
+export const MIN_GRID_POINTS = 50;
+export const MAX_GRID_POINTS = 600;
+export const MAX_POTENTIAL_SAMPLES = 500;
 
 export const titrationRequestSchema = z.strictObject({
 	points: z
 		.array(z.strictObject({ potentialMv: finite(-3000, 3000, ' mV'), signal: finite(-1e12, 1e12) }))
 		.min(4, 'at least 4 points are needed')
-		.max(MAX_TITRATION_POINTS, `at most ${MAX_TITRATION_POINTS} points`),
+		.max(
+			MAX_TITRATION_POINTS,
+			`at most ${MAX_TITRATION_POINTS} points (a titration needs tens to a few hundred)`
+		),
 	components: z.union([z.literal(1), z.literal(2)], { error: 'expected 1 or 2' }).default(1),
 	n: finite(0.1, 4).optional(),
 	temperatureK: finite(1, 1000, ' K').default(298.15)
@@ -62,10 +79,16 @@ export const sampledPotentialSchema = z.strictObject({
 			z.strictObject({ xA: finite(-20, 20, ' Å'), energyKcalMol: finite(-1000, 1000, ' kcal/mol') })
 		)
 		.min(4, 'at least 4 points are needed')
-		.max(2000, 'at most 2000 points')
+		.max(
+			MAX_POTENTIAL_SAMPLES,
+			`at most ${MAX_POTENTIAL_SAMPLES} points (a scan needs tens; the levels come from the grid)`
+		)
 });
 
 export const ISOTOPES = ['H', 'D', 'T', 'hydride'] as const;
+
+const gridMessage = `expected a whole number of grid points from ${MIN_GRID_POINTS} to ${MAX_GRID_POINTS}`;
+const levelsMessage = 'expected a whole number of levels from 2 to 20';
 
 export const tunnellingRequestSchema = z
 	.strictObject({
@@ -77,8 +100,18 @@ export const tunnellingRequestSchema = z
 		massAmu: finite(0.5, 300, ' u').optional(),
 		xMinA: finite(-20, 20, ' Å').optional(),
 		xMaxA: finite(-20, 20, ' Å').optional(),
-		points: z.number().int().min(50).max(800).default(400),
-		levels: z.number().int().min(2).max(20).default(6)
+		points: z
+			.number({ error: gridMessage })
+			.int(gridMessage)
+			.min(MIN_GRID_POINTS, gridMessage)
+			.max(MAX_GRID_POINTS, gridMessage)
+			.default(400),
+		levels: z
+			.number({ error: levelsMessage })
+			.int(levelsMessage)
+			.min(2, levelsMessage)
+			.max(20, levelsMessage)
+			.default(6)
 	})
 	.refine((r) => r.imagFreqCm1 !== undefined || r.potential !== undefined, {
 		path: ['imagFreqCm1'],

@@ -1,3 +1,4 @@
+import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
 /**
@@ -97,7 +98,35 @@ const configSchema = z.object({
 		.number()
 		.int()
 		.min(1024)
-		.default(2 * 1024 * 1024)
+		.default(2 * 1024 * 1024),
+	/**
+	 * Calculations (titration fits, tunnelling levels, protein chain estimates) run in worker
+	 * threads, never on the thread that answers requests (src/lib/server/calc/pool.ts).
+	 * CALC_WORKERS: how many at once; by default one fewer than the cores, at least one, so a
+	 * core stays free for requests.
+	 */
+	CALC_WORKERS: z.coerce
+		.number()
+		.int()
+		.min(1)
+		.max(64)
+		.default(Math.max(1, availableParallelism() - 1)),
+	/** Calculations that may wait for a worker; beyond that a request gets 503 with Retry-After. */
+	CALC_QUEUE_MAX: z.coerce.number().int().min(0).max(10_000).default(8),
+	/**
+	 * Running time allowed to one calculation, milliseconds (time spent waiting for a worker is
+	 * not counted). Past it the worker is terminated and the request answers 422. The largest
+	 * inputs the schemas accept take about a second on an idle 2-core machine; the margin is for
+	 * a machine shared with other work.
+	 */
+	CALC_TIME_LIMIT_MS: z.coerce.number().int().min(10).max(600_000).default(10_000),
+	/** Heap allowed to each calculation worker, MB; a worker that needs more is ended. */
+	CALC_WORKER_MEMORY_MB: z.coerce.number().int().min(16).max(16_384).default(256),
+	/**
+	 * Calculations one client address may start per minute without signing in (IPv6 addresses
+	 * counted per /64); over it, 429 with Retry-After. Signed-in users are bounded by the queue.
+	 */
+	CALC_ANON_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(30)
 });
 
 export type Config = z.infer<typeof configSchema>;

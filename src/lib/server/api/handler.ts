@@ -7,6 +7,7 @@ import {
 	SubmissionNotFoundError,
 	SubmissionStateError
 } from '../curation/errors';
+import { CalcBusyError, CalcRateLimitedError, CalcTimeLimitError } from '../calc/errors';
 import { apiError } from './respond';
 
 /**
@@ -31,6 +32,13 @@ export function apiHandler<E extends RequestEvent>(handler: (event: E) => Promis
 			if (err instanceof SubmissionStateError) return apiError('conflict', err.message);
 			if (err instanceof SubmissionAccessError) return apiError('forbidden', err.message);
 			if (err instanceof SubmissionNotFoundError) return apiError('not_found', err.message);
+			if (err instanceof CalcRateLimitedError || err instanceof CalcBusyError) {
+				const code = err instanceof CalcBusyError ? 'unavailable' : 'too_many_requests';
+				const response = apiError(code, err.message);
+				response.headers.set('retry-after', String(err.retryAfterSeconds));
+				return response;
+			}
+			if (err instanceof CalcTimeLimitError) return apiError('time_limit_exceeded', err.message);
 			const errorId = crypto.randomUUID();
 			console.error(`[api ${errorId}] ${event.request.method} ${event.url.pathname}`, err);
 			return Response.json(

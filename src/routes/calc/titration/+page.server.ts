@@ -1,14 +1,15 @@
 import { fail } from '@sveltejs/kit';
-import { fitNernst } from '$lib/science';
 import { MAX_TITRATION_POINTS, fieldErrors, titrationRequestSchema } from '$lib/schemas/calc';
+import { calcFormFailure, calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import type { Actions } from './$types';
 
 const MAX_UPLOAD_BYTES = 1_000_000;
 
 export const actions: Actions = {
-	default: async ({ request }) => {
-		const form = await request.formData();
+	default: async (event) => {
+		const caller = callerOf(event);
+		const form = await event.request.formData();
 		const file = form.get('file');
 		const pasted = String(form.get('points') ?? '');
 		const values = {
@@ -17,6 +18,11 @@ export const actions: Actions = {
 			n: String(form.get('n') ?? ''),
 			temperatureK: String(form.get('temperatureK') ?? '298.15')
 		};
+		try {
+			checkCaller(caller);
+		} catch (e) {
+			return calcFormFailure(e, event, values, 'points');
+		}
 		let text = pasted;
 		if (file instanceof File && file.size > 0) {
 			if (file.size > MAX_UPLOAD_BYTES)
@@ -40,10 +46,10 @@ export const actions: Actions = {
 		if (!parsed.success) return fail(400, { values, errors: fieldErrors(parsed.error) });
 		const { points: valid, ...options } = parsed.data;
 		try {
-			return { values, fit: fitNernst(valid, options), points: valid };
+			const fit = await calculate({ kind: 'titration', points: valid, options }, caller);
+			return { values, fit, points: valid };
 		} catch (e) {
-			if (e instanceof RangeError) return fail(400, { values, errors: { points: [e.message] } });
-			throw e;
+			return calcFormFailure(e, event, values, 'points');
 		}
 	}
 };

@@ -1,6 +1,6 @@
 import { fail } from '@sveltejs/kit';
-import { fieldErrors, tunnellingRequestSchema } from '$lib/schemas/calc';
-import { runTunnelling } from '$lib/server/calc/tunnelling';
+import { MAX_POTENTIAL_SAMPLES, fieldErrors, tunnellingRequestSchema } from '$lib/schemas/calc';
+import { calcFormFailure, calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import type { Actions } from './$types';
 
@@ -10,8 +10,9 @@ const numberOrUndefined = (value: string) =>
 	value === '' ? undefined : Number(value.replace('\u2212', '-'));
 
 export const actions: Actions = {
-	default: async ({ request }) => {
-		const form = await request.formData();
+	default: async (event) => {
+		const caller = callerOf(event);
+		const form = await event.request.formData();
 		const values = Object.fromEntries(
 			[
 				'temperatureK',
@@ -26,8 +27,13 @@ export const actions: Actions = {
 				'levels'
 			].map((k) => [k, text(form, k)])
 		);
+		try {
+			checkCaller(caller);
+		} catch (e) {
+			return calcFormFailure(e, event, values, 'potential');
+		}
 		const kind = values.potentialKind;
-		const sampled = parseTwoColumnText(values.pointsText ?? '', ['x', 'V'], 2000);
+		const sampled = parseTwoColumnText(values.pointsText ?? '', ['x', 'V'], MAX_POTENTIAL_SAMPLES);
 		if (kind === 'points' && sampled.errors.length) {
 			return fail(400, { values, errors: { 'potential.points': sampled.errors } });
 		}
@@ -52,10 +58,12 @@ export const actions: Actions = {
 		});
 		if (!parsed.success) return fail(400, { values, errors: fieldErrors(parsed.error) });
 		try {
-			return { values, result: runTunnelling(parsed.data) };
+			return {
+				values,
+				result: await calculate({ kind: 'tunnelling', request: parsed.data }, caller)
+			};
 		} catch (e) {
-			if (e instanceof RangeError) return fail(400, { values, errors: { potential: [e.message] } });
-			throw e;
+			return calcFormFailure(e, event, values, 'potential');
 		}
 	}
 };

@@ -2,9 +2,10 @@ import { error } from '@sveltejs/kit';
 import { describeConflictRule } from '$lib/catalogue/conflicts';
 import { buildLadder } from '$lib/catalogue/ladder';
 import { roleAtLeast } from '$lib/roles';
+import { ladderChainInput } from '$lib/server/calc/chainEstimate';
+import { chainEstimateFor } from '$lib/server/calc/compute';
 import { parseVersionSegment } from '$lib/schemas/accession';
 import { parseRelatedPages } from '$lib/schemas/relatedPages';
-import { estimateLadderChain } from '$lib/server/calc/chainEstimate';
 import { conflictFlags, conflictFlagsOfPotential } from '$lib/server/catalogue/conflictFlags';
 import { getEntryView } from '$lib/server/catalogue/entryView';
 import { EntryNotFoundError } from '$lib/server/catalogue/errors';
@@ -49,8 +50,10 @@ export const load: PageServerLoad = async ({ params, locals, url }) => {
 		ladderData?.ok === true
 			? buildLadder(ladderData.centres, ladderData.potentials, ladderData.distances)
 			: null;
-	const chain =
-		ladder && ladderData?.ok ? estimateLadderChain(ladder, ladderData.potentials) : null;
+	// Computed in a calculation worker (and kept while the chain is unchanged).
+	const chain = await chainEstimateFor(
+		ladder && ladderData?.ok ? ladderChainInput(ladder, ladderData.potentials) : null
+	);
 	// Flags for what the page shows: this potential, or the page of potentials listed.
 	const conflicts =
 		view.kind === 'potential'
@@ -61,7 +64,8 @@ export const load: PageServerLoad = async ({ params, locals, url }) => {
 		related,
 		ladder,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
-		chain,
+		chain: chain.estimate,
+		chainNote: chain.note,
 		conflicts: conflicts.flags,
 		conflictsTruncated: conflicts.truncated,
 		conflictRule: describeConflictRule(),

@@ -1,18 +1,20 @@
-import { fitNernst } from '$lib/science';
 import { titrationRequestSchema } from '$lib/schemas/calc';
 import { parseJsonBody } from '$lib/server/api/body';
 import { apiHandler } from '$lib/server/api/handler';
 import { apiError, computedJson } from '$lib/server/api/respond';
+import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import type { RequestHandler } from './$types';
 
 /** POST /api/v1/calc/titration — Nernst fit of { points: [{ potentialMv, signal }], components, n?, temperatureK? }. */
-export const POST: RequestHandler = apiHandler(async ({ request }) => {
-	const body = await parseJsonBody(request, titrationRequestSchema);
+export const POST: RequestHandler = apiHandler(async (event) => {
+	const caller = callerOf(event);
+	checkCaller(caller);
+	const body = await parseJsonBody(event.request, titrationRequestSchema);
 	if (!body.ok) return body.response;
 	const { points, ...options } = body.data;
 	let fit;
 	try {
-		fit = fitNernst(points, options);
+		fit = await calculate({ kind: 'titration', points, options }, caller);
 	} catch (e) {
 		if (e instanceof RangeError) return apiError('bad_request', e.message, { points: [e.message] });
 		throw e;

@@ -2,16 +2,18 @@ import { tunnellingRequestSchema } from '$lib/schemas/calc';
 import { parseJsonBody } from '$lib/server/api/body';
 import { apiHandler } from '$lib/server/api/handler';
 import { apiError, computedJson } from '$lib/server/api/respond';
-import { runTunnelling } from '$lib/server/calc/tunnelling';
+import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import type { RequestHandler } from './$types';
 
 /** POST /api/v1/calc/tunnelling — tunnelling factors and/or vibrational levels of a potential. */
-export const POST: RequestHandler = apiHandler(async ({ request }) => {
-	const body = await parseJsonBody(request, tunnellingRequestSchema);
+export const POST: RequestHandler = apiHandler(async (event) => {
+	const caller = callerOf(event);
+	checkCaller(caller);
+	const body = await parseJsonBody(event.request, tunnellingRequestSchema);
 	if (!body.ok) return body.response;
 	let result;
 	try {
-		result = runTunnelling(body.data);
+		result = await calculate({ kind: 'tunnelling', request: body.data }, caller);
 	} catch (e) {
 		if (e instanceof RangeError)
 			return apiError('bad_request', e.message, { potential: [e.message] });

@@ -1,0 +1,132 @@
+import { fail, type RequestEvent } from '@sveltejs/kit';
+import type { ChainEstimate } from '$lib/catalogue/chainEstimate';
+import { config } from '../config';
+import { AddressWindow, addressKey } from './addressLimit';
+import type { LadderChainInput } from './chainEstimate';
+import { CalcBusyError, CalcRateLimitedError, CalcTimeLimitError } from './errors';
+import type { CalcJob, CalcKind, CalcResults } from './jobs';
+import { WorkerPool } from './pool';
+
+/**
+ * The calculation service: every costly computation (titration fits, tunnelling levels, chain
+ * estimates) goes through `calculate`, which runs it in the worker pool, so the thread that
+ * answers requests never computes for long. Callers without an account are limited per address.
+ */
+
+const pool = new WorkerPool({
+	size: config.CALC_WORKERS,
+	queueMax: config.CALC_QUEUE_MAX,
+	timeLimitMs: config.CALC_TIME_LIMIT_MS,
+	memoryMb: config.CALC_WORKER_MEMORY_MB,
+	// Imported dynamically, never statically: see calc.worker.ts.
+	load: async () => {
+		const worker = await import('./calc.worker');
+		return { url: worker.calcWorkerUrl, workerData: worker.CALC_WORKER_MARKER };
+	}
+});
+
+const anonymous = new AddressWindow(config.CALC_ANON_PER_MINUTE, 60_000);
+
+/** Who asks: signed-in users are not counted per address (null key). */
+export interface Caller {
+	anonymousKey: string | null;
+}
+
+export function callerOf(event: Pick<RequestEvent, 'locals' | 'getClientAddress'>): Caller {
+	return { anonymousKey: event.locals.user ? null : addressKey(event.getClientAddress()) };
+}
+
+/** Refuses a caller over its per-address limit (CalcRateLimitedError); call it before reading a body. */
+export function checkCaller(caller: Caller): void {
+	if (caller.anonymousKey === null) return;
+	const waitMs = anonymous.retryAfterMs(caller.anonymousKey);
+	if (waitMs > 0)
+		throw new CalcRateLimitedError(Math.ceil(waitMs / 1000), config.CALC_ANON_PER_MINUTE);
+}
+
+/**
+ * Runs one calculation in a worker and returns its result. Throws CalcRateLimitedError,
+ * CalcBusyError, CalcTimeLimitError, CalcWorkerError, or the RangeError/TypeError with which the
+ * science refused the input. `caller` null: started by the server itself (not counted).
+ */
+export async function calculate<K extends CalcKind>(
+	job: Extract<CalcJob, { kind: K }>,
+	caller: Caller | null
+): Promise<CalcResults[K]> {
+	if (caller) {
+		checkCaller(caller);
+		if (caller.anonymousKey !== null) anonymous.record(caller.anonymousKey);
+	}
+	// Structured cloning across the thread boundary loses the static type; jobs.ts pairs each
+	// kind with its result, and runCalcJob is checked against that pairing.
+	return (await pool.run(job)) as CalcResults[K];
+}
+
+/** How full the pool is (for benchmarks and tests). */
+export const calcPoolStats = () => pool.stats();
+
+/**
+ * Chain estimates are the same for the same chain (seeded Monte Carlo), and protein pages are
+ * read far more often than they change: the last results are kept, keyed by their input, and a
+ * chain being computed is shared by the requests that want it.
+ */
+const CHAIN_CACHE_SIZE = 200;
+const chainCache = new Map<string, Promise<ChainEstimate>>();
+
+export interface ChainEstimateOutcome {
+	estimate: ChainEstimate | null;
+	/** Why there is no estimate although the ladder allows one (busy, too long). */
+	note: string | null;
+}
+
+export async function chainEstimateFor(
+	input: LadderChainInput | null
+): Promise<ChainEstimateOutcome> {
+	if (!input) return { estimate: null, note: null };
+	const key = JSON.stringify(input);
+	let pending = chainCache.get(key);
+	if (pending) {
+		chainCache.delete(key); // re-inserted last: most recently used
+	} else {
+		pending = calculate({ kind: 'chain', input }, null);
+		pending.catch(() => chainCache.delete(key)); // failures are not kept
+	}
+	chainCache.set(key, pending);
+	if (chainCache.size > CHAIN_CACHE_SIZE) chainCache.delete(chainCache.keys().next().value!);
+	try {
+		return { estimate: await pending, note: null };
+	} catch (e) {
+		if (e instanceof CalcBusyError)
+			return {
+				estimate: null,
+				note: `The electron-transit estimate is not shown: the calculators are busy. Reload the page in ${e.retryAfterSeconds} s.`
+			};
+		if (e instanceof CalcTimeLimitError)
+			return {
+				estimate: null,
+				note: 'The electron-transit estimate is not shown: this chain is too long to estimate within the time limit.'
+			};
+		throw e;
+	}
+}
+
+/**
+ * A page action's answer to a failed calculation: the science's RangeError beside `field`, the
+ * service's refusals (429, 503, 422) as a message about the whole form with Retry-After where it
+ * applies. Anything else is rethrown (a 500 with an error id).
+ */
+export function calcFormFailure(
+	e: unknown,
+	event: Pick<RequestEvent, 'setHeaders'>,
+	values: Record<string, string>,
+	field: string
+) {
+	if (e instanceof RangeError) return fail(400, { values, errors: { [field]: [e.message] } });
+	if (e instanceof CalcRateLimitedError || e instanceof CalcBusyError) {
+		event.setHeaders({ 'retry-after': String(e.retryAfterSeconds) });
+		const status = e instanceof CalcRateLimitedError ? 429 : 503;
+		return fail(status, { values, errors: { form: [e.message] } });
+	}
+	if (e instanceof CalcTimeLimitError) return fail(422, { values, errors: { form: [e.message] } });
+	throw e;
+}

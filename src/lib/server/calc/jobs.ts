@@ -1,0 +1,34 @@
+import { fitNernst, type FitOptions, type NernstFit, type TitrationPoint } from '$lib/science';
+import type { ChainEstimate } from '$lib/catalogue/chainEstimate';
+import type { TunnellingRequest } from '$lib/schemas/calc';
+import { estimateChain, type LadderChainInput } from './chainEstimate';
+import { runTunnelling, type TunnellingResult } from './tunnelling';
+
+/**
+ * The calculations that run in worker threads: each a message that survives structured cloning
+ * (plain data in, plain data out). Pure: the worker (calc.worker.ts) calls `runCalcJob`.
+ */
+export type CalcJob =
+	| { kind: 'titration'; points: TitrationPoint[]; options: FitOptions }
+	| { kind: 'tunnelling'; request: TunnellingRequest }
+	| { kind: 'chain'; input: LadderChainInput };
+
+/** The result of each kind of job. */
+export interface CalcResults {
+	titration: NernstFit;
+	tunnelling: TunnellingResult;
+	chain: ChainEstimate;
+}
+
+export type CalcKind = CalcJob['kind'];
+
+export function runCalcJob(job: CalcJob): CalcResults[CalcKind] {
+	switch (job.kind) {
+		case 'titration':
+			return fitNernst(job.points, job.options);
+		case 'tunnelling':
+			return runTunnelling(job.request);
+		case 'chain':
+			return estimateChain(job.input);
+	}
+}
