@@ -78,16 +78,44 @@ class WriterLock {
 /** Statements that may run on the reader, if SQLite also reports them read-only. */
 const READ_STATEMENT = /^\s*(select|with|values)\b/i;
 
-function run<R>(sqlite: SQLite.Database, query: CompiledQuery, stmt?: SQLite.Statement) {
-	const statement = stmt ?? sqlite.prepare(query.sql);
+/**
+ * Prepared statements of one connection by SQL text, the most recently added kept. Kysely sends
+ * the same few hundred statements over and over; preparing each anew cost about a quarter of an
+ * approval's time. SQLite re-prepares a cached statement itself when the schema changes.
+ */
+class StatementCache {
+	private readonly statements = new Map<string, SQLite.Statement>();
+
+	constructor(
+		readonly sqlite: SQLite.Database,
+		private readonly size = 500
+	) {}
+
+	get(sql: string): SQLite.Statement {
+		let stmt = this.statements.get(sql);
+		if (!stmt) {
+			stmt = this.sqlite.prepare(sql);
+			if (this.statements.size >= this.size) {
+				const oldest = this.statements.keys().next();
+				if (!oldest.done) this.statements.delete(oldest.value);
+			}
+			this.statements.set(sql, stmt);
+		}
+		return stmt;
+	}
+}
+
+function run<R>(statement: SQLite.Statement, query: CompiledQuery): QueryResult<R> {
 	const parameters = query.parameters as unknown[];
-	if (statement.reader) return { rows: statement.all(parameters) as R[] } satisfies QueryResult<R>;
+	if (statement.reader) return { rows: statement.all(parameters) as R[] };
 	const { changes, lastInsertRowid } = statement.run(parameters);
-	return {
-		numAffectedRows: BigInt(changes),
-		insertId: BigInt(lastInsertRowid),
-		rows: []
-	} satisfies QueryResult<R>;
+	return { numAffectedRows: BigInt(changes), insertId: BigInt(lastInsertRowid), rows: [] };
+}
+
+/** The two connections of a database, each with its statement cache. */
+interface Connections {
+	writer: StatementCache;
+	reader: StatementCache | null;
 }
 
 /**
@@ -99,20 +127,20 @@ class RoutedConnection implements DatabaseConnection {
 	private holdsWriter = false;
 
 	constructor(
-		private readonly connections: SqliteConnections,
+		private readonly connections: Connections,
 		private readonly lock: WriterLock
 	) {}
 
 	async executeQuery<R>(query: CompiledQuery): Promise<QueryResult<R>> {
 		const { writer, reader } = this.connections;
-		if (this.inTransaction) return run<R>(writer, query);
+		if (this.inTransaction) return run<R>(writer.get(query.sql), query);
 		if (reader && READ_STATEMENT.test(query.sql)) {
-			const stmt = reader.prepare(query.sql);
-			if (stmt.readonly) return run<R>(reader, query, stmt);
+			const stmt = reader.get(query.sql);
+			if (stmt.readonly) return run<R>(stmt, query);
 		}
 		await this.takeWriter();
 		try {
-			return run<R>(writer, query);
+			return run<R>(writer.get(query.sql), query);
 		} finally {
 			this.releaseWriter();
 		}
@@ -124,7 +152,8 @@ class RoutedConnection implements DatabaseConnection {
 		const owned = !this.inTransaction;
 		if (owned) await this.takeWriter();
 		try {
-			const stmt = this.connections.writer.prepare(query.sql);
+			// A statement of its own: a cached one may be wanted while this one iterates.
+			const stmt = this.connections.writer.sqlite.prepare(query.sql);
 			if (!stmt.reader) throw new Error('only statements returning rows can be streamed');
 			for (const row of stmt.iterate(query.parameters as unknown[])) yield { rows: [row as R] };
 		} finally {
@@ -135,7 +164,9 @@ class RoutedConnection implements DatabaseConnection {
 	async begin(): Promise<void> {
 		await this.takeWriter();
 		try {
-			this.connections.writer.prepare('begin').run();
+			// IMMEDIATE takes SQLite's write lock now (waiting up to busy_timeout for another
+			// process), so a transaction that reads first never fails to upgrade later.
+			this.connections.writer.get('begin immediate').run();
 		} catch (e) {
 			this.releaseWriter();
 			throw e;
@@ -147,7 +178,7 @@ class RoutedConnection implements DatabaseConnection {
 		const { writer } = this.connections;
 		try {
 			// A statement that failed with some errors (disk full, for one) has already rolled back.
-			if (command === 'commit' || writer.inTransaction) writer.prepare(command).run();
+			if (command === 'commit' || writer.sqlite.inTransaction) writer.get(command).run();
 		} finally {
 			this.inTransaction = false;
 			this.releaseWriter();
@@ -156,8 +187,8 @@ class RoutedConnection implements DatabaseConnection {
 
 	release(): void {
 		// A transaction Kysely gave up on without commit or rollback must not keep the writer.
-		if (this.inTransaction && this.connections.writer.inTransaction) {
-			this.connections.writer.prepare('rollback').run();
+		if (this.inTransaction && this.connections.writer.sqlite.inTransaction) {
+			this.connections.writer.get('rollback').run();
 		}
 		this.inTransaction = false;
 		this.releaseWriter();
@@ -176,13 +207,17 @@ class RoutedConnection implements DatabaseConnection {
 }
 
 class ReadWriteSqliteDriver implements Driver {
-	private connections: SqliteConnections | null = null;
+	private connections: Connections | null = null;
 	private readonly lock = new WriterLock();
 
 	constructor(private readonly open: () => SqliteConnections) {}
 
 	async init(): Promise<void> {
-		this.connections = this.open();
+		const { writer, reader } = this.open();
+		this.connections = {
+			writer: new StatementCache(writer),
+			reader: reader ? new StatementCache(reader) : null
+		};
 	}
 
 	async acquireConnection(): Promise<DatabaseConnection> {
@@ -220,8 +255,8 @@ class ReadWriteSqliteDriver implements Driver {
 
 	async destroy(): Promise<void> {
 		// The reader first: the last connection to close checkpoints and removes the WAL.
-		this.connections?.reader?.close();
-		this.connections?.writer.close();
+		this.connections?.reader?.sqlite.close();
+		this.connections?.writer.sqlite.close();
 		this.connections = null;
 	}
 }
