@@ -3,7 +3,10 @@
 // 2. API list throughput (100 rows a page) beside a raw node:http + better-sqlite3 server;
 // 3. server RSS after the search index is built;
 // 4. CSV upload: 100 000 rows checked and committed, beside raw prepared inserts (bench/upload.ts);
+// 5. approving a 50 000-row batch while reading and writing (bench/approval.ts);
 // and first, the science engine's timings (bench/science.ts).
+// `npm run bench -- approval upload` runs only the steps named (science, search, api, upload,
+// approval).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { listPotentials } from '../src/lib/server/catalogue/potentials';
@@ -15,6 +18,7 @@ import { encodeCursor } from '../src/lib/schemas/pagination';
 import { ensureDataset } from './dataset';
 import { benchScience } from './science';
 import { benchUpload } from './upload';
+import { benchApproval } from './approval';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -182,13 +186,20 @@ async function benchApi() {
 	}
 }
 
-benchScience();
+const STEPS = ['science', 'search', 'api', 'upload', 'approval'] as const;
+const named = process.argv.slice(2);
+const unknown = named.filter((n) => !(STEPS as readonly string[]).includes(n));
+if (unknown.length > 0) throw new Error(`unknown step(s) ${unknown.join(', ')}; known: ${STEPS}`);
+const runs = (step: (typeof STEPS)[number]) => named.length === 0 || named.includes(step);
+
+if (runs('science')) benchScience();
 const dataset = await ensureDataset(DATASET, SIZE);
 console.log(
 	dataset.created
 		? `Generated ${DATASET}: ${SIZE.proteins} proteins, ${SIZE.proteins * SIZE.centresPerProtein} centres, ${SIZE.proteins * SIZE.centresPerProtein * SIZE.potentialsPerCentre} potentials in ${dataset.seconds.toFixed(1)} s`
 		: `Using ${DATASET} (delete it to regenerate)`
 );
-await benchSearch();
-await benchApi();
-await benchUpload(DATASET);
+if (runs('search')) await benchSearch();
+if (runs('api')) await benchApi();
+if (runs('upload')) await benchUpload(DATASET);
+if (runs('approval')) await benchApproval(DATASET);

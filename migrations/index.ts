@@ -2,6 +2,7 @@ import type { Migration } from 'kysely';
 import * as m0001 from './0001_create_schema';
 import * as m0002 from './0002_add_curation_workflow';
 import * as m0003 from './0003_add_upload_batches';
+import * as m0005 from './0005_create_backup_log';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -11,5 +12,6 @@ import * as m0003 from './0003_add_upload_batches';
 export const migrations: Record<string, Migration> = {
 	'0001_create_schema': m0001,
 	'0002_add_curation_workflow': m0002,
-	'0003_add_upload_batches': m0003
+	'0003_add_upload_batches': m0003,
+	'0005_create_backup_log': m0005
 };

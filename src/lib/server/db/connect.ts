@@ -2,7 +2,7 @@ import SQLite from 'better-sqlite3';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { Kysely } from 'kysely';
-import { ReadWriteSqliteDialect, type SqliteConnections } from './dialect';
+import { ReadWriteSqliteDialect, type ReadWriteOptions, type SqliteConnections } from './dialect';
 import type { Database } from './schema';
 
 /** Opens a SQLite connection with the pragmas every Hopline connection needs. */
@@ -38,6 +38,8 @@ export function openConnections(path: string): SqliteConnections {
  * query, not here, so that importing server modules (as `vite build` does) never creates a
  * database.
  */
-export function openDatabase(path: string): Kysely<Database> {
-	return new Kysely<Database>({ dialect: new ReadWriteSqliteDialect(() => openConnections(path)) });
+export function openDatabase(path: string, options: ReadWriteOptions = {}): Kysely<Database> {
+	return new Kysely<Database>({
+		dialect: new ReadWriteSqliteDialect(() => openConnections(path), options)
+	});
 }
