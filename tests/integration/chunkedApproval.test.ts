@@ -9,6 +9,8 @@ import { commitUpload } from '$lib/server/uploads/commitUpload';
 import { APPROVAL_CHUNK_ROWS, decideBatch, decideSubmission } from '$lib/server/curation/reviews';
 import { SubmissionInvalidError, SubmissionStateError } from '$lib/server/curation/errors';
 import { addComment } from '$lib/server/curation/reviews';
+import { duringBulkWrite } from '$lib/server/catalogue/revision';
+import { PotentialIndex } from '$lib/server/search/potentialIndex';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
 
@@ -250,4 +252,32 @@ describe('a large approval', () => {
 			decideBatch(db, curator, submissionId, { returnRows: [], comment: '' }, origin)
 		).rejects.toBeInstanceOf(SubmissionStateError);
 	}, 120_000);
+});
+
+describe('the potential search index while a large approval runs', () => {
+	it('refreshes at most every 5 s meanwhile, and at the next search afterwards', async () => {
+		let clock = 0;
+		const index = new PotentialIndex(() => clock);
+		await index.ensureCurrent(db);
+		const total = () => index.facets(null).total;
+		const before = total();
+		const approveThree = async (tag: number) => {
+			const id = await largeBatch(3, tag);
+			await db
+				.transaction()
+				.execute((trx) => decideBatch(trx, curator, id, { returnRows: [], comment: '' }, origin));
+		};
+		await duringBulkWrite(async () => {
+			await approveThree(2);
+			clock = 1000;
+			await index.ensureCurrent(db);
+			expect(total()).toBe(before);
+			clock = 5000;
+			await index.ensureCurrent(db);
+			expect(total()).toBe(before + 3);
+		});
+		await approveThree(3);
+		await index.ensureCurrent(db);
+		expect(total()).toBe(before + 6);
+	});
 });

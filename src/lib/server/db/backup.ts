@@ -295,6 +295,18 @@ export async function restoreDatabase(
 	}
 }
 
+/** When the last backup was taken, or null when none is recorded. */
+export async function lastBackupAt(db: Kysely<Database>): Promise<string | null> {
+	const row = await db
+		.selectFrom('backup_log')
+		.select('at')
+		.where('kind', '=', 'backup')
+		.orderBy('at', 'desc')
+		.limit(1)
+		.executeTakeFirst();
+	return row?.at ?? null;
+}
+
 /** The backup log, newest first, for the admin page. */
 export async function backupHistory(db: Kysely<Database>, limit = 20) {
 	return db
