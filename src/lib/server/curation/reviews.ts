@@ -31,11 +31,13 @@ import { duringBulkWrite } from '../catalogue/revision';
  * and finishes. Every chunk re-checks that the submission still awaits a decision.
  */
 
-/**
- * Versions approved per write transaction: each chunk takes a few hundred milliseconds (about
- * 0.7–3 ms a row), during which the event loop is busy; other requests run between chunks.
- */
+/** Versions approved per write transaction: a few hundred milliseconds' work (0.7–3 ms a row). */
 export const APPROVAL_CHUNK_ROWS = 250;
+/**
+ * Within a chunk the event loop is let go every so many rows, so that reads (on their own
+ * connection) are answered within tens of milliseconds; writes wait for the chunk's commit.
+ */
+const YIELD_EVERY = 50;
 
 /** Runs `work` in the caller's transaction, or in a new one when given the database. */
 function inTransaction<T>(
@@ -75,7 +77,7 @@ async function loadForDecision(trx: Kysely<Database>, curator: SessionUser, subm
 
 /**
  * Approves versions in the order given (proteins of a batch before the centres naming them),
- * without pausing: the transaction stays as short as the work. A reference that does not
+ * pausing every YIELD_EVERY rows so that other requests are served. A reference that does not
  * resolve is reported with the row and accession it belongs to.
  */
 async function approveInOrder(
@@ -84,7 +86,8 @@ async function approveInOrder(
 	versions: readonly { id: number; accession: string; row_number: number | null }[],
 	approvedAt: string
 ): Promise<void> {
-	for (const v of versions) {
+	for (const [i, v] of versions.entries()) {
+		if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
 		try {
 			await approveVersion(trx, v.id, { approvedBy: curator.id, approvedAt });
 		} catch (e) {
