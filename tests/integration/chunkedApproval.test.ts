@@ -255,7 +255,7 @@ describe('a large approval', () => {
 });
 
 describe('the potential search index while a large approval runs', () => {
-	it('refreshes at most every 5 s meanwhile, and at the next search afterwards', async () => {
+	it('refreshes at most once a minute meanwhile, and at the next search afterwards', async () => {
 		let clock = 0;
 		const index = new PotentialIndex(() => clock);
 		await index.ensureCurrent(db);
@@ -269,10 +269,10 @@ describe('the potential search index while a large approval runs', () => {
 		};
 		await duringBulkWrite(async () => {
 			await approveThree(2);
-			clock = 1000;
+			clock = 59_000;
 			await index.ensureCurrent(db);
 			expect(total()).toBe(before);
-			clock = 5000;
+			clock = 60_000;
 			await index.ensureCurrent(db);
 			expect(total()).toBe(before + 3);
 		});

@@ -32,7 +32,7 @@ import { duringBulkWrite } from '../catalogue/revision';
  */
 
 /** Versions approved per write transaction: a few hundred milliseconds' work (0.7–3 ms a row). */
-export const APPROVAL_CHUNK_ROWS = 250;
+export const APPROVAL_CHUNK_ROWS = 200;
 /**
  * Within a chunk the event loop is let go every so many rows, so that reads (on their own
  * connection) are answered within tens of milliseconds; writes wait for the chunk's commit.

@@ -9,8 +9,14 @@ import type { Database } from './schema';
 export function openSqlite(path: string, options: { readonly?: boolean } = {}): SQLite.Database {
 	if (path !== ':memory:' && !options.readonly) mkdirSync(dirname(path), { recursive: true });
 	const sqlite = new SQLite(path, { readonly: options.readonly ?? false });
-	// Only a writer may switch the journal mode; a reader finds the file in WAL mode already.
-	if (!options.readonly) sqlite.pragma('journal_mode = WAL');
+	if (!options.readonly) {
+		// Only a writer may switch the journal mode; a reader finds the file in WAL mode already.
+		sqlite.pragma('journal_mode = WAL');
+		// Checkpoint when the WAL passes 10 000 pages (about 40 MB), not the default 1 000: a large
+		// approval commits every 200 rows, and checkpointing that often rewrote the same index
+		// pages again and again (a 20 000-row approval took 17 s instead of 13 s).
+		sqlite.pragma('wal_autocheckpoint = 10000');
+	}
 	sqlite.pragma('foreign_keys = ON');
 	sqlite.pragma('busy_timeout = 5000');
 	// Under WAL, NORMAL survives application crashes; only a power cut can cost the last commit.

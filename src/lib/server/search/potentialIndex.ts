@@ -13,8 +13,9 @@ import type { Viewer } from '../catalogue/visibility';
  * the source of truth: the columns are rebuilt from the `potential` table whenever the
  * catalogue revision has moved (each approval bumps it), so a search never sees stale rows —
  * except while a large approval runs (`duringBulkWrite`): it moves the revision with every chunk
- * it commits, and a rebuild per search would then take most of the process's time, so the
- * columns are rebuilt at most every max(5 s, 4 × the last rebuild) and may lag that much behind.
+ * it commits, and a rebuild per search (a second or more of the event loop at 100 000 rows)
+ * would then take most of the process's time, so the columns are rebuilt at most once a minute
+ * (or every 10 × the last rebuild) and lag that much behind; the next search after it rebuilds.
  * Rows of a page are read from SQLite in any case, with the visibility rule applied again.
  *
  * Semantics match SQL on the same columns: a missing pH or temperature fails any bound on it;
@@ -178,8 +179,8 @@ export interface IndexResult {
 	page: number[];
 }
 
-/** While a bulk write runs, rebuilds are this far apart at least (and 4 × a rebuild's time). */
-const BULK_REBUILD_INTERVAL_MS = 5000;
+/** While a bulk write runs, rebuilds are this far apart at least (and 10 × a rebuild's time). */
+const BULK_REBUILD_INTERVAL_MS = 60_000;
 
 export class PotentialIndex {
 	private columns: Columns | null = null;
@@ -199,7 +200,7 @@ export class PotentialIndex {
 		if (
 			this.columns &&
 			bulkWriteInProgress() &&
-			this.now() - this.builtAt < Math.max(BULK_REBUILD_INTERVAL_MS, 4 * this.buildMs)
+			this.now() - this.builtAt < Math.max(BULK_REBUILD_INTERVAL_MS, 10 * this.buildMs)
 		) {
 			return;
 		}
