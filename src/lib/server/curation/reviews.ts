@@ -146,7 +146,11 @@ async function approvePending(
 	await (db.isTransaction ? approveAll() : duringBulkWrite(approveAll));
 }
 
-/** The approved versions of a submission, in order, for the outcome, its audit and its mail. */
+/**
+ * The approved versions of a submission, in order, for the outcome, its audit and its mail. A
+ * submission awaiting a decision holds approved versions only from an approval not finished yet
+ * (a partially approved batch never returns to review), so these are the decision's own.
+ */
 async function approvedVersions(trx: Kysely<Database>, submissionId: number) {
 	return trx
 		.selectFrom('entry_version')
