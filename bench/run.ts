@@ -3,8 +3,12 @@
 // 2. API list throughput (100 rows a page) beside a raw node:http + better-sqlite3 server;
 // 3. server RSS after the search index is built;
 // 4. CSV upload: 100 000 rows checked and committed, beside raw prepared inserts (bench/upload.ts);
-// 5. latency of GET /api/v1 while three heavy calculator requests run (bench/calc.ts);
+// 5. approving a 50 000-row batch while reading and writing (bench/approval.ts);
+// 6. latency of GET /api/v1 while three heavy calculator requests run (bench/calc.ts);
+// 7. the pages of a centre with 5 000 potentials: time and server memory (bench/largeCentre.ts);
 // and first, the science engine's timings (bench/science.ts).
+// `npm run bench -- approval upload` runs only the steps named (science, search, api, upload,
+// approval, calc, largeCentre). Figures go to bench/RESULTS.md (bench/results.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { listPotentials } from '../src/lib/server/catalogue/potentials';
@@ -17,6 +21,9 @@ import { ensureDataset } from './dataset';
 import { benchScience } from './science';
 import { benchUpload } from './upload';
 import { benchCalcLatency } from './calc';
+import { benchLargeCentre } from './largeCentre';
+import { recordOutput, writeResults } from './results';
+import { benchApproval } from './approval';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -184,14 +191,44 @@ async function benchApi() {
 	}
 }
 
-benchScience();
+const STEPS = ['science', 'search', 'api', 'upload', 'approval', 'calc', 'largeCentre'] as const;
+const named = process.argv.slice(2);
+const unknown = named.filter((n) => !(STEPS as readonly string[]).includes(n));
+if (unknown.length > 0) throw new Error(`unknown step(s) ${unknown.join(', ')}; known: ${STEPS}`);
+const runs = (step: (typeof STEPS)[number]) => named.length === 0 || named.includes(step);
+
+if (runs('science')) {
+	recordOutput('science');
+	benchScience();
+}
 const dataset = await ensureDataset(DATASET, SIZE);
 console.log(
 	dataset.created
 		? `Generated ${DATASET}: ${SIZE.proteins} proteins, ${SIZE.proteins * SIZE.centresPerProtein} centres, ${SIZE.proteins * SIZE.centresPerProtein * SIZE.potentialsPerCentre} potentials in ${dataset.seconds.toFixed(1)} s`
 		: `Using ${DATASET} (delete it to regenerate)`
 );
-await benchSearch();
-await benchApi();
-await benchUpload(DATASET);
-await benchCalcLatency();
+if (runs('search')) {
+	recordOutput('search');
+	await benchSearch();
+}
+if (runs('api')) {
+	recordOutput('api');
+	await benchApi();
+}
+if (runs('upload')) {
+	recordOutput('upload');
+	await benchUpload(DATASET);
+}
+if (runs('approval')) {
+	recordOutput('approval');
+	await benchApproval(DATASET);
+}
+if (runs('calc')) {
+	recordOutput('calc');
+	await benchCalcLatency();
+}
+if (runs('largeCentre')) {
+	recordOutput('largeCentre');
+	await benchLargeCentre();
+}
+writeResults(STEPS);

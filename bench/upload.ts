@@ -7,13 +7,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 import { formatAccession } from '../src/lib/schemas/accession';
-import { COUPLES_BY_KIND, type CofactorKind } from '../src/lib/schemas/vocabulary';
-import { typicalRange } from '../src/lib/catalogue/typicalRanges';
 import { openDatabase } from '../src/lib/server/db/connect';
 import { migrateToLatest } from '../src/lib/server/db/migrate';
 import { checkUpload } from '../src/lib/server/uploads/checkUpload';
 import { commitUpload } from '../src/lib/server/uploads/commitUpload';
 import { uploadCsvLimits } from '../src/lib/server/uploads/readCsv';
+import { benchUser, generatedPotentialsCsv } from './potentialsCsv';
 
 const ROWS = 100_000;
 
@@ -30,45 +29,8 @@ export async function benchUpload(dataset: string): Promise<void> {
 		const appPath = copyOf(dataset, dir, 'app.sqlite');
 		const db = openDatabase(appPath);
 		await migrateToLatest(db);
-		const centres = await db
-			.selectFrom('centre')
-			.innerJoin('entry', 'entry.id', 'centre.entry_id')
-			.select(['entry.accession', 'centre.cofactor_kind'])
-			.where('centre.cofactor_kind', '!=', 'other')
-			.limit(2000)
-			.execute();
-		const lines = [
-			'centreAccession,couple,reportedValue,reportedUnit,referenceElectrode,ph,temperatureK,method,uncertaintyMv'
-		];
-		for (let i = 0; i < ROWS; i++) {
-			const c = centres[i % centres.length] as (typeof centres)[number];
-			const kind = c.cofactor_kind as CofactorKind;
-			const couple = COUPLES_BY_KIND[kind][0] as string;
-			// New measurements: values inside the kind's typical range, at pH 10.5–14 (the generated
-			// catalogue holds pH 5–10), so that rows are compared but rarely conflict.
-			const range = typicalRange(kind, couple);
-			const mid = range ? (range.minMv + range.maxMv) / 2 : -200;
-			const ph = (10.5 + (Math.floor(i / centres.length) % 70) * 0.05).toFixed(2);
-			lines.push(
-				`${c.accession},${couple},${mid + (i % 41) - 20},mV,SHE,${ph},298.15,optical_titration,15`
-			);
-		}
-		const text = lines.join('\n');
-		const userId = (
-			await db
-				.insertInto('User')
-				.values({
-					email: 'bench@lab.test',
-					name: 'bench',
-					role: 'contributor',
-					emailVerified: null,
-					image: null,
-					passwordHash: null,
-					disabledAt: null
-				})
-				.returning('id')
-				.executeTakeFirstOrThrow()
-		).id;
+		const { text, centres } = await generatedPotentialsCsv(db, ROWS);
+		const user = await benchUser(db, 'contributor', 'bench@lab.test');
 
 		const delay = monitorEventLoopDelay({ resolution: 10 });
 		delay.enable();
@@ -79,18 +41,13 @@ export async function benchUpload(dataset: string): Promise<void> {
 		});
 		const t1 = performance.now();
 		const result = await db.transaction().execute((trx) =>
-			commitUpload(
-				trx,
-				{ id: userId, email: 'bench@lab.test', name: 'bench', role: 'contributor', groupIds: [] },
-				check,
-				{
-					filename: 'bench.csv',
-					visibility: { visibility: 'public', groupId: null, embargoUntil: null },
-					changeNote: null,
-					origin: 'http://bench.test',
-					pendingRowsMax: 1_000_000
-				}
-			)
+			commitUpload(trx, user, check, {
+				filename: 'bench.csv',
+				visibility: { visibility: 'public', groupId: null, embargoUntil: null },
+				changeNote: null,
+				origin: 'http://bench.test',
+				pendingRowsMax: 1_000_000
+			})
 		);
 		const t2 = performance.now();
 		delay.disable();
@@ -125,7 +82,7 @@ export async function benchUpload(dataset: string): Promise<void> {
 		const commitRate = rowsPerSecond(result.created, t2 - t1);
 		const rawRate = rowsPerSecond(data.length, r1 - r0);
 		console.log(
-			`\nCSV upload, ${ROWS.toLocaleString('en')} potential rows (${(Buffer.byteLength(text) / 1e6).toFixed(1)} MB), against ${centres.length} centres`
+			`\nCSV upload, ${ROWS.toLocaleString('en')} potential rows (${(Buffer.byteLength(text) / 1e6).toFixed(1)} MB), against ${centres} centres`
 		);
 		console.log(
 			`  check (parse + validate)  ${((t1 - t0) / 1000).toFixed(2)} s   errors ${check.errorCount}, warnings ${check.warningCount}`

@@ -3,6 +3,7 @@ import * as m0001 from './0001_create_schema';
 import * as m0002 from './0002_add_curation_workflow';
 import * as m0003 from './0003_add_upload_batches';
 import * as m0004 from './0004_add_session_revocation';
+import * as m0005 from './0005_create_backup_log';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -13,5 +14,6 @@ export const migrations: Record<string, Migration> = {
 	'0001_create_schema': m0001,
 	'0002_add_curation_workflow': m0002,
 	'0003_add_upload_batches': m0003,
-	'0004_add_session_revocation': m0004
+	'0004_add_session_revocation': m0004,
+	'0005_create_backup_log': m0005
 };

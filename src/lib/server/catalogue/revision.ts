@@ -24,3 +24,23 @@ export async function readCatalogueRevision(db: Kysely<Database>): Promise<numbe
 		.executeTakeFirstOrThrow();
 	return revision;
 }
+
+/**
+ * Long jobs that move the revision over and over (a large approval commits a chunk every few
+ * hundred milliseconds) run inside `duringBulkWrite`, so that in-memory indexes know to refresh
+ * less often meanwhile (search/potentialIndex.ts). A count per process: it holds no user data.
+ */
+let bulkWrites = 0;
+
+export async function duringBulkWrite<T>(work: () => Promise<T>): Promise<T> {
+	bulkWrites++;
+	try {
+		return await work();
+	} finally {
+		bulkWrites--;
+	}
+}
+
+export function bulkWriteInProgress(): boolean {
+	return bulkWrites > 0;
+}

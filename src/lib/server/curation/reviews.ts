@@ -13,17 +13,39 @@ import {
 } from './errors';
 import { commentMail, outcomeMail } from './notices';
 import type { OutgoingMail } from './outbox';
-import { setSubmissionStatus, submissionVersions } from './submissions';
+import { setSubmissionStatus } from './submissions';
 import { yieldToEventLoop } from '../eventLoop';
-
-/** Approving a large batch pauses every so many rows so that other requests are served. */
-const YIELD_EVERY = 100;
+import { duringBulkWrite } from '../catalogue/revision';
 
 /**
  * A curator's side of curation: the decision on a submission and the comment thread. Approval
  * numbers and freezes each version, applies the visibility it asked for, updates the read model
- * and the search revision — all in the caller's transaction, so it happens whole or not at all.
+ * and the search revision.
+ *
+ * Decisions take `db | trx` like every service. Given a transaction, the whole decision happens
+ * in it. Given the database itself (as the review page does), approving runs in transactions of
+ * APPROVAL_CHUNK_ROWS versions each, so that no other write waits long, and then one last
+ * transaction records the outcome (the submission's state, returned rows, review, audit and the
+ * mail to send). A crash in between leaves the approved versions approved and the others still
+ * submitted, with the submission awaiting its decision: deciding again skips what is approved
+ * and finishes. Every chunk re-checks that the submission still awaits a decision.
  */
+
+/** Versions approved per write transaction: a few hundred milliseconds' work (0.7–3 ms a row). */
+export const APPROVAL_CHUNK_ROWS = 200;
+/**
+ * Within a chunk the event loop is let go every so many rows, so that reads (on their own
+ * connection) are answered within tens of milliseconds; writes wait for the chunk's commit.
+ */
+const YIELD_EVERY = 50;
+
+/** Runs `work` in the caller's transaction, or in a new one when given the database. */
+function inTransaction<T>(
+	db: Kysely<Database>,
+	work: (trx: Kysely<Database>) => Promise<T>
+): Promise<T> {
+	return db.isTransaction ? work(db) : db.transaction().execute(work);
+}
 
 async function loadSubmission(trx: Kysely<Database>, submissionId: number) {
 	const submission = await trx
@@ -55,21 +77,19 @@ async function loadForDecision(trx: Kysely<Database>, curator: SessionUser, subm
 
 /**
  * Approves versions in the order given (proteins of a batch before the centres naming them),
- * pausing now and then so other requests are served. A reference that does not resolve is
- * reported with the row and accession it belongs to.
+ * pausing every YIELD_EVERY rows so that other requests are served. A reference that does not
+ * resolve is reported with the row and accession it belongs to.
  */
 async function approveInOrder(
 	trx: Kysely<Database>,
 	curator: SessionUser,
-	versions: readonly { id: number; accession: string; row_number?: number | null }[],
+	versions: readonly { id: number; accession: string; row_number: number | null }[],
 	approvedAt: string
-): Promise<DecisionOutcome['approved']> {
-	const approved: DecisionOutcome['approved'] = [];
+): Promise<void> {
 	for (const [i, v] of versions.entries()) {
 		if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
 		try {
-			const { version } = await approveVersion(trx, v.id, { approvedBy: curator.id, approvedAt });
-			approved.push({ accession: v.accession, version });
+			await approveVersion(trx, v.id, { approvedBy: curator.id, approvedAt });
 		} catch (e) {
 			if (e instanceof InvalidEntryDataError) {
 				const where = v.row_number ? `row ${v.row_number} (${v.accession})` : v.accession;
@@ -78,7 +98,69 @@ async function approveInOrder(
 			throw e;
 		}
 	}
-	return approved;
+}
+
+/**
+ * Approves every still-submitted version of a submission except those listed, in order of id,
+ * one chunk per transaction when given the database (see the top of this file). Versions
+ * approved earlier (by an approval that was interrupted, or by another curator's at the same
+ * time) are skipped, so running it again finishes the job.
+ */
+async function approvePending(
+	db: Kysely<Database>,
+	curator: SessionUser,
+	submissionId: number,
+	except: ReadonlySet<number>,
+	approvedAt: string
+): Promise<void> {
+	const approveAll = async () => {
+		let after = 0;
+		for (;;) {
+			const last = await inTransaction(db, async (trx) => {
+				await loadForDecision(trx, curator, submissionId);
+				const chunk = await trx
+					.selectFrom('entry_version')
+					.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+					.select(['entry_version.id', 'entry_version.row_number', 'entry.accession'])
+					.where('entry_version.submission_id', '=', submissionId)
+					.where('entry_version.status', '=', 'submitted')
+					.where('entry_version.id', '>', after)
+					.orderBy('entry_version.id')
+					.limit(APPROVAL_CHUNK_ROWS)
+					.execute();
+				await approveInOrder(
+					trx,
+					curator,
+					chunk.filter((v) => !except.has(v.id)),
+					approvedAt
+				);
+				return chunk.at(-1)?.id ?? null;
+			});
+			if (last === null) return;
+			after = last;
+			// Other requests (and, with the database given, other writers) run between chunks.
+			await yieldToEventLoop();
+		}
+	};
+	// Committing chunk after chunk moves the catalogue revision each time (see revision.ts).
+	await (db.isTransaction ? approveAll() : duringBulkWrite(approveAll));
+}
+
+/**
+ * The approved versions of a submission, in order, for the outcome, its audit and its mail. A
+ * submission awaiting a decision holds approved versions only from an approval not finished yet
+ * (a partially approved batch never returns to review), so these are the decision's own.
+ */
+async function approvedVersions(trx: Kysely<Database>, submissionId: number) {
+	return trx
+		.selectFrom('entry_version')
+		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+		.select(['entry.accession', 'entry_version.version'])
+		.where('entry_version.submission_id', '=', submissionId)
+		.where('entry_version.status', '=', 'approved')
+		.orderBy('entry_version.id')
+		.$narrowType<{ version: number }>()
+		.execute();
 }
 
 export interface DecisionOutcome {
@@ -87,73 +169,87 @@ export interface DecisionOutcome {
 }
 
 export async function decideSubmission(
-	trx: Kysely<Database>,
+	db: Kysely<Database>,
 	curator: SessionUser,
 	submissionId: number,
 	decision: { decision: ReviewDecision; comment: string },
 	origin: string
 ): Promise<DecisionOutcome> {
-	const submission = await loadForDecision(trx, curator, submissionId);
+	// Refused before anything is written: not awaiting a decision, or the curator's own.
+	await loadForDecision(db, curator, submissionId);
 	const now = new Date().toISOString();
-	const approved =
-		decision.decision === 'approve'
-			? await approveInOrder(trx, curator, await submissionVersions(trx, submissionId), now)
-			: [];
 	if (decision.decision === 'approve') {
-		await trx
-			.updateTable('submission')
-			.set({ status: 'approved', updated_at: now })
-			.where('id', '=', submissionId)
-			.execute();
-	} else {
-		const status = decision.decision === 'return' ? 'returned' : 'rejected';
-		await setSubmissionStatus(trx, submissionId, status, status);
+		await approvePending(db, curator, submissionId, new Set(), now);
 	}
-	await trx
-		.insertInto('review')
-		.values({
-			submission_id: submissionId,
-			reviewer_id: curator.id,
-			decision: decision.decision,
-			comment: decision.comment || null
-		})
-		.execute();
-	if (decision.comment) {
+	return inTransaction(db, async (trx) => {
+		const submission = await loadForDecision(trx, curator, submissionId);
+		let approved: DecisionOutcome['approved'] = [];
+		if (decision.decision === 'approve') {
+			await approvePending(trx, curator, submissionId, new Set(), now);
+			approved = await approvedVersions(trx, submissionId);
+			await trx
+				.updateTable('submission')
+				.set({ status: 'approved', updated_at: now })
+				.where('id', '=', submissionId)
+				.execute();
+		} else {
+			const started = await approvedVersions(trx, submissionId);
+			if (started.length > 0) {
+				throw new SubmissionStateError(
+					`${started.length} entr${started.length === 1 ? 'y' : 'ies'} of submission ${submissionId} ` +
+						'were approved by an approval that has not finished; approve the submission to finish it' +
+						(submission.channel === 'csv' ? ', or return the remaining rows row by row' : '')
+				);
+			}
+			const status = decision.decision === 'return' ? 'returned' : 'rejected';
+			await setSubmissionStatus(trx, submissionId, status, status);
+		}
 		await trx
-			.insertInto('submission_comment')
+			.insertInto('review')
 			.values({
 				submission_id: submissionId,
-				entry_version_id: null,
-				author_id: curator.id,
-				body: decision.comment
+				reviewer_id: curator.id,
+				decision: decision.decision,
+				comment: decision.comment || null
 			})
 			.execute();
-	}
-	await writeAudit(trx, {
-		actorId: curator.id,
-		action: `review.${decision.decision}`,
-		submissionId,
-		before: { status: submission.status },
-		after: {
-			status:
-				decision.decision === 'approve'
-					? 'approved'
-					: decision.decision === 'return'
-						? 'returned'
-						: 'rejected',
+		if (decision.comment) {
+			await trx
+				.insertInto('submission_comment')
+				.values({
+					submission_id: submissionId,
+					entry_version_id: null,
+					author_id: curator.id,
+					body: decision.comment
+				})
+				.execute();
+		}
+		await writeAudit(trx, {
+			actorId: curator.id,
+			action: `review.${decision.decision}`,
+			submissionId,
+			before: { status: submission.status },
+			after: {
+				status:
+					decision.decision === 'approve'
+						? 'approved'
+						: decision.decision === 'return'
+							? 'returned'
+							: 'rejected',
+				approved
+			},
+			detail: decision.comment || null
+		});
+		const mails = await outcomeMail(
+			trx,
+			submission,
+			decision.decision,
+			decision.comment,
+			origin,
 			approved
-		},
-		detail: decision.comment || null
+		);
+		return { approved, mails };
 	});
-	const mails = await outcomeMail(
-		trx,
-		submission,
-		decision.decision,
-		decision.comment,
-		origin,
-		approved
-	);
-	return { approved, mails };
 }
 
 /** A comment on the thread of a submission, by its contributor or by a curator. */
@@ -183,22 +279,26 @@ export async function addComment(
 }
 
 /**
- * A curator's decision on a CSV batch row by row: every row is approved except those listed to
- * return (by file row number), which go back to the contributor with the comment. The batch is
- * approved, partially approved, or returned when no row was approved.
+ * Which rows of a batch to approve and which to return, checked before anything is written and
+ * again in the transaction that records the outcome. A row approved already (by an approval
+ * that was interrupted) can no longer be returned.
  */
-export async function decideBatch(
+async function planBatch(
 	trx: Kysely<Database>,
 	curator: SessionUser,
 	submissionId: number,
-	decision: { returnRows: number[]; rowComments?: Record<number, string>; comment: string },
-	origin: string
-): Promise<DecisionOutcome & { returned: number }> {
+	decision: BatchDecision
+) {
 	const submission = await loadForDecision(trx, curator, submissionId);
 	const versions = await trx
 		.selectFrom('entry_version')
 		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
-		.select(['entry_version.id', 'entry_version.row_number', 'entry.accession'])
+		.select([
+			'entry_version.id',
+			'entry_version.row_number',
+			'entry_version.status',
+			'entry.accession'
+		])
 		.where('entry_version.submission_id', '=', submissionId)
 		.orderBy('entry_version.id')
 		.execute();
@@ -211,6 +311,15 @@ export async function decideBatch(
 			returnRows: [`no rows ${unknown.join(', ')} in this batch`]
 		});
 	}
+	const returned = versions.filter((v) => v.row_number !== null && toReturn.has(v.row_number));
+	const approvedAlready = returned.filter((v) => v.status === 'approved');
+	if (approvedAlready.length > 0) {
+		throw new SubmissionInvalidError({
+			returnRows: [
+				`row(s) ${approvedAlready.map((v) => v.row_number).join(', ')} were approved already, by an approval of this batch that has not finished, and can no longer be returned`
+			]
+		});
+	}
 	const uncommented = [...toReturn].filter((r) => !rowComments[r]);
 	if (uncommented.length > 0 && decision.comment.trim().length < 3) {
 		throw new SubmissionInvalidError({
@@ -219,75 +328,107 @@ export async function decideBatch(
 			]
 		});
 	}
+	return { submission, returned, rowComments, toReturn };
+}
+
+interface BatchDecision {
+	returnRows: number[];
+	rowComments?: Record<number, string>;
+	comment: string;
+}
+
+/**
+ * A curator's decision on a CSV batch row by row: every row is approved except those listed to
+ * return (by file row number), which go back to the contributor with the comment. The batch is
+ * approved, partially approved, or returned when no row was approved.
+ */
+export async function decideBatch(
+	db: Kysely<Database>,
+	curator: SessionUser,
+	submissionId: number,
+	decision: BatchDecision,
+	origin: string
+): Promise<DecisionOutcome & { returned: number }> {
+	const plan = await planBatch(db, curator, submissionId, decision);
 	const now = new Date().toISOString();
-	const approved = await approveInOrder(
-		trx,
-		curator,
-		versions.filter((v) => v.row_number === null || !toReturn.has(v.row_number)),
-		now
-	);
-	const returned = versions.filter((v) => v.row_number !== null && toReturn.has(v.row_number));
-	const returnedIds = returned.map((v) => v.id);
-	if (returnedIds.length > 0) {
+	await approvePending(db, curator, submissionId, new Set(plan.returned.map((v) => v.id)), now);
+	return inTransaction(db, async (trx) => {
+		const { submission, returned, rowComments, toReturn } = await planBatch(
+			trx,
+			curator,
+			submissionId,
+			decision
+		);
+		const returnedIds = returned.map((v) => v.id);
+		await approvePending(trx, curator, submissionId, new Set(returnedIds), now);
+		const approved = await approvedVersions(trx, submissionId);
+		if (returnedIds.length > 0) {
+			await trx
+				.updateTable('entry_version')
+				.set({ status: 'returned' })
+				.where('id', 'in', returnedIds)
+				.execute();
+			await trx
+				.insertInto('submission_comment')
+				.values(
+					returned.map((v) => ({
+						submission_id: submissionId,
+						entry_version_id: v.id,
+						author_id: curator.id,
+						body: rowComments[v.row_number as number] ?? decision.comment
+					}))
+				)
+				.execute();
+		}
+		const status =
+			returnedIds.length === 0
+				? 'approved'
+				: approved.length === 0
+					? 'returned'
+					: 'partially_approved';
 		await trx
-			.updateTable('entry_version')
-			.set({ status: 'returned' })
-			.where('id', 'in', returnedIds)
+			.updateTable('submission')
+			.set({ status, updated_at: now })
+			.where('id', '=', submissionId)
 			.execute();
 		await trx
-			.insertInto('submission_comment')
-			.values(
-				returned.map((v) => ({
-					submission_id: submissionId,
-					entry_version_id: v.id,
-					author_id: curator.id,
-					body: rowComments[v.row_number as number] ?? decision.comment
-				}))
+			.insertInto('review')
+			.values({
+				submission_id: submissionId,
+				reviewer_id: curator.id,
+				decision: returnedIds.length === 0 ? 'approve' : 'return',
+				comment: decision.comment || null
+			})
+			.execute();
+		await writeAudit(trx, {
+			actorId: curator.id,
+			action: `review.batch`,
+			submissionId,
+			before: { status: submission.status },
+			after: {
+				status,
+				approved: approved.length,
+				returnedRows: [...toReturn].sort((a, b) => a - b)
+			},
+			detail: decision.comment || null
+		});
+		const perRow = returned
+			.map(
+				(v) => `  row ${v.row_number}: ${rowComments[v.row_number as number] ?? decision.comment}`
 			)
-			.execute();
-	}
-	const status =
-		returnedIds.length === 0
-			? 'approved'
-			: approved.length === 0
-				? 'returned'
-				: 'partially_approved';
-	await trx
-		.updateTable('submission')
-		.set({ status, updated_at: now })
-		.where('id', '=', submissionId)
-		.execute();
-	await trx
-		.insertInto('review')
-		.values({
-			submission_id: submissionId,
-			reviewer_id: curator.id,
-			decision: returnedIds.length === 0 ? 'approve' : 'return',
-			comment: decision.comment || null
-		})
-		.execute();
-	await writeAudit(trx, {
-		actorId: curator.id,
-		action: `review.batch`,
-		submissionId,
-		before: { status: submission.status },
-		after: { status, approved: approved.length, returnedRows: [...toReturn].sort((a, b) => a - b) },
-		detail: decision.comment || null
+			.join('\n');
+		const comment =
+			returnedIds.length > 0
+				? `${approved.length} row(s) approved; ${returned.length} returned:\n${perRow}`
+				: decision.comment;
+		const mails = await outcomeMail(
+			trx,
+			submission,
+			returnedIds.length === 0 ? 'approve' : 'return',
+			comment,
+			origin,
+			approved.slice(0, 20)
+		);
+		return { approved, returned: returnedIds.length, mails };
 	});
-	const perRow = returned
-		.map((v) => `  row ${v.row_number}: ${rowComments[v.row_number as number] ?? decision.comment}`)
-		.join('\n');
-	const comment =
-		returnedIds.length > 0
-			? `${approved.length} row(s) approved; ${returned.length} returned:\n${perRow}`
-			: decision.comment;
-	const mails = await outcomeMail(
-		trx,
-		submission,
-		returnedIds.length === 0 ? 'approve' : 'return',
-		comment,
-		origin,
-		approved.slice(0, 20)
-	);
-	return { approved, returned: returnedIds.length, mails };
 }

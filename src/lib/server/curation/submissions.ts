@@ -288,6 +288,20 @@ export async function withdrawSubmission(
 			`submission ${submissionId} is ${submission.status} and can no longer be withdrawn`
 		);
 	}
+	// A batch a curator is approving chunk by chunk already has approved rows: it is being
+	// decided, and withdrawing half of it would leave approved rows under a withdrawn batch.
+	const approved = await trx
+		.selectFrom('entry_version')
+		.select('id')
+		.where('submission_id', '=', submissionId)
+		.where('status', '=', 'approved')
+		.limit(1)
+		.executeTakeFirst();
+	if (approved) {
+		throw new SubmissionStateError(
+			`submission ${submissionId} is being approved and can no longer be withdrawn`
+		);
+	}
 	await setStatus(trx, submissionId, 'withdrawn', 'withdrawn');
 	await writeAudit(trx, {
 		actorId: user.id,

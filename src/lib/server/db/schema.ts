@@ -34,6 +34,7 @@ export interface Database {
 	potential: PotentialTable;
 	spin_record: SpinRecordTable;
 	distance: DistanceTable;
+	backup_log: BackupLogTable;
 }
 
 export type { Role } from '$lib/roles';
@@ -364,6 +365,21 @@ export interface DistanceTable {
 	structure_id: string;
 	method: string;
 	source_entry_id: number | null;
+}
+
+/** A backup taken or restored from the command line (migration 0005; see db/backup.ts). */
+export interface BackupLogTable {
+	id: Generated<number>;
+	kind: 'backup' | 'restore';
+	at: Generated<string>;
+	/** The backup file written, or restored from (absolute path on the server). */
+	file: string;
+	bytes: number;
+	sha256: string;
+	table_count: number;
+	row_count: number;
+	last_migration: string | null;
+	seconds: number;
 }
 
 export type EntryRow = Selectable<EntryTable>;

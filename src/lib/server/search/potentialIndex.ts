@@ -3,7 +3,7 @@ import type { FacetCount } from '$lib/catalogue/dto';
 import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
 import { accessionNumber } from '$lib/schemas/accession';
 import type { Database } from '../db/schema';
-import { readCatalogueRevision } from '../catalogue/revision';
+import { bulkWriteInProgress, readCatalogueRevision } from '../catalogue/revision';
 import type { Viewer } from '../catalogue/visibility';
 
 /**
@@ -11,7 +11,12 @@ import type { Viewer } from '../catalogue/visibility';
  * counts and every sort order are answered by one pass over typed arrays (about a millisecond
  * for 100 000 rows), and SQLite is then asked only for the rows of the page shown. SQLite stays
  * the source of truth: the columns are rebuilt from the `potential` table whenever the
- * catalogue revision has moved (each approval bumps it), so a search never sees stale rows.
+ * catalogue revision has moved (each approval bumps it), so a search never sees stale rows —
+ * except while a large approval runs (`duringBulkWrite`): it moves the revision with every chunk
+ * it commits, and a rebuild per search (a second or more of the event loop at 100 000 rows)
+ * would then take most of the process's time, so the columns are rebuilt at most once a minute
+ * (or every 10 × the last rebuild) and lag that much behind; the next search after it rebuilds.
+ * Rows of a page are read from SQLite in any case, with the visibility rule applied again.
  *
  * Semantics match SQL on the same columns: a missing pH or temperature fails any bound on it;
  * sorts put missing values last in either direction; ties follow the accession, in the
@@ -174,20 +179,38 @@ export interface IndexResult {
 	page: number[];
 }
 
+/** While a bulk write runs, rebuilds are this far apart at least (and 10 × a rebuild's time). */
+const BULK_REBUILD_INTERVAL_MS = 60_000;
+
 export class PotentialIndex {
 	private columns: Columns | null = null;
 	private revision = -1;
 	private refreshing: Promise<void> | null = null;
+	private builtAt = 0;
+	private buildMs = 0;
+
+	/** @param now a clock in milliseconds (tests pass their own). */
+	constructor(private readonly now: () => number = () => performance.now()) {}
 
 	/** Rebuilds the columns when the catalogue revision has moved since the last build. */
 	async ensureCurrent(db: Kysely<Database>): Promise<void> {
 		while (this.refreshing) await this.refreshing;
 		const revision = await readCatalogueRevision(db);
 		if (revision === this.revision && this.columns) return;
+		if (
+			this.columns &&
+			bulkWriteInProgress() &&
+			this.now() - this.builtAt < Math.max(BULK_REBUILD_INTERVAL_MS, 10 * this.buildMs)
+		) {
+			return;
+		}
+		const started = this.now();
 		this.refreshing = loadColumns(db)
 			.then((columns) => {
 				this.columns = columns;
 				this.revision = revision;
+				this.builtAt = this.now();
+				this.buildMs = this.builtAt - started;
 			})
 			.finally(() => {
 				this.refreshing = null;
