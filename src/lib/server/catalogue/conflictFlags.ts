@@ -5,6 +5,7 @@ import {
 	type ListedPotential
 } from '$lib/catalogue/conflicts';
 import type { Database } from '../db/schema';
+import { COMPARABLE_COLUMNS, toComparable } from './comparablePotential';
 import { potentialIsVisible, type Viewer } from './visibility';
 
 /**
@@ -31,15 +32,7 @@ export async function conflictFlags(
 	const couples = [...new Set(shown.map((p) => p.couple))];
 	const rows = await db
 		.selectFrom('potential as p')
-		.select([
-			'p.accession',
-			'p.centre_accession',
-			'p.couple',
-			'p.em_mv_she',
-			'p.uncertainty_mv',
-			'p.ph',
-			'p.temperature_k'
-		])
+		.select(COMPARABLE_COLUMNS)
 		// By centre id, which the read model indexes.
 		.where('p.centre_entry_id', 'in', (eb) =>
 			eb.selectFrom('entry').select('entry.id').where('entry.accession', 'in', centres)
@@ -50,15 +43,7 @@ export async function conflictFlags(
 		.limit(CANDIDATE_CAP + 1)
 		.execute();
 	const truncated = rows.length > CANDIDATE_CAP;
-	const candidates: ListedPotential[] = rows.slice(0, CANDIDATE_CAP).map((r) => ({
-		accession: r.accession,
-		centre: { accession: r.centre_accession },
-		couple: r.couple,
-		emMvShe: r.em_mv_she,
-		uncertaintyMv: r.uncertainty_mv,
-		ph: r.ph,
-		temperatureK: r.temperature_k
-	}));
+	const candidates = rows.slice(0, CANDIDATE_CAP).map(toComparable);
 	return { flags: Object.fromEntries(conflictsForShown(shown, candidates)), truncated };
 }
 
@@ -69,27 +54,10 @@ export async function conflictFlagsOfPotential(
 	viewer: Viewer | null
 ): Promise<ConflictFlags> {
 	const row = await db
-		.selectFrom('potential')
-		.select([
-			'accession',
-			'centre_accession',
-			'couple',
-			'em_mv_she',
-			'uncertainty_mv',
-			'ph',
-			'temperature_k'
-		])
-		.where('accession', '=', accession)
+		.selectFrom('potential as p')
+		.select(COMPARABLE_COLUMNS)
+		.where('p.accession', '=', accession)
 		.executeTakeFirst();
 	if (!row) return { flags: {}, truncated: false };
-	const shown: ListedPotential = {
-		accession: row.accession,
-		centre: { accession: row.centre_accession },
-		couple: row.couple,
-		emMvShe: row.em_mv_she,
-		uncertaintyMv: row.uncertainty_mv,
-		ph: row.ph,
-		temperatureK: row.temperature_k
-	};
-	return conflictFlags(db, [shown], viewer);
+	return conflictFlags(db, [toComparable(row)], viewer);
 }

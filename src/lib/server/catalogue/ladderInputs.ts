@@ -1,7 +1,9 @@
 import { sql, type Kysely } from 'kysely';
-import type { LadderCentre, LadderDistance, LadderPotential } from '$lib/catalogue/ladder';
+import type { ListedPotential } from '$lib/catalogue/conflicts';
+import type { LadderCentre, LadderDistance } from '$lib/catalogue/ladder';
 import type { Database } from '../db/schema';
 import { listCentres, listDistances } from './lists';
+import { COMPARABLE_COLUMNS, toComparable } from './comparablePotential';
 import { potentialIsVisible, type Viewer } from './visibility';
 
 /**
@@ -17,7 +19,7 @@ export type LadderInputs =
 	| {
 			ok: true;
 			centres: LadderCentre[];
-			potentials: (LadderPotential & { uncertaintyMv: number | null })[];
+			potentials: ListedPotential[];
 			distances: LadderDistance[];
 	  }
 	| { ok: false; reason: string };
@@ -48,13 +50,7 @@ export async function ladderInputs(
 			eb
 				.selectFrom('potential as p')
 				.select([
-					'p.accession',
-					'p.centre_accession',
-					'p.couple',
-					'p.em_mv_she',
-					'p.uncertainty_mv',
-					'p.ph',
-					'p.temperature_k',
+					...COMPARABLE_COLUMNS,
 					// The same score as the ladder's own choice of a representative value.
 					sql<number>`row_number() over (partition by p.centre_entry_id order by abs(coalesce(p.ph, 7) - 7) + abs(coalesce(p.temperature_k, 298.15) - 298.15) / 10, p.entry_id)`.as(
 						'rank'
@@ -77,15 +73,7 @@ export async function ladderInputs(
 	return {
 		ok: true,
 		centres: centres.items,
-		potentials: ranked.map((r) => ({
-			accession: r.accession,
-			centre: { accession: r.centre_accession },
-			couple: r.couple,
-			emMvShe: r.em_mv_she,
-			uncertaintyMv: r.uncertainty_mv,
-			ph: r.ph,
-			temperatureK: r.temperature_k
-		})),
+		potentials: ranked.map(toComparable),
 		distances: distances.items
 	};
 }
