@@ -1,7 +1,7 @@
+import { insertSessionUser } from '../tests/support/users';
 import type { Kysely } from 'kysely';
 import { COUPLES_BY_KIND, type CofactorKind } from '../src/lib/schemas/vocabulary';
 import { typicalRange } from '../src/lib/catalogue/typicalRanges';
-import type { SessionUser } from '../src/lib/server/auth/roles';
 import type { Database } from '../src/lib/server/db/schema';
 
 /**
@@ -38,23 +38,4 @@ export async function generatedPotentialsCsv(
 }
 
 /** A user of the benchmark, with the role given. */
-export async function benchUser(
-	db: Kysely<Database>,
-	role: 'contributor' | 'curator',
-	email: string
-): Promise<SessionUser> {
-	const { id } = await db
-		.insertInto('User')
-		.values({
-			email,
-			name: role,
-			role,
-			emailVerified: null,
-			image: null,
-			passwordHash: null,
-			disabledAt: null
-		})
-		.returning('id')
-		.executeTakeFirstOrThrow();
-	return { id, email, name: role, role, groupIds: [] };
-}
+export const benchUser = insertSessionUser;

@@ -14,6 +14,7 @@ import { commitUpload } from '$lib/server/uploads/commitUpload';
 import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
+import { insertSessionUser } from '../support/users';
 
 /**
  * The accession space cannot be used up, and one contributor cannot fill the registry with rows
@@ -28,14 +29,8 @@ let centre: string;
 const PUBLIC = { visibility: 'public' as const, groupId: null, embargoUntil: null };
 const origin = 'http://hopline.test';
 
-async function makeUser(role: 'contributor' | 'curator', email: string): Promise<SessionUser> {
-	const { id } = await db
-		.insertInto('User')
-		.values({ email, name: role, role, emailVerified: null, image: null, passwordHash: null })
-		.returning('id')
-		.executeTakeFirstOrThrow();
-	return { id, email, name: role, role, groupIds: [] };
-}
+const makeUser = (role: 'contributor' | 'curator', email: string) =>
+	insertSessionUser(db, role, email);
 
 function potential(reportedValue: number) {
 	const parsed = parseEntryInput('potential', {

@@ -15,6 +15,7 @@ import { duringBulkWrite } from '$lib/server/catalogue/revision';
 import { PotentialIndex } from '$lib/server/search/potentialIndex';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
+import { insertSessionUser } from '../support/users';
 
 // Approving a large batch commits in chunks of APPROVAL_CHUNK_ROWS versions: other reads and
 // writes go on meanwhile, and an approval killed half-way is finished by approving again.
@@ -25,22 +26,7 @@ let contributor: SessionUser;
 let curator: SessionUser;
 const origin = 'http://hopline.test';
 
-async function user(role: 'contributor' | 'curator', email: string): Promise<SessionUser> {
-	const { id } = await db
-		.insertInto('User')
-		.values({
-			email,
-			name: role,
-			role,
-			emailVerified: null,
-			image: null,
-			passwordHash: null,
-			disabledAt: null
-		})
-		.returning('id')
-		.executeTakeFirstOrThrow();
-	return { id, email, name: role, role, groupIds: [] };
-}
+const user = (role: 'contributor' | 'curator', email: string) => insertSessionUser(db, role, email);
 
 /** A CSV batch of `rows` new potentials of one demo [4Fe-4S] centre, each row distinct. */
 async function largeBatch(rows: number, tag: number): Promise<number> {

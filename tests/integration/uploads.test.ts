@@ -10,6 +10,7 @@ import { CsvLimitError } from '$lib/catalogue/csvRecords';
 import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
+import { insertSessionUser } from '../support/users';
 
 let db: Kysely<Database>;
 let remove: () => Promise<void>;
@@ -20,22 +21,7 @@ const PUBLIC = { visibility: 'public' as const, groupId: null, embargoUntil: nul
 const options = { viewer: null, limits: uploadCsvLimits };
 const origin = 'http://hopline.test';
 
-async function user(role: 'contributor' | 'curator', email: string): Promise<SessionUser> {
-	const { id } = await db
-		.insertInto('User')
-		.values({
-			email,
-			name: role,
-			role,
-			emailVerified: null,
-			image: null,
-			passwordHash: null,
-			disabledAt: null
-		})
-		.returning('id')
-		.executeTakeFirstOrThrow();
-	return { id, email, name: role, role, groupIds: [] };
-}
+const user = (role: 'contributor' | 'curator', email: string) => insertSessionUser(db, role, email);
 
 beforeAll(async () => {
 	({ db, remove } = await createTempDatabase());

@@ -1,11 +1,11 @@
 import { sql, type Kysely } from 'kysely';
-import { normalisePotential, potentialInputSchema } from '$lib/schemas/potential';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 import { createPasswordUser } from '$lib/server/auth/users';
 import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/entries';
 import type { Database } from '$lib/server/db/schema';
 import { DEMO_GROUP, ensureDemoAccounts } from '$seed/accounts';
 import { loadDemoScenario } from '$seed/load';
+import { potentialAtPh7 } from './largeCentre';
 
 /**
  * A demo catalogue plus entries only the demo consortium may see, and accounts outside it: the
@@ -89,21 +89,7 @@ export async function buildHiddenFixtures(db: Kysely<Database>): Promise<HiddenF
 			return entry.accession;
 		};
 		const potential = (value: number, sourceAccession: string | null) =>
-			normalisePotential(
-				potentialInputSchema.parse({
-					centreAccession: some.centre_accession,
-					couple: some.couple,
-					reportedValue: value,
-					reportedUnit: 'mV',
-					referenceElectrode: 'SHE',
-					ph: 7,
-					temperatureK: 298.15,
-					method: 'epr_titration',
-					nElectrons: 1,
-					uncertaintyMv: 5,
-					sourceAccession
-				})
-			);
+			potentialAtPh7(some.centre_accession, some.couple, value, sourceAccession);
 		const hiddenSource = await add(
 			'source',
 			{

@@ -5,6 +5,33 @@ import type { Database } from '$lib/server/db/schema';
 import { loadDemoScenario } from '$seed/load';
 
 /**
+ * A stored potential (as approval expects it) of one centre and couple at pH 7 and 25 °C,
+ * reported in mV vs SHE with ±5 mV: the shape the confidentiality and size fixtures share.
+ */
+export function potentialAtPh7(
+	centreAccession: string,
+	couple: string,
+	reportedValue: number,
+	sourceAccession: string | null = null
+) {
+	return normalisePotential(
+		potentialInputSchema.parse({
+			centreAccession,
+			couple,
+			reportedValue,
+			reportedUnit: 'mV',
+			referenceElectrode: 'SHE',
+			ph: 7,
+			temperatureK: 298.15,
+			method: 'epr_titration',
+			nElectrons: 1,
+			uncertaintyMv: 5,
+			sourceAccession
+		})
+	);
+}
+
+/**
  * The demo scenario plus `count` approved potentials on one centre, all at the same pH and
  * temperature and spread over 2 V, so that nearly every pair conflicts: the worst case for
  * anything that compares a centre's values with each other.
@@ -23,21 +50,7 @@ export async function buildLargeCentre(
 	let onePotential = '';
 	await db.transaction().execute(async (trx) => {
 		for (let i = 0; i < count; i++) {
-			const data = normalisePotential(
-				potentialInputSchema.parse({
-					centreAccession: some.centre_accession,
-					couple: some.couple,
-					reportedValue: -1000 + (i % 2000),
-					reportedUnit: 'mV',
-					referenceElectrode: 'SHE',
-					ph: 7,
-					temperatureK: 298.15,
-					method: 'epr_titration',
-					nElectrons: 1,
-					uncertaintyMv: 5,
-					sourceAccession: null
-				})
-			);
+			const data = potentialAtPh7(some.centre_accession, some.couple, -1000 + (i % 2000));
 			const entry = await createEntry(trx, { kind: 'potential' });
 			const versionId = await addVersion(trx, entry.id, data, { status: 'submitted' });
 			await approveVersion(trx, versionId);
