@@ -36,11 +36,13 @@ const config = {
 		// The origin check lives in src/lib/server/http/originCheck.ts: the same rule for pages,
 		// the API's JSON error shape under /api, and no Origin needed by cookie-less scripts.
 		csrf: { trustedOrigins: ['*'] },
-		// Content-Security-Policy of every page, with a nonce for SvelteKit's inline script (a hash
-		// on prerendered pages). form-action is added per request in securityHeaders.ts, because
-		// the OpenID Connect issuer is known only at run time. See DEVELOPERS.md, "HTTP hardening".
+		// Content-Security-Policy of every page, with the hash of SvelteKit's inline script rather
+		// than a nonce: the same page is served to every signed-out reader from the read cache
+		// (src/lib/server/http/readCache.ts), and a nonce repeated across answers is no nonce.
+		// form-action is added per request in securityHeaders.ts, because the OpenID Connect
+		// issuer is known only at run time. See DEVELOPERS.md, "HTTP hardening".
 		csp: {
-			mode: 'auto',
+			mode: 'hash',
 			directives: {
 				'default-src': ['self'],
 				'script-src': ['self'],

@@ -1,5 +1,6 @@
-// The yardstick for the API benchmark: the same list query served by node:http and
-// better-sqlite3 directly, with no framework, validation or query builder in between.
+// The yardsticks for the API and HTTP benchmarks: the same list query served by node:http and
+// better-sqlite3 directly, with no framework, validation or query builder in between; and at
+// /small, a fixed 25-item JSON body, the most this machine answers at all.
 import http from 'node:http';
 import SQLite from 'better-sqlite3';
 
@@ -19,9 +20,22 @@ const page =
 	order by p.protein_name asc nulls last, p.centre_label asc nulls last, p.couple asc nulls last, p.entry_id
 	limit @limit offset @offset`);
 
+// The machine's ceiling: a small JSON body (25 items) built once, no database, no framework.
+const small = JSON.stringify({
+	items: Array.from({ length: 25 }, (_, i) => ({
+		accession: `HL${String(i).padStart(6, '0')}`,
+		emMvShe: -300 + i
+	}))
+});
+
 http
 	.createServer((req, res) => {
 		const url = new URL(req.url ?? '/', 'http://raw');
+		if (url.pathname === '/small') {
+			res.writeHead(200, { 'content-type': 'application/json' });
+			res.end(small);
+			return;
+		}
 		const limit = Number(url.searchParams.get('limit') ?? 100);
 		const offset = Number(url.searchParams.get('offset') ?? 0);
 		const now = new Date().toISOString();

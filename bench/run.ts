@@ -2,12 +2,14 @@
 // 1. search (text + filters + first page) p50/p95 server-side on 100 000 potentials;
 // 2. API list throughput (100 rows a page) beside a raw node:http + better-sqlite3 server;
 // 3. server RSS after the search index is built;
+// 3b. pages and API under load with autocannon, demo data and 100 000 potentials (bench/http.ts,
+//    also `npm run bench:http`);
 // 4. CSV upload: 100 000 rows checked and committed, beside raw prepared inserts (bench/upload.ts);
 // 5. approving a 50 000-row batch while reading and writing (bench/approval.ts);
 // 6. latency of GET /api/v1 while three heavy calculator requests run (bench/calc.ts);
 // 7. the pages of a centre with 5 000 potentials: time and server memory (bench/largeCentre.ts);
 // and first, the science engine's timings (bench/science.ts).
-// `npm run bench -- approval upload` runs only the steps named (science, search, api, upload,
+// `npm run bench -- approval upload` runs only the steps named (science, search, api, http, upload,
 // approval, calc, largeCentre). Figures go to bench/RESULTS.md (bench/results.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
@@ -24,6 +26,7 @@ import { benchCalcLatency } from './calc';
 import { benchLargeCentre } from './largeCentre';
 import { recordOutput, writeResults } from './results';
 import { benchApproval } from './approval';
+import { benchHttp } from './http';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -191,7 +194,16 @@ async function benchApi() {
 	}
 }
 
-const STEPS = ['science', 'search', 'api', 'upload', 'approval', 'calc', 'largeCentre'] as const;
+const STEPS = [
+	'science',
+	'search',
+	'api',
+	'http',
+	'upload',
+	'approval',
+	'calc',
+	'largeCentre'
+] as const;
 const named = process.argv.slice(2);
 const unknown = named.filter((n) => !(STEPS as readonly string[]).includes(n));
 if (unknown.length > 0) throw new Error(`unknown step(s) ${unknown.join(', ')}; known: ${STEPS}`);
@@ -214,6 +226,10 @@ if (runs('search')) {
 if (runs('api')) {
 	recordOutput('api');
 	await benchApi();
+}
+if (runs('http')) {
+	recordOutput('http');
+	await benchHttp(DATASET);
 }
 if (runs('upload')) {
 	recordOutput('upload');

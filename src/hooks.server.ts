@@ -6,12 +6,15 @@ import { db } from '$lib/server/db';
 import { migrateToLatest } from '$lib/server/db/migrate';
 import { authHandle } from '$lib/server/auth/authjs';
 import { loadSessionUser } from '$lib/server/auth/users';
+import { hasSessionCookie } from '$lib/server/auth/sessionCookie';
 import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
 import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
 import { limitRequestSize } from '$lib/server/requestLimits';
 import { secureCookiesOnlyOverHttps } from '$lib/server/secureCookies';
 import { httpHardening } from '$lib/server/http';
+import { createReadCache } from '$lib/server/http/readCache';
+import { catalogueValidityReader } from '$lib/server/catalogue/revision';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -23,6 +26,17 @@ export const init: ServerInit = async () => {
 	if (config.HOPLINE_DEMO) await ensureDemoAccounts(db);
 	scheduleDigests(db, { hourUtc: config.DIGEST_HOUR_UTC, origin: config.ORIGIN });
 };
+
+const readCache =
+	config.READ_CACHE_MAX_MB > 0
+		? createReadCache({
+				validity: catalogueValidityReader(db),
+				maxBytes: config.READ_CACHE_MAX_MB * 1024 * 1024,
+				maxEntryBytes: config.READ_CACHE_ENTRY_MAX_KB * 1024
+			})
+		: null;
+const cacheSignedOutReads: Handle = (input) =>
+	readCache ? readCache.handle(input) : input.resolve(input.event);
 
 const attachRequestFacts: Handle = async ({ event, resolve }) => {
 	event.locals.requestId = crypto.randomUUID();
@@ -36,6 +50,7 @@ const attachRequestFacts: Handle = async ({ event, resolve }) => {
  * the session also checks that it was not ended (signed out, reset, disabled: auth/sessions.ts).
  */
 const attachUser: Handle = async ({ event, resolve }) => {
+	if (!hasSessionCookie(event.request)) return resolve(event);
 	const session = await event.locals.auth();
 	const id = session?.user?.id;
 	if (id) {
@@ -50,6 +65,7 @@ export const handle: Handle = sequence(
 	httpHardening,
 	limitRequestSize,
 	secureCookiesOnlyOverHttps,
+	cacheSignedOutReads,
 	authHandle,
 	attachUser
 );

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { launchChromium, signedInPage } from '../support/browser';
 
 // Every main page under the Content-Security-Policy, in Chromium: the page is served with the
-// policy, SvelteKit's inline script runs (its nonce), nothing is refused (scripts, styles, fonts,
+// policy, SvelteKit's inline script runs (allowed by its hash), nothing is refused (scripts, styles, fonts,
 // the CSV preview's module worker, SVG plots) and no script fails. The browser itself is the
 // oracle: it reports each refusal as a `securitypolicyviolation` event and on the console.
 const base = inject('baseUrl');
@@ -40,7 +40,7 @@ async function visit(page: Page, problems: string[], path: string, status = 200)
 	const response = await page.goto(path);
 	expect(response?.status(), path).toBe(status);
 	const csp = (await response?.headerValue('content-security-policy')) ?? '';
-	expect(csp, path).toMatch(/script-src 'self' 'nonce-/);
+	expect(csp, path).toMatch(/script-src 'self' 'sha256-/);
 	expect(csp, path).toContain("frame-ancestors 'none'");
 	await page.waitForLoadState('networkidle');
 	const state = await page.evaluate(async () => {

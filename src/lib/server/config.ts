@@ -126,7 +126,13 @@ const configSchema = z.object({
 	 * Calculations one client address may start per minute without signing in (IPv6 addresses
 	 * counted per /64); over it, 429 with Retry-After. Signed-in users are bounded by the queue.
 	 */
-	CALC_ANON_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(30)
+	CALC_ANON_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(30),
+	/**
+	 * Memory for catalogue answers kept for signed-out readers (http/readCache.ts), MB per
+	 * process; 0 turns the cache off. Answers larger than READ_CACHE_ENTRY_MAX_KB are not kept.
+	 */
+	READ_CACHE_MAX_MB: z.coerce.number().int().min(0).max(4096).default(32),
+	READ_CACHE_ENTRY_MAX_KB: z.coerce.number().int().min(1).max(65_536).default(1024)
 });
 
 export type Config = z.infer<typeof configSchema>;

@@ -4,8 +4,8 @@ import { withHeaders } from './headers';
 
 /**
  * Security headers on every response the app makes: pages, API JSON and CSV, redirects and
- * errors. Pages get SvelteKit's Content-Security-Policy (`kit.csp` in svelte.config.js, with a
- * nonce for its inline hydration script), completed here with `form-action`; everything else
+ * errors. Pages get SvelteKit's Content-Security-Policy (`kit.csp` in svelte.config.js, with the
+ * hash of its inline hydration script), completed here with `form-action`; everything else
  * gets a policy under which nothing may run, load or frame it. Files under /_app and static/
  * are served by adapter-node before any hook runs and carry only their own headers.
  */

@@ -1,0 +1,176 @@
+import { createHash } from 'node:crypto';
+import type { Handle, RequestEvent } from '@sveltejs/kit';
+import { LRUCache } from 'lru-cache';
+import { hasSessionCookie } from '../auth/sessionCookie';
+import type { CatalogueValidity } from '../catalogue/revision';
+
+/**
+ * Answers for signed-out readers, kept in memory for as long as the catalogue they show stays
+ * the same. Signed-out readers of a catalogue page all see the same bytes — it depends on the
+ * URL and on the approved, public data, which move only with the catalogue revision (every
+ * approval, withdrawal and visibility change bumps it in the writing transaction), with the
+ * end of an embargo and with the date (citations carry it) — so the first such request renders
+ * and the next ones, until the revision or the validity moves, are served from here. Every
+ * kept answer has an ETag; a matching `If-None-Match` gets 304.
+ *
+ * Never kept: requests carrying a session cookie or an Authorization header (members see
+ * group-only rows, and the header shows who is signed in), anything but GET, answers other
+ * than 200, answers that set a cookie or say `private`/`no-store`, routes not listed as
+ * catalogue reads, and bodies over the per-entry limit. The memory is bounded by bytes (LRU).
+ */
+
+/** Routes whose signed-out answer depends only on the URL and the public catalogue. */
+export const CATALOGUE_READ_ROUTES: ReadonlySet<string> = new Set([
+	'/',
+	'/proteins',
+	'/search',
+	'/e/[accession=accession]/[[version=version]]',
+	'/e/[accession=accession]/compare',
+	'/api/v1',
+	'/api/v1/potentials',
+	'/api/v1/proteins',
+	'/api/v1/centres',
+	'/api/v1/distances',
+	'/api/v1/spin-records',
+	'/api/v1/facets',
+	'/api/v1/entries/[accession=accession]'
+]);
+
+interface KeptAnswer {
+	revision: number;
+	validUntil: number;
+	status: number;
+	headers: [string, string][];
+	body: Uint8Array;
+	etag: string;
+}
+
+export interface ReadCacheOptions {
+	/** The catalogue's current validity (revision/revision.ts). */
+	validity: () => Promise<CatalogueValidity>;
+	maxBytes: number;
+	maxEntryBytes: number;
+}
+
+export function isSignedOutRead(event: {
+	request: Request;
+	route: { id: string | null };
+}): boolean {
+	const { request } = event;
+	if (request.method !== 'GET') return false;
+	if (!event.route.id || !CATALOGUE_READ_ROUTES.has(event.route.id)) return false;
+	if (request.headers.has('authorization')) return false;
+	return !hasSessionCookie(request);
+}
+
+/** Whether an `If-None-Match` header names this ETag (weak comparison, RFC 9110 §13.1.2). */
+export function etagMatches(ifNoneMatch: string | null, etag: string): boolean {
+	if (!ifNoneMatch) return false;
+	if (ifNoneMatch.trim() === '*') return true;
+	const bare = (tag: string) => tag.trim().replace(/^W\//, '');
+	return ifNoneMatch.split(',').some((tag) => bare(tag) === bare(etag));
+}
+
+/** Headers an answer kept for everyone must not carry on to the next reader. */
+const PER_REQUEST_HEADERS = new Set(['set-cookie', 'date', 'connection', 'keep-alive']);
+
+function keepable(response: Response): boolean {
+	if (response.status !== 200 || response.headers.has('set-cookie')) return false;
+	const cacheControl = response.headers.get('cache-control') ?? '';
+	return !/\b(?:private|no-store)\b/i.test(cacheControl);
+}
+
+/**
+ * Shared caches between the server and a reader (a proxy) must not hand the signed-out answer
+ * to someone signed in, and browsers revalidate with the ETag before reuse.
+ */
+function cachingHeaders(headers: Headers, etag: string): void {
+	headers.set('etag', etag);
+	if (!headers.has('cache-control')) headers.set('cache-control', 'public, no-cache');
+	const vary = headers.get('vary');
+	headers.set('vary', vary ? `${vary}, Cookie, Authorization` : 'Cookie, Authorization');
+}
+
+function answer(kept: KeptAnswer, request: Request): Response {
+	const headers = new Headers(kept.headers);
+	if (etagMatches(request.headers.get('if-none-match'), kept.etag)) {
+		headers.delete('content-length');
+		return new Response(null, { status: 304, headers });
+	}
+	return new Response(kept.body as Uint8Array<ArrayBuffer>, { status: kept.status, headers });
+}
+
+export function createReadCache(options: ReadCacheOptions) {
+	const kept = new LRUCache<string, KeptAnswer>({
+		maxSize: options.maxBytes,
+		maxEntrySize: options.maxEntryBytes,
+		sizeCalculation: (entry, key) => entry.body.byteLength + key.length * 2 + 512
+	});
+	let hits = 0;
+	let misses = 0;
+
+	/** Answers being rendered now, by key: concurrent first visits wait for one rendering. */
+	const rendering = new Map<string, Promise<KeptAnswer | Response>>();
+
+	async function render(
+		event: RequestEvent,
+		resolve: Parameters<Handle>[0]['resolve'],
+		validity: CatalogueValidity
+	): Promise<KeptAnswer | Response> {
+		// The revision was read before rendering: if an approval lands meanwhile, this answer is
+		// filed under the older revision and never served once the newer one is seen.
+		const response = await resolve(event);
+		if (!keepable(response)) return response;
+		const body = new Uint8Array(await response.arrayBuffer());
+		const headers = new Headers(response.headers);
+		// SvelteKit tags pages itself; other answers get a hash of their bytes.
+		const etag =
+			headers.get('etag') ??
+			`"${createHash('sha256').update(body).digest('base64url').slice(0, 27)}"`;
+		cachingHeaders(headers, etag);
+		return {
+			revision: validity.revision,
+			validUntil: validity.validUntil,
+			status: response.status,
+			headers: [...headers].filter(([name]) => !PER_REQUEST_HEADERS.has(name)),
+			body,
+			etag
+		};
+	}
+
+	const handle: Handle = async ({ event, resolve }) => {
+		if (!isSignedOutRead(event)) return resolve(event);
+		const validity = await options.validity();
+		const key = `${validity.revision}\n${event.url.pathname}${event.url.search}\n${event.request.headers.get('accept') ?? ''}`;
+		const found = kept.get(key);
+		if (found && Date.now() < Math.min(found.validUntil, validity.validUntil)) {
+			hits++;
+			return answer(found, event.request);
+		}
+		const inFlight = rendering.get(key);
+		if (inFlight) {
+			const result = await inFlight.catch(() => null);
+			// Failed or not keepable (an error page, say): each waiting reader renders its own.
+			if (result === null || result instanceof Response) return resolve(event);
+			hits++;
+			return answer(result, event.request);
+		}
+		misses++;
+		const work = render(event, resolve, validity);
+		rendering.set(key, work);
+		try {
+			const result = await work;
+			if (result instanceof Response) return result;
+			if (result.body.byteLength <= options.maxEntryBytes) kept.set(key, result);
+			return answer(result, event.request);
+		} finally {
+			rendering.delete(key);
+		}
+	};
+
+	return {
+		handle,
+		stats: () => ({ entries: kept.size, bytes: kept.calculatedSize, hits, misses }),
+		clear: () => kept.clear()
+	};
+}
