@@ -192,6 +192,19 @@ describe('answers kept for signed-out readers', () => {
 		expect(await (await get(`/e/${fx.centre}`)).text()).toContain(accession);
 	});
 
+	it('keeps a page and its __data.json apart', async () => {
+		for (let round = 0; round < 2; round++) {
+			const html = await get(`/e/${fx.protein}`);
+			expect(html.headers.get('content-type')).toMatch(/^text\/html/);
+			const data = await get(`/e/${fx.protein}/__data.json`);
+			expect(data.headers.get('content-type')).toMatch(/^application\/json/);
+			expect((await data.json()).type).toBe('data');
+			const search = await get('/search/__data.json?kind=fe4s4');
+			expect(search.headers.get('content-type')).toMatch(/^application\/json/);
+			expect((await get('/search?kind=fe4s4')).headers.get('content-type')).toMatch(/^text\/html/);
+		}
+	});
+
 	it('keeps no error answers', async () => {
 		const missing = await get('/e/HL999999');
 		expect(missing.status).toBe(404);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { hasSessionCookie } from '$lib/server/auth/sessionCookie';
 import { nextUtcMidnight } from '$lib/server/catalogue/revision';
-import { etagMatches, isSignedOutRead } from '$lib/server/http/readCache';
+import { createReadCache, etagMatches, isSignedOutRead } from '$lib/server/http/readCache';
 
 const event = (
 	routeId: string | null,
@@ -58,5 +58,97 @@ describe('the next UTC midnight (citations carry the access date)', () => {
 		expect(new Date(nextUtcMidnight(new Date('2027-01-01T00:00:00.000Z'))).toISOString()).toBe(
 			'2027-01-02T00:00:00.000Z'
 		);
+	});
+});
+
+describe('the read cache', () => {
+	function setup(maxEntryBytes = 10_000) {
+		let validity = { revision: 1, validUntil: Date.now() + 60_000 };
+		const cache = createReadCache({
+			validity: async () => validity,
+			maxBytes: 100_000,
+			maxEntryBytes
+		});
+		let renders = 0;
+		let answer = (): Response => new Response(`page ${renders}`, { status: 200 });
+		const resolve = async () => {
+			renders++;
+			await new Promise((r) => setTimeout(r, 5));
+			return answer();
+		};
+		const request = (path = '/search?kind=fe4s4', headers: Record<string, string> = {}) => {
+			const url = new URL(`http://hopline.test${path}`);
+			const event = { url, request: new Request(url, { headers }), route: { id: '/search' } };
+			return cache.handle({ event: event as never, resolve: resolve as never });
+		};
+		return {
+			request,
+			renders: () => renders,
+			setValidity: (v: typeof validity) => (validity = v),
+			setAnswer: (f: () => Response) => (answer = f),
+			stats: cache.stats
+		};
+	}
+
+	it('renders once per URL and revision, however many readers ask at once', async () => {
+		const c = setup();
+		const bodies = await Promise.all(
+			Array.from({ length: 20 }, async () => (await c.request()).text())
+		);
+		expect(new Set(bodies)).toEqual(new Set(['page 1']));
+		expect(c.renders()).toBe(1);
+		await c.request('/search?kind=heme_c');
+		expect(c.renders()).toBe(2);
+		c.setValidity({ revision: 2, validUntil: Date.now() + 60_000 });
+		expect(await (await c.request()).text()).toBe('page 3');
+		expect(c.stats().hits).toBe(19);
+	});
+
+	it('renders again once the validity has run out (an embargo ended)', async () => {
+		const c = setup();
+		c.setValidity({ revision: 1, validUntil: Date.now() + 30 });
+		await c.request();
+		await c.request();
+		expect(c.renders()).toBe(1);
+		await new Promise((r) => setTimeout(r, 40));
+		c.setValidity({ revision: 1, validUntil: Date.now() + 60_000 });
+		await c.request();
+		expect(c.renders()).toBe(2);
+	});
+
+	it('keeps nothing marked no-store or private, setting a cookie, or not 200', async () => {
+		for (const make of [
+			() => new Response('busy', { headers: { 'cache-control': 'no-store' } }),
+			() => new Response('mine', { headers: { 'cache-control': 'private' } }),
+			() => new Response('c', { headers: { 'set-cookie': 'a=b' } }),
+			() => new Response('gone', { status: 404 })
+		]) {
+			const c = setup(100);
+			c.setAnswer(make);
+			await Promise.all([c.request(), c.request()]);
+			await c.request();
+			expect(c.renders()).toBe(3);
+		}
+	});
+
+	it('does not keep an answer over the per-entry limit (readers waiting on it share it)', async () => {
+		const c = setup(100);
+		c.setAnswer(() => new Response('x'.repeat(200)));
+		await Promise.all([c.request(), c.request()]);
+		expect(c.renders()).toBe(1);
+		await c.request();
+		expect(c.renders()).toBe(2);
+		expect(c.stats().entries).toBe(0);
+	});
+
+	it('answers 304 to a matching If-None-Match, with the ETag', async () => {
+		const c = setup();
+		const first = await c.request();
+		const etag = first.headers.get('etag') as string;
+		expect(etag).toMatch(/^"[\w-]+"$/);
+		const again = await c.request('/search?kind=fe4s4', { 'if-none-match': `W/${etag}` });
+		expect(again.status).toBe(304);
+		expect(again.headers.get('etag')).toBe(etag);
+		expect(await again.text()).toBe('');
 	});
 });

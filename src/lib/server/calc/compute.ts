@@ -77,12 +77,14 @@ export interface ChainEstimateOutcome {
 	estimate: ChainEstimate | null;
 	/** Why there is no estimate although the ladder allows one (busy, too long). */
 	note: string | null;
+	/** True when the note says "try again": a page showing it must not be kept for others. */
+	transient: boolean;
 }
 
 export async function chainEstimateFor(
 	input: LadderChainInput | null
 ): Promise<ChainEstimateOutcome> {
-	if (!input) return { estimate: null, note: null };
+	if (!input) return { estimate: null, note: null, transient: false };
 	const key = JSON.stringify(input);
 	let pending = chainCache.get(key);
 	if (pending) {
@@ -94,17 +96,19 @@ export async function chainEstimateFor(
 	chainCache.set(key, pending);
 	if (chainCache.size > CHAIN_CACHE_SIZE) chainCache.delete(chainCache.keys().next().value!);
 	try {
-		return { estimate: await pending, note: null };
+		return { estimate: await pending, note: null, transient: false };
 	} catch (e) {
 		if (e instanceof CalcBusyError)
 			return {
 				estimate: null,
-				note: `The electron-transit estimate is not shown: the calculators are busy. Reload the page in ${e.retryAfterSeconds} s.`
+				note: `The electron-transit estimate is not shown: the calculators are busy. Reload the page in ${e.retryAfterSeconds} s.`,
+				transient: true
 			};
 		if (e instanceof CalcTimeLimitError)
 			return {
 				estimate: null,
-				note: 'The electron-transit estimate is not shown: this chain is too long to estimate within the time limit.'
+				note: 'The electron-transit estimate is not shown: this chain is too long to estimate within the time limit.',
+				transient: false
 			};
 		throw e;
 	}

@@ -141,7 +141,9 @@ export function createReadCache(options: ReadCacheOptions) {
 	const handle: Handle = async ({ event, resolve }) => {
 		if (!isSignedOutRead(event)) return resolve(event);
 		const validity = await options.validity();
-		const key = `${validity.revision}\n${event.url.pathname}${event.url.search}\n${event.request.headers.get('accept') ?? ''}`;
+		// The request's own URL: SvelteKit's event.url is the page's URL even for its
+		// `__data.json` request, which must not share the page's answer.
+		const key = `${validity.revision}\n${event.request.url}\n${event.request.headers.get('accept') ?? ''}`;
 		const found = kept.get(key);
 		if (found && Date.now() < Math.min(found.validUntil, validity.validUntil)) {
 			hits++;

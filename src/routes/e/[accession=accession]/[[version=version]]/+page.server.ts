@@ -13,13 +13,14 @@ import { ladderInputs } from '$lib/server/catalogue/ladderInputs';
 import { relatedRecords } from '$lib/server/catalogue/related';
 import { db } from '$lib/server/db';
 import type { PageServerLoad } from './$types';
+import { shownRelated } from './shownRelated';
 
 /**
  * An entry at one version, with (for proteins and centres) its related records one page per
  * list, conflict flags for the potentials shown, and a protein's energy ladder — every part
  * bounded, however many records the entry has.
  */
-export const load: PageServerLoad = async ({ params, locals, url }) => {
+export const load: PageServerLoad = async ({ params, locals, url, setHeaders }) => {
 	const version = params.version ? (parseVersionSegment(params.version) ?? undefined) : undefined;
 	const pages = parseRelatedPages(url.searchParams);
 	if (!pages.ok) {
@@ -54,6 +55,8 @@ export const load: PageServerLoad = async ({ params, locals, url }) => {
 	const chain = await chainEstimateFor(
 		ladder && ladderData?.ok ? ladderChainInput(ladder, ladderData.potentials) : null
 	);
+	// "Busy, reload" is true of this moment only: keep this page for no one (http/readCache.ts).
+	if (chain.transient) setHeaders({ 'cache-control': 'no-store' });
 	// Flags for what the page shows: this potential, or the page of potentials listed.
 	const conflicts =
 		view.kind === 'potential'
@@ -61,7 +64,7 @@ export const load: PageServerLoad = async ({ params, locals, url }) => {
 			: await conflictFlags(db, related?.potentials.items ?? [], locals.viewer);
 	return {
 		view,
-		related,
+		related: related ? shownRelated(related) : null,
 		ladder,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
 		chain: chain.estimate,
