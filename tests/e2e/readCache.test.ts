@@ -1,4 +1,6 @@
 import { mkdtempSync, rmSync } from 'node:fs';
+import http from 'node:http';
+import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Kysely } from 'kysely';
@@ -203,6 +205,48 @@ describe('answers kept for signed-out readers', () => {
 			expect(search.headers.get('content-type')).toMatch(/^application\/json/);
 			expect((await get('/search?kind=fe4s4')).headers.get('content-type')).toMatch(/^text\/html/);
 		}
+	});
+
+	it('sends kept answers compressed to clients that accept it, decoded to the same bytes', async () => {
+		const path = `/e/${fx.protein}`;
+		// node:http does not decode, so what goes over the wire is seen as it is.
+		const raw = (acceptEncoding: string | null, ifNoneMatch?: string) =>
+			new Promise<{ status: number; headers: http.IncomingHttpHeaders; body: Buffer }>(
+				(done, fail) => {
+					const headers: Record<string, string> = {};
+					if (acceptEncoding !== null) headers['accept-encoding'] = acceptEncoding;
+					if (ifNoneMatch) headers['if-none-match'] = ifNoneMatch;
+					http
+						.get(`${base}${path}`, { headers }, (res) => {
+							const chunks: Buffer[] = [];
+							res.on('data', (c: Buffer) => chunks.push(c));
+							res.on('end', () =>
+								done({
+									status: res.statusCode ?? 0,
+									headers: res.headers,
+									body: Buffer.concat(chunks)
+								})
+							);
+						})
+						.on('error', fail);
+				}
+			);
+		const plain = await raw(null);
+		expect(plain.headers['content-encoding']).toBeUndefined();
+		expect(plain.headers.vary).toContain('Accept-Encoding');
+		const br = await raw('gzip, deflate, br');
+		expect(br.headers['content-encoding']).toBe('br');
+		expect(brotliDecompressSync(br.body).equals(plain.body)).toBe(true);
+		expect(br.body.length).toBeLessThan(plain.body.length / 3);
+		expect(Number(br.headers['content-length'])).toBe(br.body.length);
+		const gz = await raw('gzip');
+		expect(gz.headers['content-encoding']).toBe('gzip');
+		expect(gunzipSync(gz.body).equals(plain.body)).toBe(true);
+		// One ETag per representation; each revalidates only itself.
+		const tags = new Set([plain.headers.etag, br.headers.etag, gz.headers.etag]);
+		expect(tags.size).toBe(3);
+		expect((await raw('br', br.headers.etag)).status).toBe(304);
+		expect((await raw(null, br.headers.etag)).status).toBe(200);
 	});
 
 	it('keeps no error answers', async () => {

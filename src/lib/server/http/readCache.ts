@@ -3,6 +3,13 @@ import type { Handle, RequestEvent } from '@sveltejs/kit';
 import { LRUCache } from 'lru-cache';
 import { hasSessionCookie } from '../auth/sessionCookie';
 import type { CatalogueValidity } from '../catalogue/revision';
+import {
+	compress,
+	encodedEtag,
+	isCompressible,
+	preferredEncoding,
+	type ContentEncoding
+} from './compression';
 
 /**
  * Answers for signed-out readers, kept in memory for as long as the catalogue they show stays
@@ -43,6 +50,9 @@ interface KeptAnswer {
 	headers: [string, string][];
 	body: Uint8Array;
 	etag: string;
+	compressible: boolean;
+	/** Compressed copies, made the first time a reader asks for each. */
+	encoded: Partial<Record<ContentEncoding, Uint8Array>>;
 }
 
 export interface ReadCacheOptions {
@@ -84,27 +94,53 @@ function keepable(response: Response): boolean {
  * Shared caches between the server and a reader (a proxy) must not hand the signed-out answer
  * to someone signed in, and browsers revalidate with the ETag before reuse.
  */
-function cachingHeaders(headers: Headers, etag: string): void {
+function cachingHeaders(headers: Headers, etag: string, compressible: boolean): void {
 	headers.set('etag', etag);
 	if (!headers.has('cache-control')) headers.set('cache-control', 'public, no-cache');
+	const ours = compressible ? 'Cookie, Authorization, Accept-Encoding' : 'Cookie, Authorization';
 	const vary = headers.get('vary');
-	headers.set('vary', vary ? `${vary}, Cookie, Authorization` : 'Cookie, Authorization');
+	headers.set('vary', vary ? `${vary}, ${ours}` : ours);
 }
 
-function answer(kept: KeptAnswer, request: Request): Response {
+/**
+ * The kept answer in the encoding the reader prefers, or 304 if it already holds that one.
+ * `grown` is told when a compressed copy was added, so the cache can count its bytes.
+ */
+function answer(kept: KeptAnswer, request: Request, grown: () => void): Response {
 	const headers = new Headers(kept.headers);
-	if (etagMatches(request.headers.get('if-none-match'), kept.etag)) {
+	const encoding = kept.compressible
+		? preferredEncoding(request.headers.get('accept-encoding'))
+		: null;
+	const etag = encoding ? encodedEtag(kept.etag, encoding) : kept.etag;
+	headers.set('etag', etag);
+	if (etagMatches(request.headers.get('if-none-match'), etag)) {
 		headers.delete('content-length');
 		return new Response(null, { status: 304, headers });
 	}
-	return new Response(kept.body as Uint8Array<ArrayBuffer>, { status: kept.status, headers });
+	let body = kept.body;
+	if (encoding) {
+		let copy = kept.encoded[encoding];
+		if (!copy) {
+			copy = kept.encoded[encoding] = compress(kept.body, encoding);
+			grown();
+		}
+		body = copy;
+		headers.set('content-encoding', encoding);
+		headers.set('content-length', String(body.byteLength));
+	}
+	return new Response(body as Uint8Array<ArrayBuffer>, { status: kept.status, headers });
 }
 
 export function createReadCache(options: ReadCacheOptions) {
 	const kept = new LRUCache<string, KeptAnswer>({
 		maxSize: options.maxBytes,
 		maxEntrySize: options.maxEntryBytes,
-		sizeCalculation: (entry, key) => entry.body.byteLength + key.length * 2 + 512
+		sizeCalculation: (entry, key) =>
+			entry.body.byteLength +
+			(entry.encoded.br?.byteLength ?? 0) +
+			(entry.encoded.gzip?.byteLength ?? 0) +
+			key.length * 2 +
+			512
 	});
 	let hits = 0;
 	let misses = 0;
@@ -127,14 +163,19 @@ export function createReadCache(options: ReadCacheOptions) {
 		const etag =
 			headers.get('etag') ??
 			`"${createHash('sha256').update(body).digest('base64url').slice(0, 27)}"`;
-		cachingHeaders(headers, etag);
+		const compressible =
+			!headers.has('content-encoding') &&
+			isCompressible(headers.get('content-type'), body.byteLength);
+		cachingHeaders(headers, etag, compressible);
 		return {
 			revision: validity.revision,
 			validUntil: validity.validUntil,
 			status: response.status,
 			headers: [...headers].filter(([name]) => !PER_REQUEST_HEADERS.has(name)),
 			body,
-			etag
+			etag,
+			compressible,
+			encoded: {}
 		};
 	}
 
@@ -144,10 +185,14 @@ export function createReadCache(options: ReadCacheOptions) {
 		// The request's own URL: SvelteKit's event.url is the page's URL even for its
 		// `__data.json` request, which must not share the page's answer.
 		const key = `${validity.revision}\n${event.request.url}\n${event.request.headers.get('accept') ?? ''}`;
+		// A compressed copy added to a kept answer: set it again so the LRU counts its bytes.
+		const recount = (entry: KeptAnswer) => () => {
+			if (kept.peek(key) === entry) kept.set(key, entry);
+		};
 		const found = kept.get(key);
 		if (found && Date.now() < Math.min(found.validUntil, validity.validUntil)) {
 			hits++;
-			return answer(found, event.request);
+			return answer(found, event.request, recount(found));
 		}
 		const inFlight = rendering.get(key);
 		if (inFlight) {
@@ -155,7 +200,7 @@ export function createReadCache(options: ReadCacheOptions) {
 			// Failed or not keepable (an error page, say): each waiting reader renders its own.
 			if (result === null || result instanceof Response) return resolve(event);
 			hits++;
-			return answer(result, event.request);
+			return answer(result, event.request, recount(result));
 		}
 		misses++;
 		const work = render(event, resolve, validity);
@@ -164,7 +209,7 @@ export function createReadCache(options: ReadCacheOptions) {
 			const result = await work;
 			if (result instanceof Response) return result;
 			if (result.body.byteLength <= options.maxEntryBytes) kept.set(key, result);
-			return answer(result, event.request);
+			return answer(result, event.request, recount(result));
 		} finally {
 			rendering.delete(key);
 		}
