@@ -13,6 +13,9 @@ import SQLite from 'better-sqlite3';
 import { freePort, startServer, type RunningServer } from '../tests/support/server';
 
 const LOAD_SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 8);
+const WARM_UP_SECONDS = 2;
+/** What browsers send; API clients (requests, curl --compressed) send gzip. */
+const ACCEPT_ENCODING = 'gzip, deflate, br';
 const MIX_SECONDS = Number(process.env.BENCH_HTTP_MIX_SECONDS ?? 60);
 
 interface Row {
@@ -35,19 +38,41 @@ function rssMb(pid: number): number {
 	}
 }
 
-/** Runs autocannon; `paths` are handed out in turn, one per request, across all connections. */
+/**
+ * Runs autocannon; `paths` are handed out in turn, one per request, across all connections.
+ * A short warm-up at the same load comes first, unrecorded (JIT, first renderings), unless the
+ * row is about first visits.
+ */
 async function hammer(
 	base: string,
 	label: string,
 	paths: string[],
 	connections: number,
-	seconds: number
+	seconds: number,
+	warmUp = true
 ): Promise<Row> {
 	let next = 0;
+	if (warmUp)
+		await autocannon({
+			url: base,
+			connections,
+			duration: WARM_UP_SECONDS,
+			headers: { 'accept-encoding': ACCEPT_ENCODING },
+			requests: [
+				{
+					method: 'GET',
+					setupRequest: (request) => ({
+						...request,
+						path: paths[next++ % paths.length] as string
+					})
+				}
+			]
+		});
 	const result = await autocannon({
 		url: base,
 		connections,
 		duration: seconds,
+		headers: { 'accept-encoding': ACCEPT_ENCODING },
 		requests: [
 			{
 				method: 'GET',
@@ -199,7 +224,8 @@ async function benchCatalogue(
 					`${fresh.length} different permalinks, first visits`,
 					fresh,
 					50,
-					LOAD_SECONDS
+					LOAD_SECONDS,
+					false
 				)
 			);
 		}
@@ -239,7 +265,9 @@ export async function benchHttp(largeCatalogue: string): Promise<void> {
 	const demo = await demoCatalogue();
 	console.log(
 		'Ratios are to the first row, a raw node:http server answering a fixed small JSON body in the\n' +
-			'same run. autocannon runs on the same machine as the server and takes one of its cores.'
+			'same run. autocannon runs on the same machine as the server and takes one of its cores.\n' +
+			`Requests are signed out and send Accept-Encoding: ${ACCEPT_ENCODING}, as browsers do;\n` +
+			`each row is warmed up for ${WARM_UP_SECONDS} s first (not for first visits). KB: bytes on the wire per answer.`
 	);
 	await benchCatalogue(
 		'Demo data',

@@ -7,6 +7,7 @@ import { migrateToLatest } from '$lib/server/db/migrate';
 import { authHandle } from '$lib/server/auth/authjs';
 import { loadSessionUser } from '$lib/server/auth/users';
 import { hasSessionCookie } from '$lib/server/auth/sessionCookie';
+import { oidcSettings } from '$lib/server/auth/oidc';
 import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
 import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
@@ -24,6 +25,9 @@ export const init: ServerInit = async () => {
 		console.log('Loaded the invented demo scenario:', summary);
 	}
 	if (config.HOPLINE_DEMO) await ensureDemoAccounts(db);
+	// Pages name the OpenID Connect issuer in their policy; in demo mode that starts the local
+	// provider, which is better done now than in the middle of the first reader's request.
+	await oidcSettings().catch((e: unknown) => console.error('OpenID Connect is not available:', e));
 	scheduleDigests(db, { hourUtc: config.DIGEST_HOUR_UTC, origin: config.ORIGIN });
 };
 

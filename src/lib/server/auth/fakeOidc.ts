@@ -1,4 +1,5 @@
-import { generateKeyPairSync, randomBytes } from 'node:crypto';
+import { generateKeyPair, randomBytes } from 'node:crypto';
+import { promisify } from 'node:util';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { closeHttpServer } from '../loopback';
@@ -25,7 +26,8 @@ export class FakeOidcProvider {
 		const server = createServer();
 		await new Promise<void>((resolve) => server.listen(port, '127.0.0.1', resolve));
 		this.port = (server.address() as AddressInfo).port;
-		const { privateKey } = generateKeyPairSync('rsa', { modulusLength: 2048 });
+		// Off the event loop: a 2048-bit RSA key takes a second or more, and the server is up.
+		const { privateKey } = await promisify(generateKeyPair)('rsa', { modulusLength: 2048 });
 		const provider = new Provider(this.issuer, {
 			clients: [
 				{
