@@ -6,6 +6,7 @@
 //
 // The heavy requests are valid before and after calculations moved to worker threads: a
 // double-well tunnelling calculation on a 600-point grid with 20 levels (three DVR solutions).
+import { serverArgs } from '../scripts/serverArgs.js';
 import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -37,7 +38,7 @@ export async function benchCalcLatency(build = process.env.BENCH_BUILD ?? 'build
 	const dir = mkdtempSync(join(tmpdir(), 'hopline-bench-calc-'));
 	const port = await freePort();
 	const base = `http://127.0.0.1:${port}`;
-	const app = spawn(process.execPath, [entry], {
+	const app = spawn(process.execPath, serverArgs(entry), {
 		env: {
 			...process.env,
 			PORT: String(port),

@@ -20,6 +20,7 @@ import { openDatabase } from '../src/lib/server/db/connect';
 import type { PotentialFilter } from '../src/lib/schemas/catalogueQuery';
 import { encodeCursor } from '../src/lib/schemas/pagination';
 import { ensureDataset } from './dataset';
+import { serverArgs } from '../scripts/serverArgs.js';
 import { benchScience } from './science';
 import { benchUpload } from './upload';
 import { benchCalcLatency } from './calc';
@@ -146,7 +147,7 @@ async function benchApi() {
 	const appPort = 3101;
 	const rawPort = 3102;
 	const env = { ...process.env, DATABASE_PATH: DATASET, HOPLINE_DEMO: 'false' };
-	const app = spawn(process.execPath, ['build'], {
+	const app = spawn(process.execPath, serverArgs(), {
 		env: {
 			...env,
 			PORT: String(appPort),

@@ -2,6 +2,7 @@
 // invented demo scenario (migrated and seeded at start-up when empty), and prints the URL.
 import { spawn, spawnSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
+import { serverArgs } from './serverArgs.js';
 
 const port = process.env.PORT ?? '3000';
 const host = process.env.HOST ?? '127.0.0.1';
@@ -10,7 +11,7 @@ const origin = process.env.ORIGIN ?? `http://${host === '0.0.0.0' ? '127.0.0.1' 
 const build = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], { stdio: 'inherit' });
 if (build.status !== 0) process.exit(build.status ?? 1);
 
-const server = spawn(process.execPath, ['build'], {
+const server = spawn(process.execPath, serverArgs(), {
 	stdio: ['ignore', 'inherit', 'inherit'],
 	env: {
 		...process.env,

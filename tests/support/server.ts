@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
+import { serverArgs } from '../../scripts/serverArgs.js';
 
 /** Starting the production build (adapter-node) as a child process, for HTTP and browser tests. */
 
@@ -35,7 +36,7 @@ export async function startServer(
 	const baseUrl = `http://127.0.0.1:${port}`;
 	// An https ORIGIN stands for a TLS-terminating proxy in front; the test still speaks http.
 	const origin = `${options.scheme ?? 'http'}://127.0.0.1:${port}`;
-	const server = spawn(process.execPath, ['build'], {
+	const server = spawn(process.execPath, serverArgs(), {
 		env: {
 			...process.env,
 			PORT: String(port),
