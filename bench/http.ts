@@ -239,10 +239,18 @@ async function benchCatalogue(
 				200,
 				MIX_SECONDS
 			);
+			// The yardstick under the same crowd: raw node:http + SQLite over its list pages.
+			const rawMix = await hammer(
+				raw.base,
+				'raw node:http + SQLite, 20 list pages',
+				Array.from({ length: 20 }, (_, k) => `/?limit=25&offset=${k * 25}`),
+				200,
+				MIX_SECONDS
+			);
 			console.log(
 				`\n${name}: 200 connections for ${MIX_SECONDS} s over the mix (permalinks, searches, API)`
 			);
-			table([mix], rawRow);
+			table([rawMix, mix], rawRow);
 		}
 		console.log(`\n  server RSS after the runs: ${rssMb(pid).toFixed(0)} MB`);
 	} finally {
