@@ -52,11 +52,11 @@ async function hammer(
 	warmUp = true
 ): Promise<Row> {
 	let next = 0;
-	if (warmUp)
-		await autocannon({
+	const load = (duration: number) =>
+		autocannon({
 			url: base,
 			connections,
-			duration: WARM_UP_SECONDS,
+			duration,
 			headers: { 'accept-encoding': ACCEPT_ENCODING },
 			requests: [
 				{
@@ -68,21 +68,8 @@ async function hammer(
 				}
 			]
 		});
-	const result = await autocannon({
-		url: base,
-		connections,
-		duration: seconds,
-		headers: { 'accept-encoding': ACCEPT_ENCODING },
-		requests: [
-			{
-				method: 'GET',
-				setupRequest: (request) => ({
-					...request,
-					path: paths[next++ % paths.length] as string
-				})
-			}
-		]
-	});
+	if (warmUp) await load(WARM_UP_SECONDS);
+	const result = await load(seconds);
 	const answers = result.requests.total || 1;
 	return {
 		label,
