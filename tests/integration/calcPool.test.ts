@@ -158,9 +158,9 @@ describe('protein-page chain estimates (the service’s own pool)', () => {
 
 	it('equals the estimate made in this thread, and is reused for the same chain', async () => {
 		const first = await chainEstimateFor(input);
-		expect(first).toEqual({ estimate: estimateChain(input), note: null });
+		expect(first).toEqual({ estimate: estimateChain(input), note: null, transient: false });
 		const again = await chainEstimateFor(structuredClone(input));
 		expect(again.estimate).toBe(first.estimate); // the kept result, not a new computation
-		expect(await chainEstimateFor(null)).toEqual({ estimate: null, note: null });
+		expect(await chainEstimateFor(null)).toEqual({ estimate: null, note: null, transient: false });
 	});
 });
