@@ -4,13 +4,13 @@
 // bench catalogue. Each row: 50 connections for LOAD_SECONDS; then 200 connections for
 // MIX_SECONDS over a mix of permalinks, protein pages, searches and API lists. Figures are
 // printed, never asserted; the machine's load generator shares the machine's cores.
-import { spawn } from 'node:child_process';
-import { copyFileSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { copyFileSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import autocannon from 'autocannon';
 import SQLite from 'better-sqlite3';
-import { freePort, startServer, type RunningServer } from '../tests/support/server';
+import { startServer, type RunningServer } from '../tests/support/server';
+import { rssMb, startRawServer, type RawServer } from './processes';
 
 const LOAD_SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 8);
 const WARM_UP_SECONDS = 2;
@@ -27,15 +27,6 @@ interface Row {
 	errors: number;
 	non2xx: number;
 	kbPerAnswer: number;
-}
-
-function rssMb(pid: number): number {
-	try {
-		const status = readFileSync(`/proc/${pid}/status`, 'utf8');
-		return Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024;
-	} catch {
-		return 0;
-	}
 }
 
 /**
@@ -81,25 +72,6 @@ async function hammer(
 		non2xx: result.non2xx,
 		kbPerAnswer: result.throughput.total / answers / 1024
 	};
-}
-
-async function startRaw(databasePath: string): Promise<{ base: string; stop: () => void }> {
-	const port = await freePort();
-	const raw = spawn(process.execPath, ['bench/raw-server.js'], {
-		env: { ...process.env, DATABASE_PATH: databasePath, PORT: String(port) },
-		stdio: 'ignore'
-	});
-	const base = `http://127.0.0.1:${port}`;
-	for (let i = 0; ; i++) {
-		try {
-			if ((await fetch(`${base}/?limit=1`)).ok) break;
-		} catch {
-			// not listening yet
-		}
-		if (i > 200) throw new Error('the raw server did not start');
-		await new Promise((r) => setTimeout(r, 100));
-	}
-	return { base, stop: () => raw.kill() };
 }
 
 /** The URLs of a catalogue: a potential, an older version, the protein with most centres … */
@@ -178,10 +150,10 @@ async function benchCatalogue(
 	source.close();
 	copyFileSync(databasePath, copy);
 	let app: RunningServer | null = null;
-	let raw: { base: string; stop: () => void } | null = null;
+	let raw: RawServer | null = null;
 	try {
 		app = await startServer(copy, env);
-		raw = await startRaw(copy);
+		raw = await startRawServer(copy);
 		const paths = pickPaths(copy);
 		const pid = app.process.pid as number;
 		const rawRow = await hammer(

@@ -2,20 +2,16 @@
 // entry pages and API paths (median and worst of repeated requests, one at a time) and the
 // server's resident memory afterwards. Figures only; the bounds are asserted (without timing)
 // in tests/e2e/largeCentre.test.ts.
-import { mkdirSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, rmSync } from 'node:fs';
 import { openDatabase } from '../src/lib/server/db/connect';
 import { migrateToLatest } from '../src/lib/server/db/migrate';
 import { buildLargeCentre } from '../tests/support/largeCentre';
 import { startServer } from '../tests/support/server';
+import { rssMb } from './processes';
 
 const COUNT = 5000;
 const ROUNDS = 10;
 const PATH = 'bench/.data/large-centre.sqlite';
-
-function rssMb(pid: number): number {
-	const status = readFileSync(`/proc/${pid}/status`, 'utf8');
-	return Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024;
-}
 
 export async function benchLargeCentre(): Promise<void> {
 	mkdirSync('bench/.data', { recursive: true });

@@ -12,7 +12,7 @@
 // `npm run bench -- approval upload` runs only the steps named (science, search, api, http, upload,
 // approval, calc, largeCentre). Figures go to bench/RESULTS.md (bench/results.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { listPotentials } from '../src/lib/server/catalogue/potentials';
 import { centreSearch } from '../src/lib/server/search/centreSearch';
 import { potentialIndex } from '../src/lib/server/search/potentialIndex';
@@ -28,6 +28,7 @@ import { benchLargeCentre } from './largeCentre';
 import { recordOutput, writeResults } from './results';
 import { benchApproval } from './approval';
 import { benchHttp } from './http';
+import { rssMb, startRawServer, type RawServer } from './processes';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -136,16 +137,9 @@ async function load(
 	};
 }
 
-function rssMb(pid: number): number {
-	const status = readFileSync(`/proc/${pid}/status`, 'utf8');
-	const kb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0);
-	return kb / 1024;
-}
-
 async function benchApi() {
 	if (!existsSync('build/index.js')) throw new Error('Run `npm run build` before `npm run bench`.');
 	const appPort = 3101;
-	const rawPort = 3102;
 	const env = { ...process.env, DATABASE_PATH: DATASET, HOPLINE_DEMO: 'false' };
 	const app = spawn(process.execPath, serverArgs(), {
 		env: {
@@ -156,21 +150,17 @@ async function benchApi() {
 		},
 		stdio: 'ignore'
 	});
-	const raw = spawn(process.execPath, ['bench/raw-server.js'], {
-		env: { ...env, PORT: String(rawPort) },
-		stdio: 'ignore'
-	});
+	let raw: RawServer | null = null;
 	try {
 		await waitFor(`http://127.0.0.1:${appPort}/api/v1`, app);
-		await waitFor(`http://127.0.0.1:${rawPort}/?limit=1`, raw);
+		raw = await startRawServer(DATASET);
+		const rawBase = raw.base;
 		const before = rssMb(app.pid as number);
 		await fetch(`http://127.0.0.1:${appPort}/api/v1/potentials?q=ferredoxin&limit=100`);
 		const afterIndex = rssMb(app.pid as number);
 
 		const pages = 200; // the first 200 pages of 100 rows, visited in the same order by both
-		const rawResult = await load(
-			(i) => `http://127.0.0.1:${rawPort}/?limit=100&offset=${(i % pages) * 100}`
-		);
+		const rawResult = await load((i) => `${rawBase}/?limit=100&offset=${(i % pages) * 100}`);
 		const appResult = await load((i) => {
 			const offset = (i % pages) * 100;
 			return `http://127.0.0.1:${appPort}/api/v1/potentials?limit=100${offset ? `&cursor=${encodeCursor(offset)}` : ''}`;
@@ -191,7 +181,7 @@ async function benchApi() {
 		);
 	} finally {
 		app.kill();
-		raw.kill();
+		raw?.stop();
 	}
 }
 
