@@ -16,6 +16,7 @@ import { secureCookiesOnlyOverHttps } from '$lib/server/secureCookies';
 import { httpHardening } from '$lib/server/http';
 import { createReadCache } from '$lib/server/http/readCache';
 import { catalogueValidityReader } from '$lib/server/catalogue/revision';
+import { createLoopTurns } from '$lib/server/http/loopTurns';
 
 export const init: ServerInit = async () => {
 	if (building) return;
@@ -29,6 +30,14 @@ export const init: ServerInit = async () => {
 	// provider, which is better done now than in the middle of the first reader's request.
 	await oidcSettings().catch((e: unknown) => console.error('OpenID Connect is not available:', e));
 	scheduleDigests(db, { hourUtc: config.DIGEST_HOUR_UTC, origin: config.ORIGIN });
+};
+
+const loopTurns =
+	config.LOOP_TURN_BUDGET_MS > 0 ? createLoopTurns(config.LOOP_TURN_BUDGET_MS) : null;
+const shareLoopTurns: Handle = async ({ event, resolve }) => {
+	const wait = loopTurns?.admit();
+	if (wait) await wait;
+	return resolve(event);
 };
 
 const readCache =
@@ -65,6 +74,7 @@ const attachUser: Handle = async ({ event, resolve }) => {
 };
 
 export const handle: Handle = sequence(
+	shareLoopTurns,
 	attachRequestFacts,
 	httpHardening,
 	limitRequestSize,

@@ -132,7 +132,12 @@ const configSchema = z.object({
 	 * process; 0 turns the cache off. Answers larger than READ_CACHE_ENTRY_MAX_KB are not kept.
 	 */
 	READ_CACHE_MAX_MB: z.coerce.number().int().min(0).max(4096).default(32),
-	READ_CACHE_ENTRY_MAX_KB: z.coerce.number().int().min(1).max(65_536).default(1024)
+	READ_CACHE_ENTRY_MAX_KB: z.coerce.number().int().min(1).max(65_536).default(1024),
+	/**
+	 * Milliseconds of request work per turn of the event loop before further requests wait for
+	 * the next turn (http/loopTurns.ts), so that new connections are accepted under load; 0 off.
+	 */
+	LOOP_TURN_BUDGET_MS: z.coerce.number().min(0).max(1000).default(4)
 });
 
 export type Config = z.infer<typeof configSchema>;
