@@ -6,14 +6,14 @@ import {
 	CONFLICT_RULES,
 	type ListedPotential
 } from '$lib/catalogue/conflicts';
-import { ENTRY_FORM_FIELDS, entryFormValues, readEntryForm } from '$lib/catalogue/entryForm';
+import { entryFormValues, readEntryForm } from '$lib/catalogue/entryForm';
 import { checkTypicalRange, typicalRange } from '$lib/catalogue/typicalRanges';
 import {
 	parseEntryInput,
 	reviewDecisionSchema,
 	visibilityRequestSchema
 } from '$lib/schemas/submission';
-import { ENTRY_INPUT_SCHEMAS } from '$lib/schemas/submission';
+import { KINDS, type KindModule } from '$lib/kinds';
 import { ENTRY_KINDS } from '$lib/schemas/vocabulary';
 import { match as matchId } from '../../src/params/id';
 import { match as matchKind } from '../../src/params/kind';
@@ -132,11 +132,13 @@ describe('conflicting potentials', () => {
 describe('entry forms', () => {
 	it('lists, for each kind, only fields its schema knows', () => {
 		for (const kind of ENTRY_KINDS) {
+			const module: KindModule = KINDS[kind];
+			const input = module.input?.schema ?? module.schema;
 			const shape = Object.keys(
-				(ENTRY_INPUT_SCHEMAS[kind] as unknown as { shape?: object }).shape ??
-					(ENTRY_INPUT_SCHEMAS[kind] as unknown as { def: { in: { shape: object } } }).def.in.shape
+				(input as unknown as { shape?: object }).shape ??
+					(input as unknown as { def: { in: { shape: object } } }).def.in.shape
 			);
-			for (const f of ENTRY_FORM_FIELDS[kind]) expect(shape).toContain(f.name);
+			for (const f of module.formFields) expect(shape).toContain(f.name);
 		}
 	});
 	it('reads the minus sign, °C, lists and coordinates', () => {

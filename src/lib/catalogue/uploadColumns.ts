@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import { ENTRY_FORM_FIELDS, type FormField } from './entryForm';
+import { KINDS, type FormField } from '$lib/kinds';
 
 /**
  * The columns of each CSV upload, built from the entry forms' fields (and so from the zod
@@ -112,7 +112,7 @@ const KIND_EXAMPLES: Partial<Record<UploadKind, Record<string, string>>> = {
 };
 
 function fromForm(kind: UploadKind): UploadColumn[] {
-	return ENTRY_FORM_FIELDS[kind].map((f) => ({
+	return KINDS[kind].formFields.map((f) => ({
 		...f,
 		aliases: ALIASES[f.name] ?? [],
 		example: KIND_EXAMPLES[kind]?.[f.name] ?? EXAMPLES[f.name] ?? ''

@@ -1,20 +1,15 @@
 import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
-import { ENTRY_DATA_SCHEMAS, type EntryData } from './entryData';
-import { normalisePotential, potentialInputSchema, potentialSchema } from './potential';
+import { KINDS, type KindModule } from '$lib/kinds';
+import type { EntryData } from './entryData';
 import type { FieldErrors } from './searchParams';
 import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
 
 /**
  * What a contributor sends: entry data in each kind's input schema (for potentials, the value as
- * reported; the normalised one is computed here), the visibility it asks for, and the curation
- * decisions. Forms and the API share these.
+ * reported; the normalised one is computed by the kind's module), the visibility it asks for,
+ * and the curation decisions. Forms and the API share these.
  */
-export const ENTRY_INPUT_SCHEMAS = {
-	...ENTRY_DATA_SCHEMAS,
-	potential: potentialInputSchema
-} satisfies Record<EntryKind, z.ZodType>;
-
 export type InputResult = { ok: true; entry: EntryData } | { ok: false; fields: FieldErrors };
 
 /** Missing fields read "required" rather than zod's type message. */
@@ -25,7 +20,10 @@ const requiredMessage = (issue: { code: string; input?: unknown }) =>
 
 /** Validates a contributor's input for a kind and turns it into the data a version stores. */
 export function parseEntryInput(kind: EntryKind, input: unknown): InputResult {
-	const parsed = ENTRY_INPUT_SCHEMAS[kind].safeParse(input, { error: requiredMessage });
+	const module: KindModule = KINDS[kind];
+	const parsed = (module.input?.schema ?? module.schema).safeParse(input, {
+		error: requiredMessage
+	});
 	if (!parsed.success) {
 		const fields: FieldErrors = {};
 		for (const issue of parsed.error.issues) {
@@ -33,24 +31,12 @@ export function parseEntryInput(kind: EntryKind, input: unknown): InputResult {
 		}
 		return { ok: false, fields };
 	}
-	if (kind !== 'potential') {
-		// The input schema of every other kind is its stored schema: the data is already checked.
-		return { ok: true, entry: { kind, data: parsed.data } as EntryData };
-	}
-	const data = normalisePotential(parsed.data as z.infer<typeof potentialInputSchema>);
-	const emField = potentialSchema.shape.emMvShe;
-	const em = emField.safeParse(data.emMvShe);
-	if (!em.success) {
-		return {
-			ok: false,
-			fields: {
-				reportedValue: [
-					`converts to ${data.emMvShe} mV vs SHE, outside ${emField.minValue} to ${emField.maxValue} mV; check the unit`
-				]
-			}
-		};
-	}
-	return { ok: true, entry: { kind: 'potential', data } };
+	const converted = module.input
+		? module.input.toData(parsed.data)
+		: { ok: true as const, data: parsed.data };
+	if (!converted.ok) return converted;
+	// The data comes from the kind's own schema or conversion (see parseEntryData).
+	return { ok: true, entry: { kind, data: converted.data } as EntryData };
 }
 
 /** A date such as 2027-06-30; embargoes end at the start of that day, UTC. */

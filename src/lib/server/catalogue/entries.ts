@@ -3,6 +3,7 @@ import { formatAccession } from '$lib/schemas/accession';
 import { parseEntryData } from '$lib/schemas/entryData';
 import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
+import { serverKind } from '../kinds';
 import { InvalidEntryDataError, VersionStateError } from './errors';
 import { refreshPotentialRows } from './potentialRows';
 import { bumpCatalogueRevision } from './revision';
@@ -212,14 +213,7 @@ export async function setEntryVisibility(
 		})
 		.where('id', '=', entryId)
 		.execute();
-	const column =
-		before.kind === 'potential'
-			? 'entry_id'
-			: before.kind === 'centre'
-				? 'centre_entry_id'
-				: before.kind === 'protein'
-					? 'protein_entry_id'
-					: null;
+	const column = serverKind(before.kind).potentialRowsColumn;
 	if (column) await refreshPotentialRows(trx, { column, entryId });
 	await bumpCatalogueRevision(trx);
 	await writeAudit(trx, {

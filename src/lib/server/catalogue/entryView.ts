@@ -1,8 +1,8 @@
 import type { Kysely } from 'kysely';
 import type { EntryView } from '$lib/catalogue/dto';
 import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
-import { COFACTOR_KIND_LABELS, type CofactorKind, type EntryKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
+import { serverKind } from '../kinds';
 import { EntryNotFoundError } from './errors';
 import type { Viewer } from './visibility';
 import { findVisibleEntry } from './visibleEntry';
@@ -42,70 +42,6 @@ async function approvedVersion(db: Kysely<Database>, entryId: number, version: n
 		.executeTakeFirst();
 }
 
-/** A short human title for an entry of any kind, from the latest projection. */
-async function titleOf(db: Kysely<Database>, entryId: number, kind: EntryKind): Promise<string> {
-	switch (kind) {
-		case 'protein': {
-			const p = await db
-				.selectFrom('protein')
-				.select('name')
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			return p?.name ?? 'Protein';
-		}
-		case 'centre': {
-			const c = await db
-				.selectFrom('centre')
-				.innerJoin('protein', 'protein.entry_id', 'centre.protein_entry_id')
-				.select(['centre.label', 'centre.cofactor_kind', 'protein.name'])
-				.where('centre.entry_id', '=', entryId)
-				.executeTakeFirst();
-			if (!c) return 'Centre';
-			const kindLabel = COFACTOR_KIND_LABELS[c.cofactor_kind as CofactorKind] ?? c.cofactor_kind;
-			return `${c.label} (${kindLabel}) · ${c.name}`;
-		}
-		case 'source': {
-			const s = await db
-				.selectFrom('source')
-				.select(['authors', 'year', 'title'])
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			if (!s) return 'Source';
-			const authors = JSON.parse(s.authors) as string[];
-			const first = (authors[0] ?? '').split(',')[0];
-			return `${first}${authors.length > 1 ? ' et al.' : ''}${s.year ? ` (${s.year})` : ''}: ${s.title}`;
-		}
-		case 'potential': {
-			const p = await db
-				.selectFrom('potential')
-				.innerJoin('centre', 'centre.entry_id', 'potential.centre_entry_id')
-				.select(['potential.couple', 'centre.label'])
-				.where('potential.entry_id', '=', entryId)
-				.executeTakeFirst();
-			return p ? `Em of ${p.couple}, centre ${p.label}` : 'Potential';
-		}
-		case 'spin_record': {
-			const r = await db
-				.selectFrom('spin_record')
-				.innerJoin('centre', 'centre.entry_id', 'spin_record.centre_entry_id')
-				.select(['spin_record.oxidation_level', 'centre.label'])
-				.where('spin_record.entry_id', '=', entryId)
-				.executeTakeFirst();
-			return r ? `Spin state of ${r.oxidation_level}, centre ${r.label}` : 'Spin record';
-		}
-		case 'distance': {
-			const d = await db
-				.selectFrom('distance')
-				.innerJoin('centre as a', 'a.entry_id', 'distance.centre_a_entry_id')
-				.innerJoin('centre as b', 'b.entry_id', 'distance.centre_b_entry_id')
-				.select(['a.label as a', 'b.label as b'])
-				.where('distance.entry_id', '=', entryId)
-				.executeTakeFirst();
-			return d ? `Distance ${d.a} – ${d.b}` : 'Distance';
-		}
-	}
-}
-
 /**
  * The entry at `version` (latest approved when omitted), with its version history and the
  * entries its data refers to.
@@ -138,7 +74,7 @@ export async function getEntryView(
 		references[field] = {
 			accession: value,
 			kind: ref.kind,
-			title: await titleOf(db, ref.id, ref.kind)
+			title: await serverKind(ref.kind).title(db, ref.id)
 		};
 	}
 
@@ -158,7 +94,7 @@ export async function getEntryView(
 			changeNote: v.change_note
 		})),
 		references,
-		title: await titleOf(db, entry.id, entry.kind)
+		title: await serverKind(entry.kind).title(db, entry.id)
 	};
 }
 

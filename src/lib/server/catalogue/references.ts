@@ -1,7 +1,9 @@
 import type { Kysely } from 'kysely';
-import { COUPLES_BY_KIND, type CofactorKind, type EntryKind } from '$lib/schemas/vocabulary';
+import { KINDS } from '$lib/kinds';
+import type { EntryKind } from '$lib/schemas/vocabulary';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
+import { serverKind } from '../kinds';
 import { InvalidEntryDataError } from './errors';
 import type { Viewer } from './visibility';
 import { findVisibleEntry, notVisibleMessage } from './visibleEntry';
@@ -57,45 +59,6 @@ export async function resolveReference(
 	return row.id;
 }
 
-export async function resolveOptionalReference(
-	db: Kysely<Database>,
-	field: string,
-	accession: string | null,
-	expected: EntryKind
-): Promise<number | null> {
-	return accession === null ? null : resolveReference(db, field, accession, expected);
-}
-
-/** A potential's couple must be one its centre's cofactor kind can have ('other' takes any). */
-export async function assertCoupleFitsCentre(
-	db: Kysely<Database>,
-	centreEntryId: number,
-	couple: string
-): Promise<void> {
-	const centre = await db
-		.selectFrom('centre')
-		.select('cofactor_kind')
-		.where('entry_id', '=', centreEntryId)
-		.executeTakeFirstOrThrow();
-	const allowed = COUPLES_BY_KIND[centre.cofactor_kind as CofactorKind] ?? [];
-	if (allowed.length > 0 && !allowed.includes(couple)) {
-		throw new InvalidEntryDataError(
-			'couple',
-			`"${couple}" is not a couple of a ${centre.cofactor_kind} centre; expected one of ${allowed.join(', ')}`
-		);
-	}
-}
-
-/** The references each kind of entry makes: field → the kind it must name. */
-const REFERENCE_FIELDS: Record<EntryKind, Record<string, EntryKind>> = {
-	protein: {},
-	source: {},
-	centre: { proteinAccession: 'protein' },
-	potential: { centreAccession: 'centre', sourceAccession: 'source' },
-	spin_record: { centreAccession: 'centre', sourceAccession: 'source' },
-	distance: { centreAAccession: 'centre', centreBAccession: 'centre', sourceAccession: 'source' }
-};
-
 /**
  * Every reference of a version's data that would not resolve on approval (the same rules the
  * projection applies), as field errors; empty when all resolve.
@@ -108,7 +71,7 @@ export async function checkEntryReferences(
 	const errors: Record<string, string[]> = {};
 	const data = entry.data as unknown as Record<string, unknown>;
 	const ids: Record<string, number> = {};
-	for (const [field, expected] of Object.entries(REFERENCE_FIELDS[entry.kind])) {
+	for (const [field, expected] of Object.entries(KINDS[entry.kind].references)) {
 		const accession = data[field];
 		if (typeof accession !== 'string') continue;
 		try {
@@ -118,13 +81,11 @@ export async function checkEntryReferences(
 			errors[field] = [e.detail];
 		}
 	}
-	if (entry.kind === 'potential' && ids.centreAccession !== undefined) {
-		try {
-			await assertCoupleFitsCentre(db, ids.centreAccession, entry.data.couple);
-		} catch (e) {
-			if (!(e instanceof InvalidEntryDataError)) throw e;
-			errors.couple = [e.detail];
-		}
+	try {
+		await serverKind(entry.kind).checkReferences?.(db, entry.data, ids);
+	} catch (e) {
+		if (!(e instanceof InvalidEntryDataError)) throw e;
+		errors[e.field] = [e.detail];
 	}
 	return errors;
 }

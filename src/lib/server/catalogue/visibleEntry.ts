@@ -1,6 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
+import { serverKind } from '../kinds';
 import { entryRowIsVisible, type Viewer } from './visibility';
 
 /**
@@ -12,50 +13,28 @@ import { entryRowIsVisible, type Viewer } from './visibility';
  * nor kind of a hidden or pending entry can be learnt from a message.
  */
 
-/** Entries an entry of this kind depends on: seeing it requires seeing them. */
+/**
+ * Every entry an entry of this kind depends on, however far (a potential: its centre and that
+ * centre's protein): seeing it requires seeing them.
+ */
 async function dependencies(
 	db: Kysely<Database>,
 	entryId: number,
 	kind: EntryKind
 ): Promise<number[]> {
-	const centresOf = async (ids: number[]) => {
-		const rows = await db
-			.selectFrom('centre')
-			.select('protein_entry_id')
-			.where('entry_id', 'in', ids.length ? ids : [-1])
-			.execute();
-		return [...ids, ...rows.map((r) => r.protein_entry_id)];
-	};
-	switch (kind) {
-		case 'centre':
-			return (await centresOf([entryId])).slice(1);
-		case 'potential': {
-			const p = await db
-				.selectFrom('potential')
-				.select('centre_entry_id')
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			return p ? centresOf([p.centre_entry_id]) : [];
+	const found: number[] = [];
+	let frontier = await serverKind(kind).dependsOn(db, entryId);
+	// Kinds depend on kinds nearer the protein, so this ends within a few steps.
+	while (frontier.length > 0) {
+		const next = [];
+		for (const dependency of frontier) {
+			if (found.includes(dependency.id)) continue;
+			found.push(dependency.id);
+			next.push(...(await serverKind(dependency.kind).dependsOn(db, dependency.id)));
 		}
-		case 'spin_record': {
-			const r = await db
-				.selectFrom('spin_record')
-				.select('centre_entry_id')
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			return r ? centresOf([r.centre_entry_id]) : [];
-		}
-		case 'distance': {
-			const d = await db
-				.selectFrom('distance')
-				.select(['centre_a_entry_id', 'centre_b_entry_id'])
-				.where('entry_id', '=', entryId)
-				.executeTakeFirst();
-			return d ? centresOf([d.centre_a_entry_id, d.centre_b_entry_id]) : [];
-		}
-		default:
-			return [];
+		frontier = next;
 	}
+	return found;
 }
 
 /** Whether the entry's approved read-model row exists (it does once a version is approved). */

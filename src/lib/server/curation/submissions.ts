@@ -1,5 +1,6 @@
 import type { Kysely } from 'kysely';
 import { parseEntryData, type EntryData } from '$lib/schemas/entryData';
+import { KINDS, type KindModule } from '$lib/kinds';
 import { ENTRY_KIND_LABELS } from '$lib/schemas/vocabulary';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
@@ -54,24 +55,8 @@ export async function assertGroupAllowed(
 
 /** A title a curator can scan in the queue. */
 export function submissionTitle(entry: EntryData, editing: string | null): string {
-	const what = (() => {
-		switch (entry.kind) {
-			case 'protein':
-				return `${entry.data.name} (${entry.data.organism})`;
-			case 'centre':
-				return `${entry.data.label} of ${entry.data.proteinAccession}`;
-			case 'potential':
-				return `${entry.data.couple} of ${entry.data.centreAccession}`;
-			case 'spin_record':
-				return `${entry.data.oxidationLevel} of ${entry.data.centreAccession}`;
-			case 'distance':
-				return `${entry.data.centreAAccession} – ${entry.data.centreBAccession}`;
-			case 'source':
-				return entry.data.title.length > 80
-					? `${entry.data.title.slice(0, 77)}…`
-					: entry.data.title;
-		}
-	})();
+	// The module is the entry's own kind's (see parseEntryData for why TypeScript needs telling).
+	const what = (KINDS[entry.kind] as KindModule).submissionTitle(entry.data);
 	const label = ENTRY_KIND_LABELS[entry.kind];
 	return editing
 		? `${label} ${editing}, new version: ${what}`

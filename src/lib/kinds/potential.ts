@@ -1,0 +1,63 @@
+import { REFERENCE_ELECTRODES, REFERENCE_ELECTRODE_LABELS } from '$lib/science/referenceElectrodes';
+import { POTENTIAL_UNITS } from '$lib/science/units';
+import { normalisePotential, potentialInputSchema, potentialSchema } from '$lib/schemas/potential';
+import {
+	COUPLES_BY_KIND,
+	POTENTIAL_METHODS,
+	POTENTIAL_METHOD_LABELS
+} from '$lib/schemas/vocabulary';
+import { defineKind } from './kind';
+import { ACCESSION_HINT, TEMPERATURE_HINT, field, options } from './formFields';
+
+const EM_FIELD = potentialSchema.shape.emMvShe;
+
+const ALL_COUPLES = [...new Set(Object.values(COUPLES_BY_KIND).flat())];
+
+export const potential = defineKind({
+	schema: potentialSchema,
+	// Sent as reported (value, unit, reference electrode); stored with the value vs SHE as well.
+	input: {
+		schema: potentialInputSchema,
+		toData(input) {
+			const data = normalisePotential(input);
+			if (EM_FIELD.safeParse(data.emMvShe).success) return { ok: true, data };
+			// The contributor typed the reported value: the error belongs there, with the likely cause.
+			return {
+				ok: false,
+				fields: {
+					reportedValue: [
+						`converts to ${data.emMvShe} mV vs SHE, outside ${EM_FIELD.minValue} to ${EM_FIELD.maxValue} mV; check the unit`
+					]
+				}
+			};
+		}
+	},
+	formFields: [
+		field('centreAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+		field('couple', 'text', {
+			required: true,
+			suggestions: ALL_COUPLES,
+			hint: 'oxidised/reduced level, e.g. [4Fe-4S]2+/1+'
+		}),
+		field('reportedValue', 'number', { required: true, hint: 'as reported, before conversion' }),
+		field('reportedUnit', 'select', { required: true, options: options(POTENTIAL_UNITS) }),
+		field('referenceElectrode', 'select', {
+			required: true,
+			options: options(REFERENCE_ELECTRODES, REFERENCE_ELECTRODE_LABELS)
+		}),
+		field('ph', 'number'),
+		field('temperatureK', 'temperature', { unit: 'K', hint: TEMPERATURE_HINT }),
+		field('ionicStrengthM', 'number', { unit: 'M' }),
+		field('buffer', 'text'),
+		field('method', 'select', {
+			required: true,
+			options: options(POTENTIAL_METHODS, POTENTIAL_METHOD_LABELS)
+		}),
+		field('nElectrons', 'number', { hint: '1 unless the couple is a two-electron one' }),
+		field('uncertaintyMv', 'number', { unit: 'mV', hint: 'one standard uncertainty' }),
+		field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
+		field('note', 'textarea')
+	],
+	references: { centreAccession: 'centre', sourceAccession: 'source' },
+	submissionTitle: (d) => `${d.couple} of ${d.centreAccession}`
+});

@@ -1,0 +1,73 @@
+import type { Insertable, Kysely } from 'kysely';
+import type { EntryDataByKind } from '$lib/kinds';
+import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { Database } from '../db/schema';
+
+// What the server knows about one kind of entry, beside what it shares with the browser
+// (src/lib/kinds): how an approved version becomes its read-model row, what a reader must be
+// allowed to see to see it, and how it is titled.
+
+/** One approved version, with the entries its data names already resolved to ids. */
+export interface ApprovedVersion<K extends EntryKind> {
+	entryId: number;
+	version: number;
+	/** The catalogue revision this approval moved to (search indexes compare it). */
+	revision: number;
+	data: EntryDataByKind[K];
+	/** Entry id of each reference field of the kind (src/lib/kinds); null where left blank. */
+	refs: Record<string, number | null>;
+}
+
+/** An entry another one depends on. */
+export interface Dependency {
+	id: number;
+	kind: EntryKind;
+}
+
+/** Which rows of the potential read model copy columns from an entry of this kind. */
+export type PotentialRowsColumn = 'entry_id' | 'centre_entry_id' | 'protein_entry_id';
+
+export interface ServerKindModule<K extends EntryKind> {
+	/**
+	 * Writes (inserts or replaces) the read-model row of a newly approved version, and refreshes
+	 * rows that copy from it. Runs inside the approving transaction; throws
+	 * InvalidEntryDataError when the data does not fit what it names.
+	 */
+	project(trx: Kysely<Database>, approved: ApprovedVersion<K>): Promise<void>;
+	/** The entries a reader must be able to see to see this one, one step away. */
+	dependsOn(db: Kysely<Database>, entryId: number): Promise<Dependency[]>;
+	/** A short human title, from the latest read-model row. */
+	title(db: Kysely<Database>, entryId: number): Promise<string>;
+	/** The potential rows that copy this entry's columns or visibility, if any. */
+	potentialRowsColumn: PotentialRowsColumn | null;
+	/**
+	 * Checks between the data and the entries it names beyond their kinds (a potential's couple
+	 * must fit its centre): throws InvalidEntryDataError. Only the resolved references are given.
+	 */
+	checkReferences?(
+		db: Kysely<Database>,
+		data: EntryDataByKind[K],
+		refs: Record<string, number>
+	): Promise<void>;
+}
+
+/** The read-model tables: one per kind, keyed by entry id. */
+export type ReadModelTable = EntryKind;
+
+/**
+ * Inserts a read-model row, or replaces the one an earlier version wrote. Callers' rows are
+ * checked against the table's columns; Kysely cannot follow a table name that is a type
+ * parameter into `values`, hence the casts inside.
+ */
+export async function upsertReadModel<T extends ReadModelTable>(
+	trx: Kysely<Database>,
+	table: T,
+	entryId: number,
+	row: Omit<Insertable<Database[T]>, 'entry_id'>
+): Promise<void> {
+	await trx
+		.insertInto(table)
+		.values({ entry_id: entryId, ...row } as never)
+		.onConflict((oc) => oc.column('entry_id').doUpdateSet(row as never))
+		.execute();
+}

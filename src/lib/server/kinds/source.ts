@@ -1,0 +1,30 @@
+import { upsertReadModel, type ServerKindModule } from './kind';
+
+export const source: ServerKindModule<'source'> = {
+	async project(trx, { entryId, version, data: d }) {
+		await upsertReadModel(trx, 'source', entryId, {
+			version,
+			source_kind: d.sourceKind,
+			doi: d.doi,
+			pubmed_id: d.pubmedId,
+			title: d.title,
+			authors: JSON.stringify(d.authors),
+			journal: d.journal,
+			year: d.year
+		});
+	},
+	// A source the reader may not see is left out where it is named; it hides nothing else.
+	dependsOn: async () => [],
+	async title(db, entryId) {
+		const s = await db
+			.selectFrom('source')
+			.select(['authors', 'year', 'title'])
+			.where('entry_id', '=', entryId)
+			.executeTakeFirst();
+		if (!s) return 'Source';
+		const authors = JSON.parse(s.authors) as string[];
+		const first = (authors[0] ?? '').split(',')[0];
+		return `${first}${authors.length > 1 ? ' et al.' : ''}${s.year ? ` (${s.year})` : ''}: ${s.title}`;
+	},
+	potentialRowsColumn: null
+};

@@ -1,0 +1,35 @@
+import { upsertReadModel, type ServerKindModule } from './kind';
+
+export const spinRecord: ServerKindModule<'spin_record'> = {
+	async project(trx, { entryId, version, data: d, refs }) {
+		await upsertReadModel(trx, 'spin_record', entryId, {
+			version,
+			centre_entry_id: refs.centreAccession as number,
+			oxidation_level: d.oxidationLevel,
+			spin_s: d.spinS,
+			// Principal values largest first, whatever order they were typed in.
+			g_values: JSON.stringify([...d.gValues].sort((a, b) => b - a)),
+			temperature_k: d.temperatureK,
+			method: d.method,
+			source_entry_id: refs.sourceAccession ?? null
+		});
+	},
+	async dependsOn(db, entryId) {
+		const r = await db
+			.selectFrom('spin_record')
+			.select('centre_entry_id')
+			.where('entry_id', '=', entryId)
+			.executeTakeFirst();
+		return r ? [{ id: r.centre_entry_id, kind: 'centre' }] : [];
+	},
+	async title(db, entryId) {
+		const r = await db
+			.selectFrom('spin_record')
+			.innerJoin('centre', 'centre.entry_id', 'spin_record.centre_entry_id')
+			.select(['spin_record.oxidation_level', 'centre.label'])
+			.where('spin_record.entry_id', '=', entryId)
+			.executeTakeFirst();
+		return r ? `Spin state of ${r.oxidation_level}, centre ${r.label}` : 'Spin record';
+	},
+	potentialRowsColumn: null
+};
