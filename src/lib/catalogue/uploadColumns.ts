@@ -1,33 +1,21 @@
 import Papa from 'papaparse';
 import { KINDS, type FormField } from '$lib/kinds';
+import { matchHeader, type HeaderNames, type UploadKind } from './uploadKinds';
+
+export {
+	UPLOAD_KINDS,
+	UPLOAD_KIND_LABELS,
+	UPLOAD_KIND_NOUNS,
+	type UploadKind
+} from './uploadKinds';
 
 /**
  * The columns of each CSV upload, built from the entry forms' fields (and so from the zod
  * schemas behind them) plus the columns that name proteins and centres in words instead of
- * accessions. Shared by the templates, the column reference page, the browser preview and the
- * server's reader.
+ * accessions. Used by the templates, the server's reader, and as page data by the column
+ * reference page and the browser preview.
  */
-export const UPLOAD_KINDS = ['potential', 'spin_record', 'distance', 'centre'] as const;
-export type UploadKind = (typeof UPLOAD_KINDS)[number];
-
-export const UPLOAD_KIND_LABELS: Record<UploadKind, string> = {
-	potential: 'Potentials',
-	spin_record: 'Spin records',
-	distance: 'Distances',
-	centre: 'Centres and proteins'
-};
-
-/** What one row of each kind of file is, in the plural, for titles and counts. */
-export const UPLOAD_KIND_NOUNS: Record<UploadKind, string> = {
-	potential: 'potentials',
-	spin_record: 'spin records',
-	distance: 'distances',
-	centre: 'centres'
-};
-
-export interface UploadColumn extends FormField {
-	/** Other header spellings accepted (compared without case, spaces, units or punctuation). */
-	aliases: readonly string[];
+export interface UploadColumn extends FormField, HeaderNames {
 	/** A value for the template's example row (invented). */
 	example: string;
 	/** Required unless its alternative column(s) are given. */
@@ -179,24 +167,14 @@ export const UPLOAD_COLUMNS: Record<UploadKind, readonly UploadColumn[]> = {
 	]
 };
 
-/** A header as people write it, reduced for matching: no case, units, spaces or punctuation. */
-export function headerKey(header: string): string {
-	return header
-		.replace(/[([{].*?[)\]}]/g, '')
-		.replace(/\/\s*(mV|V|K|°C|Å|M)\s*$/i, '')
-		.toLowerCase()
-		.replace(/[^a-z0-9]/g, '');
+/** The column of a kind's file that a header names, or null. */
+export function columnForHeader(kind: UploadKind, header: string): UploadColumn | null {
+	return matchHeader(UPLOAD_COLUMNS[kind], header);
 }
 
-/** The column a header names, or null. */
-export function columnForHeader(kind: UploadKind, header: string): UploadColumn | null {
-	const key = headerKey(header);
-	if (!key) return null;
-	for (const c of UPLOAD_COLUMNS[kind]) {
-		if (headerKey(c.name) === key || headerKey(c.label) === key) return c;
-		if (c.aliases.some((a) => headerKey(a) === key)) return c;
-	}
-	return null;
+/** What the browser needs to recognise headers (the page's data, so no schema ships with it). */
+export function headerNames(kind: UploadKind): HeaderNames[] {
+	return UPLOAD_COLUMNS[kind].map(({ name, label, aliases }) => ({ name, label, aliases }));
 }
 
 /** The template: the header row and one invented example row. */

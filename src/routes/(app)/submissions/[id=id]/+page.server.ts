@@ -1,4 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
+import { KINDS } from '$lib/kinds';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { SubmissionNotFoundError } from '$lib/server/curation/errors';
@@ -24,6 +25,7 @@ export const load: PageServerLoad = async (event) => {
 		view,
 		batch: view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null,
 		groups: await groupsForSharing(db, user),
+		fields: first ? KINDS[first.kind].formFields : [],
 		values: first
 			? valuesOfVersion(first.kind, first.data, first.requestedVisibility, first.changeNote)
 			: {},

@@ -1,5 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { UPLOAD_KINDS } from '$lib/catalogue/uploadColumns';
+import { UPLOAD_KINDS, headerNames } from '$lib/catalogue/uploadColumns';
+import type { HeaderNames, UploadKind } from '$lib/catalogue/uploadKinds';
 import { requireRole } from '$lib/server/auth/guards';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
@@ -18,6 +19,10 @@ export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'contributor');
 	return {
 		kinds: UPLOAD_KINDS,
+		headerNames: Object.fromEntries(UPLOAD_KINDS.map((k) => [k, headerNames(k)])) as Record<
+			UploadKind,
+			HeaderNames[]
+		>,
 		groups: await groupsForSharing(db, user),
 		limits: { bytes: config.UPLOAD_MAX_BYTES, csv: uploadCsvLimits }
 	};

@@ -1,4 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
+import { KINDS } from '$lib/kinds';
 import { isAccession } from '$lib/schemas/accession';
 import { requireRole } from '$lib/server/auth/guards';
 import { config } from '$lib/server/config';
@@ -22,7 +23,13 @@ export const load: PageServerLoad = async (event) => {
 		if (!existing) error(404, { message: `no ${kind.replace('_', ' ')} ${edit} that you can see` });
 		values = existing;
 	}
-	return { kind, edit, values, groups: await groupsForSharing(db, user) };
+	return {
+		kind,
+		fields: KINDS[kind].formFields,
+		edit,
+		values,
+		groups: await groupsForSharing(db, user)
+	};
 };
 
 /** Both actions create the draft; `submit` also sends it to the curators in the same transaction. */
