@@ -1,8 +1,10 @@
 import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary';
 import { refreshPotentialRows } from '../catalogue/potentialRows';
-import { upsertReadModel, type ServerKindModule } from './kind';
+import { centreLabelKey } from '../uploads/lookups';
+import { firstInFile, resolveCentreProtein } from '../uploads/rows';
+import { upsertReadModel, type KindOnServer } from './kind';
 
-export const centre: ServerKindModule<'centre'> = {
+export const centre: KindOnServer<'centre'> = {
 	async project(trx, { entryId, version, revision, data: d, refs }) {
 		await upsertReadModel(trx, 'centre', entryId, {
 			version,
@@ -35,5 +37,24 @@ export const centre: ServerKindModule<'centre'> = {
 		const kindLabel = COFACTOR_KIND_LABELS[c.cofactor_kind as CofactorKind] ?? c.cofactor_kind;
 		return `${c.label} (${kindLabel}) · ${c.name}`;
 	},
-	potentialRowsColumn: 'centre_entry_id'
+	potentialRowsColumn: 'centre_entry_id',
+	upload: {
+		resolve: (r) => resolveCentreProtein(r.state, r.values, r.texts, r.fail),
+		check(r, d, resolved) {
+			const proteinKey = resolved.newProtein?.key ?? String(resolved.proteinEntryId);
+			if (!firstInFile(r, `${proteinKey}|${d.label.toLowerCase()}`, 'label')) return false;
+			if (resolved.proteinEntryId !== null) {
+				const existing = r.state.lookups.centresByProteinLabel.get(
+					centreLabelKey(resolved.proteinEntryId, d.label)
+				);
+				if (existing) r.warn('label', d.label, `already in the registry as ${existing.accession}`);
+			}
+			if (resolved.newProtein) {
+				// The protein is created by the first valid row that names it.
+				const p = r.state.newProteins.get(resolved.newProtein.key);
+				if (p && p.row === 0) p.row = r.row;
+			}
+			return true;
+		}
+	}
 };

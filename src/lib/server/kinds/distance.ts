@@ -1,6 +1,8 @@
-import { upsertReadModel, type ServerKindModule } from './kind';
+import { distanceKey } from '../uploads/lookups';
+import { findCentre, firstInFile } from '../uploads/rows';
+import { upsertReadModel, type KindOnServer } from './kind';
 
-export const distance: ServerKindModule<'distance'> = {
+export const distance: KindOnServer<'distance'> = {
 	async project(trx, { entryId, version, data: d, refs }) {
 		await upsertReadModel(trx, 'distance', entryId, {
 			version,
@@ -36,5 +38,21 @@ export const distance: ServerKindModule<'distance'> = {
 			.executeTakeFirst();
 		return d ? `Distance ${d.a} – ${d.b}` : 'Distance';
 	},
-	potentialRowsColumn: null
+	potentialRowsColumn: null,
+	upload: {
+		resolve(r) {
+			const a = findCentre(r.state, r.values, r.texts, 'centreAAccession', 'centreALabel', r.fail);
+			const b = findCentre(r.state, r.values, r.texts, 'centreBAccession', 'centreBLabel', r.fail);
+			return a && b
+				? { centres: [a, b], newProtein: null, proteinEntryId: a.proteinEntryId }
+				: null;
+		},
+		check(r, d) {
+			const key = distanceKey(d.centreAAccession, d.centreBAccession, d.structureId);
+			if (!firstInFile(r, key, 'edgeToEdgeA')) return false;
+			const existing = r.state.lookups.distanceKeys.get(key);
+			if (existing) r.warn('structureId', d.structureId, `already in the registry as ${existing}`);
+			return true;
+		}
+	}
 };

@@ -1,5 +1,6 @@
 import type { EntryKind } from '$lib/schemas/vocabulary';
-import type { ServerKindModule } from './kind';
+import type { UploadKind } from '$lib/catalogue/uploadKinds';
+import type { KindOnServer, ServerKindModule, UploadRules } from './kind';
 import { centre } from './centre';
 import { distance } from './distance';
 import { potential } from './potential';
@@ -15,7 +16,7 @@ export const SERVER_KINDS = {
 	spin_record: spinRecord,
 	distance,
 	source
-} satisfies { [K in EntryKind]: ServerKindModule<K> };
+} satisfies { [K in EntryKind]: KindOnServer<K> };
 
 /**
  * The server module of a kind, for data of that kind held in a union (EntryData): TypeScript
@@ -26,4 +27,16 @@ export function serverKind(kind: EntryKind): ServerKindModule<EntryKind> {
 	return SERVER_KINDS[kind] as unknown as ServerKindModule<EntryKind>;
 }
 
-export type { ApprovedVersion, Dependency, PotentialRowsColumn, ServerKindModule } from './kind';
+/** The CSV rules of an upload kind. */
+export function uploadRules(kind: UploadKind): UploadRules<EntryKind> {
+	// As in serverKind: the rules are the kind's own.
+	return SERVER_KINDS[kind].upload as unknown as UploadRules<EntryKind>;
+}
+
+export type {
+	ApprovedVersion,
+	Dependency,
+	PotentialRowsColumn,
+	ServerKindModule,
+	UploadRules
+} from './kind';

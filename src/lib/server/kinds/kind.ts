@@ -1,7 +1,9 @@
 import type { Insertable, Kysely } from 'kysely';
 import type { EntryDataByKind } from '$lib/kinds';
+import type { UploadKind } from '$lib/catalogue/uploadKinds';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
+import type { Resolved, UploadRow } from '../uploads/rows';
 
 // What the server knows about one kind of entry, beside what it shares with the browser
 // (src/lib/kinds): how an approved version becomes its read-model row, what a reader must be
@@ -27,6 +29,22 @@ export interface Dependency {
 /** Which rows of the potential read model copy columns from an entry of this kind. */
 export type PotentialRowsColumn = 'entry_id' | 'centre_entry_id' | 'protein_entry_id';
 
+/** How rows of a CSV upload of this kind are checked, beside the kind's schema. */
+export interface UploadRules<K extends EntryKind> {
+	/**
+	 * Fills fields the row left empty from what its cells carried besides their value (a
+	 * potential's unit and electrode written in the value's cell or header).
+	 */
+	prepare?(r: UploadRow, extras: Record<string, string>): void;
+	/** Finds the entries the row names, by accession or in words; null after failing the row. */
+	resolve(r: UploadRow): Resolved | null;
+	/**
+	 * The kind's checks of a valid row against what it names, the rows before it and the
+	 * registry (duplicates, conflicts, typical ranges); false when the row has an error.
+	 */
+	check(r: UploadRow, data: EntryDataByKind[K], resolved: Resolved): boolean;
+}
+
 export interface ServerKindModule<K extends EntryKind> {
 	/**
 	 * Writes (inserts or replaces) the read-model row of a newly approved version, and refreshes
@@ -49,7 +67,13 @@ export interface ServerKindModule<K extends EntryKind> {
 		data: EntryDataByKind[K],
 		refs: Record<string, number>
 	): Promise<void>;
+	/** CSV uploads of this kind (the kinds in UPLOAD_KINDS have them). */
+	upload?: UploadRules<K>;
 }
+
+/** A kind's server module; the kinds that can be uploaded as CSV must say how. */
+export type KindOnServer<K extends EntryKind> = ServerKindModule<K> &
+	(K extends UploadKind ? { upload: UploadRules<K> } : unknown);
 
 /** The read-model tables: one per kind, keyed by entry id. */
 export type ReadModelTable = EntryKind;

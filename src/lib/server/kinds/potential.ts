@@ -3,7 +3,16 @@ import { COUPLES_BY_KIND, type CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { InvalidEntryDataError } from '../catalogue/errors';
 import { potentialContext } from '../catalogue/potentialRows';
-import { upsertReadModel, type ServerKindModule } from './kind';
+import { potentialConflict } from '$lib/catalogue/conflicts';
+import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
+import { UPLOAD_COLUMNS } from '$lib/catalogue/uploadColumns';
+import type { CentreFact } from '../uploads/lookups';
+import { matchOption } from '../uploads/cells';
+import { findCentre, firstInFile } from '../uploads/rows';
+import { upsertReadModel, type KindOnServer } from './kind';
+
+const ELECTRODE_OPTIONS =
+	UPLOAD_COLUMNS.potential.find((c) => c.name === 'referenceElectrode')?.options ?? [];
 
 /** A potential's couple must be one its centre's cofactor kind can have ('other' takes any). */
 async function assertCoupleFitsCentre(
@@ -25,7 +34,7 @@ async function assertCoupleFitsCentre(
 	}
 }
 
-export const potential: ServerKindModule<'potential'> = {
+export const potential: KindOnServer<'potential'> = {
 	async project(trx, { entryId, version, data: d, refs }) {
 		const centreId = refs.centreAccession as number;
 		await assertCoupleFitsCentre(trx, centreId, d.couple);
@@ -69,5 +78,59 @@ export const potential: ServerKindModule<'potential'> = {
 	async checkReferences(db, data, refs) {
 		if (refs.centreAccession !== undefined)
 			await assertCoupleFitsCentre(db, refs.centreAccession, data.couple);
+	},
+	upload: {
+		prepare(r, extras) {
+			if (extras.reportedUnit && r.values.reportedUnit === undefined)
+				r.values.reportedUnit = extras.reportedUnit;
+			if (extras.referenceElectrode && r.values.referenceElectrode === undefined) {
+				const m = matchOption(extras.referenceElectrode, ELECTRODE_OPTIONS);
+				if (m.ok) r.values.referenceElectrode = m.value;
+				else
+					r.fail(
+						'reportedValue',
+						r.texts.reportedValue ?? '',
+						`"vs ${extras.referenceElectrode}" names no reference electrode we know${m.suggestion ? `; did you mean "${m.suggestion}"?` : ''}`
+					);
+			}
+		},
+		resolve(r) {
+			const c = findCentre(r.state, r.values, r.texts, 'centreAccession', 'centreLabel', r.fail);
+			return c ? { centres: [c], newProtein: null, proteinEntryId: c.proteinEntryId } : null;
+		},
+		check(r, d, resolved) {
+			const centre = resolved.centres[0] as CentreFact;
+			const allowed = COUPLES_BY_KIND[centre.cofactorKind];
+			if (allowed.length > 0 && !allowed.includes(d.couple)) {
+				r.fail(
+					'couple',
+					d.couple,
+					`"${d.couple}" is not a couple of a ${centre.cofactorKind} centre; expected one of ${allowed.join(', ')}`
+				);
+				return false;
+			}
+			const key = `${d.centreAccession}|${d.couple}|${d.emMvShe}|${d.ph}|${d.temperatureK}|${d.method}`;
+			if (!firstInFile(r, key, 'reportedValue')) return false;
+			const value = r.texts.reportedValue ?? '';
+			const range = checkTypicalRange(centre.cofactorKind, d.couple, d.emMvShe);
+			if (range)
+				r.warn('reportedValue', value, `${range.message} (range source: ${range.range.source})`);
+			for (const p of r.state.lookups.potentialsByCentreCouple.get(
+				`${d.centreAccession}|${d.couple}`
+			) ?? []) {
+				const same =
+					Math.abs(p.emMvShe - d.emMvShe) < 0.05 &&
+					p.ph === d.ph &&
+					p.temperatureK === d.temperatureK &&
+					p.method === d.method;
+				if (same) r.warn('reportedValue', value, `already in the registry as ${p.accession}`);
+				else {
+					const c = potentialConflict(d, p);
+					if (c)
+						r.warn('reportedValue', value, `conflicts with approved ${p.accession}: ${c.message}`);
+				}
+			}
+			return true;
+		}
 	}
 };

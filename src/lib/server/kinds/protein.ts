@@ -1,9 +1,9 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 import { refreshPotentialRows } from '../catalogue/potentialRows';
-import { upsertReadModel, type ServerKindModule } from './kind';
+import { upsertReadModel, type KindOnServer } from './kind';
 
-export const protein: ServerKindModule<'protein'> = {
+export const protein: KindOnServer<'protein'> = {
 	async project(trx, { entryId, version, revision, data: d }) {
 		await upsertReadModel(trx, 'protein', entryId, {
 			version,

@@ -1,6 +1,6 @@
-import { upsertReadModel, type ServerKindModule } from './kind';
+import { upsertReadModel, type KindOnServer } from './kind';
 
-export const source: ServerKindModule<'source'> = {
+export const source: KindOnServer<'source'> = {
 	async project(trx, { entryId, version, data: d }) {
 		await upsertReadModel(trx, 'source', entryId, {
 			version,

@@ -1,6 +1,8 @@
-import { upsertReadModel, type ServerKindModule } from './kind';
+import { spinKey } from '../uploads/lookups';
+import { findCentre, firstInFile } from '../uploads/rows';
+import { upsertReadModel, type KindOnServer } from './kind';
 
-export const spinRecord: ServerKindModule<'spin_record'> = {
+export const spinRecord: KindOnServer<'spin_record'> = {
 	async project(trx, { entryId, version, data: d, refs }) {
 		await upsertReadModel(trx, 'spin_record', entryId, {
 			version,
@@ -31,5 +33,19 @@ export const spinRecord: ServerKindModule<'spin_record'> = {
 			.executeTakeFirst();
 		return r ? `Spin state of ${r.oxidation_level}, centre ${r.label}` : 'Spin record';
 	},
-	potentialRowsColumn: null
+	potentialRowsColumn: null,
+	upload: {
+		resolve(r) {
+			const c = findCentre(r.state, r.values, r.texts, 'centreAccession', 'centreLabel', r.fail);
+			return c ? { centres: [c], newProtein: null, proteinEntryId: c.proteinEntryId } : null;
+		},
+		check(r, d) {
+			const key = spinKey(d.centreAccession, d.oxidationLevel, d.method, d.temperatureK);
+			if (!firstInFile(r, key, 'oxidationLevel')) return false;
+			const existing = r.state.lookups.spinKeys.get(key);
+			if (existing)
+				r.warn('oxidationLevel', d.oxidationLevel, `already in the registry as ${existing}`);
+			return true;
+		}
+	}
 };
