@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
 import { ENTRY_DATA_SCHEMAS, type EntryData } from './entryData';
 import { normalisePotential, potentialInputSchema, potentialSchema } from './potential';
+import { fieldErrors } from './fieldErrors';
 import type { FieldErrors } from './searchParams';
 import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
 
@@ -26,13 +27,7 @@ const requiredMessage = (issue: { code: string; input?: unknown }) =>
 /** Validates a contributor's input for a kind and turns it into the data a version stores. */
 export function parseEntryInput(kind: EntryKind, input: unknown): InputResult {
 	const parsed = ENTRY_INPUT_SCHEMAS[kind].safeParse(input, { error: requiredMessage });
-	if (!parsed.success) {
-		const fields: FieldErrors = {};
-		for (const issue of parsed.error.issues) {
-			(fields[issue.path.length ? issue.path.join('.') : '_'] ??= []).push(issue.message);
-		}
-		return { ok: false, fields };
-	}
+	if (!parsed.success) return { ok: false, fields: fieldErrors(parsed.error) };
 	if (kind !== 'potential') {
 		// The input schema of every other kind is its stored schema: the data is already checked.
 		return { ok: true, entry: { kind, data: parsed.data } as EntryData };
@@ -102,6 +97,28 @@ export const visibilityRequestSchema = z
 	}));
 
 export type VisibilityRequest = z.output<typeof visibilityRequestSchema>;
+
+export type VisibilityResult =
+	{ ok: true; visibility: VisibilityRequest } | { ok: false; fields: FieldErrors };
+
+/**
+ * The one reading of a requested visibility, for forms, CSV uploads and the API alike.
+ * @param prefix put before each field name in the errors (`visibility.` in the API's body).
+ */
+export function parseVisibilityRequest(input: unknown, prefix = ''): VisibilityResult {
+	const parsed = visibilityRequestSchema.safeParse(input);
+	if (parsed.success) return { ok: true, visibility: parsed.data };
+	return { ok: false, fields: fieldErrors(parsed.error, { prefix, root: 'visibility' }) };
+}
+
+/** The visibility fields of a form: an empty choice is public, an empty group or date none. */
+export function visibilityFromForm(values: Record<string, string | undefined>): VisibilityResult {
+	return parseVisibilityRequest({
+		visibility: values.visibility || 'public',
+		groupId: values.groupId || null,
+		embargoUntil: values.embargoUntil || null
+	});
+}
 
 /** Form fields around the entry data: visibility, a note to curators, and which entry is edited. */
 export const submissionMetaSchema = z.object({
