@@ -3,10 +3,10 @@ import {
 	MAX_GRID_POINTS,
 	MAX_POTENTIAL_SAMPLES,
 	MAX_TITRATION_POINTS,
-	fieldErrors,
 	titrationRequestSchema,
 	tunnellingRequestSchema
 } from '$lib/schemas/calc';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { AddressWindow, addressKey } from '$lib/server/calc/addressLimit';
 import { CalcTimeLimitError } from '$lib/server/calc/errors';
 import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';

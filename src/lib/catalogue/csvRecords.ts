@@ -1,4 +1,5 @@
 import Papa from 'papaparse';
+import { DomainError } from '$lib/domainError';
 
 /**
  * Cuts CSV text into blocks of whole records and enforces the shape limits of an upload while
@@ -28,8 +29,11 @@ export interface CsvLimits {
 
 export type CsvLimitKind = 'rows' | 'columns' | 'line' | 'cell';
 
-/** A file beyond one of the limits; the message names the row and the limit, for people. */
-export class CsvLimitError extends Error {
+/**
+ * A file beyond one of the limits; the message names the row and the limit, for people. Answered
+ * 413 beside the file field (`fields.file`) on the page and in the API.
+ */
+export class CsvLimitError extends DomainError {
 	constructor(
 		readonly kind: CsvLimitKind,
 		readonly limit: number,
@@ -37,7 +41,7 @@ export class CsvLimitError extends Error {
 		readonly row: number,
 		message: string
 	) {
-		super(message);
+		super('payload_too_large', message, { fields: { file: [message] } });
 		this.name = 'CsvLimitError';
 	}
 }

@@ -122,13 +122,3 @@ export const tunnellingRequestSchema = z
 		message: 'xMaxA must be greater than xMinA'
 	});
 export type TunnellingRequest = z.infer<typeof tunnellingRequestSchema>;
-
-/** Field errors from a zod error, keyed by the dotted path. */
-export function fieldErrors(error: z.ZodError): Record<string, string[]> {
-	const fields: Record<string, string[]> = {};
-	for (const issue of error.issues) {
-		const key = issue.path.length ? issue.path.join('.') : '_';
-		(fields[key] ??= []).push(issue.message);
-	}
-	return fields;
-}

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { fieldErrors } from './fieldErrors';
 
 /**
  * Which page of each related list an entry page shows (`?potentials=3`). Lists on entry pages
@@ -34,9 +35,7 @@ export function parseRelatedPages(
 	}
 	const parsed = relatedPagesSchema.safeParse(raw);
 	if (parsed.success) return { ok: true, pages: parsed.data };
-	const fields: Record<string, string[]> = {};
-	for (const i of parsed.error.issues) (fields[String(i.path[0])] ??= []).push(i.message);
-	return { ok: false, fields };
+	return { ok: false, fields: fieldErrors(parsed.error) };
 }
 
 /** The link to page `n` of one list, keeping the other lists' pages; jumps to the list. */

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
 import { KINDS, type KindModule } from '$lib/kinds';
 import type { EntryData } from './entryData';
+import { fieldErrors } from './fieldErrors';
 import type { FieldErrors } from './searchParams';
 import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
 
@@ -24,13 +25,7 @@ export function parseEntryInput(kind: EntryKind, input: unknown): InputResult {
 	const parsed = (module.input?.schema ?? module.schema).safeParse(input, {
 		error: requiredMessage
 	});
-	if (!parsed.success) {
-		const fields: FieldErrors = {};
-		for (const issue of parsed.error.issues) {
-			(fields[issue.path.length ? issue.path.join('.') : '_'] ??= []).push(issue.message);
-		}
-		return { ok: false, fields };
-	}
+	if (!parsed.success) return { ok: false, fields: fieldErrors(parsed.error) };
 	const converted = module.input
 		? module.input.toData(parsed.data)
 		: { ok: true as const, data: parsed.data };
@@ -88,6 +83,28 @@ export const visibilityRequestSchema = z
 	}));
 
 export type VisibilityRequest = z.output<typeof visibilityRequestSchema>;
+
+export type VisibilityResult =
+	{ ok: true; visibility: VisibilityRequest } | { ok: false; fields: FieldErrors };
+
+/**
+ * The one reading of a requested visibility, for forms, CSV uploads and the API alike.
+ * @param prefix put before each field name in the errors (`visibility.` in the API's body).
+ */
+export function parseVisibilityRequest(input: unknown, prefix = ''): VisibilityResult {
+	const parsed = visibilityRequestSchema.safeParse(input);
+	if (parsed.success) return { ok: true, visibility: parsed.data };
+	return { ok: false, fields: fieldErrors(parsed.error, { prefix, root: 'visibility' }) };
+}
+
+/** The visibility fields of a form: an empty choice is public, an empty group or date none. */
+export function visibilityFromForm(values: Record<string, string | undefined>): VisibilityResult {
+	return parseVisibilityRequest({
+		visibility: values.visibility || 'public',
+		groupId: values.groupId || null,
+		embargoUntil: values.embargoUntil || null
+	});
+}
 
 /** Form fields around the entry data: visibility, a note to curators, and which entry is edited. */
 export const submissionMetaSchema = z.object({

@@ -1,22 +1,16 @@
 import { noticePreferenceForm } from '$lib/schemas/submission';
+import { curationNoticesOf, setCurationNotices, signOutEverywhere } from '$lib/server/auth/account';
 import { signOut } from '$lib/server/auth/authjs';
 import { requireRole, requireUser } from '$lib/server/auth/guards';
-import { endAllSessions } from '$lib/server/auth/sessions';
-import { writeAudit } from '$lib/server/audit/log';
 import { db } from '$lib/server/db';
-import { parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/http/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireUser(event);
-	const row = await db
-		.selectFrom('User')
-		.select('curationNotices')
-		.where('id', '=', user.id)
-		.executeTakeFirstOrThrow();
 	return {
 		account: { email: user.email, name: user.name, role: user.role, groups: user.groupIds.length },
-		curationNotices: row.curationNotices
+		curationNotices: await curationNoticesOf(db, user.id)
 	};
 };
 
@@ -26,27 +20,15 @@ export const actions: Actions = {
 		const user = requireRole(event, 'curator');
 		const form = await parseForm(event.request, noticePreferenceForm);
 		if (!form.ok) return form.failure;
-		await db.transaction().execute(async (trx) => {
-			await trx
-				.updateTable('User')
-				.set({ curationNotices: form.data.curationNotices })
-				.where('id', '=', user.id)
-				.execute();
-			await writeAudit(trx, {
-				actorId: user.id,
-				action: 'account.notices',
-				after: { curationNotices: form.data.curationNotices }
-			});
-		});
+		await db
+			.transaction()
+			.execute((trx) => setCurationNotices(trx, user.id, form.data.curationNotices));
 		return { saved: form.data.curationNotices };
 	},
 	/** Ends every session of the account, on every device, this one included. */
 	signOutEverywhere: async (event) => {
 		const user = requireUser(event);
-		await db.transaction().execute(async (trx) => {
-			await endAllSessions(trx, user.id);
-			await writeAudit(trx, { actorId: user.id, action: 'account.sign_out_everywhere' });
-		});
+		await db.transaction().execute((trx) => signOutEverywhere(trx, user.id));
 		// Clears this browser's cookie and redirects (to the form's redirectTo).
 		await signOut(event);
 	}

@@ -1,8 +1,8 @@
 import { resetRequestForm } from '$lib/schemas/account';
-import { refuseTooManyMailRequests } from '$lib/server/auth/rateLimit';
+import { refuseTooManyMailRequests } from '$lib/server/http/mailRequests';
 import { requestPasswordReset } from '$lib/server/auth/selfService';
 import { db } from '$lib/server/db';
-import { parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/http/forms';
 import type { Actions } from './$types';
 
 export const actions: Actions = {

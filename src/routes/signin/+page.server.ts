@@ -1,6 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { redirectTarget } from '$lib/schemas/account';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { oidcSettings } from '$lib/server/auth/oidc';
 import type { PasswordRefusal } from '$lib/server/auth/passwordSignIn';
 import { signInWithPassword } from '$lib/server/auth/signInWith';
@@ -73,12 +74,7 @@ export const actions: Actions = {
 		const data = Object.fromEntries(await event.request.formData());
 		const parsed = form.safeParse(data);
 		const email = typeof data.email === 'string' ? data.email : '';
-		if (!parsed.success) {
-			const errors: Record<string, string[]> = {};
-			for (const issue of parsed.error.issues)
-				(errors[String(issue.path[0])] ??= []).push(issue.message);
-			return fail(400, { email, errors });
-		}
+		if (!parsed.success) return fail(400, { email, errors: fieldErrors(parsed.error) });
 		const { status, message } = answer(await signInWithPassword(event, parsed.data));
 		return fail(status, { email, errors: { form: [message] } });
 	}

@@ -1,10 +1,9 @@
-import { fail } from '@sveltejs/kit';
 import { signUpForm } from '$lib/schemas/account';
-import { BusyError } from '$lib/server/auth/hashingQueue';
-import { refuseTooManyMailRequests } from '$lib/server/auth/rateLimit';
+import { refuseTooManyMailRequests } from '$lib/server/http/mailRequests';
 import { registerAccount } from '$lib/server/auth/selfService';
 import { db } from '$lib/server/db';
-import { parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/http/forms';
+import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions } from './$types';
 
 export const actions: Actions = {
@@ -18,8 +17,8 @@ export const actions: Actions = {
 		try {
 			await registerAccount(db, form.data, event.url.origin);
 		} catch (e) {
-			if (e instanceof BusyError) return fail(503, { values, errors: { form: [e.message] } });
-			throw e;
+			// The password hashing queue is full (BusyError): 503.
+			return toFormFailure(e, event, values);
 		}
 		return { sentTo: form.data.email };
 	}

@@ -1,16 +1,18 @@
 import type { Kysely } from 'kysely';
+import { DomainError } from '$lib/domainError';
 import type { Database, Role } from '../db/schema';
 import { writeAudit } from '../audit/log';
 import { endAllSessions } from '../auth/sessions';
 
 /** Admin services: users, roles and groups. Every change is written to the audit log. */
 
-export class AdminRuleError extends Error {
+/** A change an admin may not make (the last active admin, a taken name): 400 on `field`. */
+export class AdminRuleError extends DomainError {
 	constructor(
 		readonly field: string,
 		message: string
 	) {
-		super(message);
+		super('bad_request', message, { fields: { [field]: [message] } });
 		this.name = 'AdminRuleError';
 	}
 }

@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { fieldErrors } from '$lib/schemas/calc';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { apiError } from './respond';
 
 /** Reads and validates a JSON request body; a Response (400) when it is not what the schema wants. */

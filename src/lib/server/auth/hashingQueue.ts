@@ -1,3 +1,5 @@
+import { DomainError } from '$lib/domainError';
+
 /**
  * A small admission queue for expensive work: at most `concurrency` tasks run at once, at most
  * `maxWaiting` more wait their turn (first come, first served), and any beyond that are refused
@@ -5,9 +7,9 @@
  * 128 MiB and about a second of CPU per call), so a burst of sign-ins costs bounded memory and
  * a refused caller learns it within milliseconds.
  */
-export class BusyError extends Error {
+export class BusyError extends DomainError {
 	constructor() {
-		super('The server is busy checking other passwords; try again in a moment.');
+		super('unavailable', 'The server is busy checking other passwords; try again in a moment.');
 		this.name = 'BusyError';
 	}
 }

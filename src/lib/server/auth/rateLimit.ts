@@ -1,4 +1,3 @@
-import { fail } from '@sveltejs/kit';
 import { config } from '../config';
 
 /**
@@ -84,13 +83,3 @@ export function takeMailRequest(client: string, recipient: string): number {
 
 export const TOO_MANY_MAIL_REQUESTS =
 	'Too many requests for mail from your address or to this one; try again later.';
-
-/** takeMailRequest for a form action: the 429 answer when refused, else null. */
-export function refuseTooManyMailRequests(
-	client: string,
-	recipient: string,
-	values: Record<string, string>
-) {
-	if (takeMailRequest(client, recipient) === 0) return null;
-	return fail(429, { values, errors: { form: [TOO_MANY_MAIL_REQUESTS] } });
-}

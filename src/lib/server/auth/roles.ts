@@ -1,4 +1,5 @@
 import type { Role } from '../db/schema';
+import { DomainError } from '$lib/domainError';
 import { roleAtLeast } from '$lib/roles';
 
 /**
@@ -16,16 +17,18 @@ export interface SessionUser {
 	groupIds: number[];
 }
 
-export class UnauthenticatedError extends Error {
+/** Signed out where an account is needed: 401. */
+export class UnauthenticatedError extends DomainError {
 	constructor() {
-		super('Sign in to do this.');
+		super('unauthorized', 'Sign in to do this.');
 		this.name = 'UnauthenticatedError';
 	}
 }
 
-export class ForbiddenError extends Error {
+/** Signed in with too low a role: 403. */
+export class ForbiddenError extends DomainError {
 	constructor(readonly needed: Role) {
-		super(`This needs the ${needed} role.`);
+		super('forbidden', `This needs the ${needed} role.`);
 		this.name = 'ForbiddenError';
 	}
 }

@@ -1,9 +1,9 @@
-import { fail, type RequestEvent } from '@sveltejs/kit';
+import type { RequestEvent } from '@sveltejs/kit';
 import type { ChainEstimate } from '$lib/catalogue/chainEstimate';
 import { config } from '../config';
 import { AddressWindow, addressKey } from './addressLimit';
 import type { LadderChainInput } from './chainEstimate';
-import { CalcBusyError, CalcRateLimitedError, CalcTimeLimitError } from './errors';
+import { CalcBusyError, CalcInputError, CalcRateLimitedError, CalcTimeLimitError } from './errors';
 import type { CalcJob, CalcKind, CalcResults } from './jobs';
 import { WorkerPool } from './pool';
 
@@ -44,10 +44,18 @@ export function checkCaller(caller: Caller): void {
 		throw new CalcRateLimitedError(Math.ceil(waitMs / 1000), config.CALC_ANON_PER_MINUTE);
 }
 
+/** The request field that holds each kind's input, named when the science refuses it. */
+const INPUT_FIELD: Record<CalcKind, string> = {
+	titration: 'points',
+	tunnelling: 'potential',
+	chain: 'input'
+};
+
 /**
  * Runs one calculation in a worker and returns its result. Throws CalcRateLimitedError,
- * CalcBusyError, CalcTimeLimitError, CalcWorkerError, or the RangeError/TypeError with which the
- * science refused the input. `caller` null: started by the server itself (not counted).
+ * CalcBusyError, CalcTimeLimitError, CalcWorkerError, CalcInputError (the science refused the
+ * input with a RangeError; its message, on the kind's input field) or the science's TypeError.
+ * `caller` null: started by the server itself (not counted).
  */
 export async function calculate<K extends CalcKind>(
 	job: Extract<CalcJob, { kind: K }>,
@@ -59,7 +67,12 @@ export async function calculate<K extends CalcKind>(
 	}
 	// Structured cloning across the thread boundary loses the static type; jobs.ts pairs each
 	// kind with its result, and runCalcJob is checked against that pairing.
-	return (await pool.run(job)) as CalcResults[K];
+	try {
+		return (await pool.run(job)) as CalcResults[K];
+	} catch (e) {
+		if (e instanceof RangeError) throw new CalcInputError(INPUT_FIELD[job.kind], e.message);
+		throw e;
+	}
 }
 
 /** How full the pool is (for benchmarks and tests). */
@@ -112,25 +125,4 @@ export async function chainEstimateFor(
 			};
 		throw e;
 	}
-}
-
-/**
- * A page action's answer to a failed calculation: the science's RangeError beside `field`, the
- * service's refusals (429, 503, 422) as a message about the whole form with Retry-After where it
- * applies. Anything else is rethrown (a 500 with an error id).
- */
-export function calcFormFailure(
-	e: unknown,
-	event: Pick<RequestEvent, 'setHeaders'>,
-	values: Record<string, string>,
-	field: string
-) {
-	if (e instanceof RangeError) return fail(400, { values, errors: { [field]: [e.message] } });
-	if (e instanceof CalcRateLimitedError || e instanceof CalcBusyError) {
-		event.setHeaders({ 'retry-after': String(e.retryAfterSeconds) });
-		const status = e instanceof CalcRateLimitedError ? 429 : 503;
-		return fail(status, { values, errors: { form: [e.message] } });
-	}
-	if (e instanceof CalcTimeLimitError) return fail(422, { values, errors: { form: [e.message] } });
-	throw e;
 }

@@ -1,11 +1,15 @@
-/** Domain failures of the catalogue, mapped to HTTP codes at the route. */
+import { DomainError } from '$lib/domainError';
 
-export class EntryNotFoundError extends Error {
+/** Domain failures of the catalogue; their codes decide the HTTP answer (see `DomainError`). */
+
+/** No such entry, or no such approved version of it: 404. */
+export class EntryNotFoundError extends DomainError {
 	constructor(
 		readonly accession: string,
 		readonly version?: number
 	) {
 		super(
+			'not_found',
 			version === undefined
 				? `no entry ${accession}`
 				: `entry ${accession} has no approved version ${version}`
@@ -14,20 +18,22 @@ export class EntryNotFoundError extends Error {
 	}
 }
 
-/** A version refers to something that does not exist, is of the wrong kind, or does not fit. */
-export class InvalidEntryDataError extends Error {
+/** A version refers to something that does not exist, is of the wrong kind, or does not fit: 400 on `field`. */
+export class InvalidEntryDataError extends DomainError {
 	constructor(
 		readonly field: string,
 		readonly detail: string
 	) {
-		super(`${field}: ${detail}`);
+		const message = `${field}: ${detail}`;
+		super('bad_request', message, { fields: { [field]: [message] } });
 		this.name = 'InvalidEntryDataError';
 	}
 }
 
-export class VersionStateError extends Error {
+/** A version is not in the state the step needs (approving one that is not submitted): 409. */
+export class VersionStateError extends DomainError {
 	constructor(message: string) {
-		super(message);
+		super('conflict', message);
 		this.name = 'VersionStateError';
 	}
 }

@@ -1,37 +1,43 @@
+import { DomainError } from '$lib/domainError';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 
-/** Domain failures of curation, mapped to HTTP codes at the route. */
+/** Domain failures of curation; their codes decide the HTTP answer (see `DomainError`). */
 
-export class SubmissionNotFoundError extends Error {
+/** No such submission (or none the user may see): 404. */
+export class SubmissionNotFoundError extends DomainError {
 	constructor(readonly submissionId: number) {
-		super(`no submission ${submissionId}`);
+		super('not_found', `no submission ${submissionId}`);
 		this.name = 'SubmissionNotFoundError';
 	}
 }
 
 /** The action does not fit the submission's state (e.g. approving a draft): 409. */
-export class SubmissionStateError extends Error {
+export class SubmissionStateError extends DomainError {
 	constructor(message: string) {
-		super(message);
+		super('conflict', message);
 		this.name = 'SubmissionStateError';
 	}
 }
 
 /** The user may not act on this submission (someone else's draft, reviewing one's own): 403. */
-export class SubmissionAccessError extends Error {
+export class SubmissionAccessError extends DomainError {
 	constructor(message: string) {
-		super(message);
+		super('forbidden', message);
 		this.name = 'SubmissionAccessError';
 	}
 }
 
 /** The data cannot be accepted as it stands; errors per field: 400. */
-export class SubmissionInvalidError extends Error {
-	constructor(readonly fields: FieldErrors) {
+export class SubmissionInvalidError extends DomainError {
+	declare readonly fields: FieldErrors;
+
+	constructor(fields: FieldErrors) {
 		super(
+			'bad_request',
 			`the submission has errors in ${Object.keys(fields).join(', ')}: ${Object.values(fields)
 				.flat()
-				.join('; ')}`
+				.join('; ')}`,
+			{ fields }
 		);
 		this.name = 'SubmissionInvalidError';
 	}

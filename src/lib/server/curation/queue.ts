@@ -421,3 +421,21 @@ export async function loadBatchRows(
 		}))
 	};
 }
+
+/**
+ * The entry kind of a submission's versions (what its edit form reads).
+ * @throws {SubmissionNotFoundError} when there is no such submission.
+ */
+export async function submissionKind(
+	db: Kysely<Database>,
+	submissionId: number
+): Promise<EntryKind> {
+	const row = await db
+		.selectFrom('entry_version')
+		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+		.select('entry.kind')
+		.where('entry_version.submission_id', '=', submissionId)
+		.executeTakeFirst();
+	if (!row) throw new SubmissionNotFoundError(submissionId);
+	return row.kind;
+}

@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { DomainError } from '$lib/domainError';
 import { yieldToEventLoop } from '../eventLoop';
 import { formatAccession } from '$lib/schemas/accession';
 import { UPLOAD_KIND_NOUNS } from '$lib/catalogue/uploadColumns';
@@ -17,9 +18,12 @@ import type { UploadCheck } from './checkUpload';
  * each with its submitted version, in the caller's transaction — all rows or none. Rows go in
  * as multi-row inserts in chunks, yielding to the event loop between chunks.
  */
-export class UploadHasErrorsError extends Error {
+export class UploadHasErrorsError extends DomainError {
 	constructor(readonly errorCount: number) {
-		super(`the file has ${errorCount} error(s); fix them and check it again before committing`);
+		super(
+			'bad_request',
+			`the file has ${errorCount} error(s); fix them and check it again before committing`
+		);
 		this.name = 'UploadHasErrorsError';
 	}
 }

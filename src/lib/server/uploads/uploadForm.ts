@@ -1,9 +1,10 @@
 import { z } from 'zod';
 import { UPLOAD_KINDS, type UploadKind } from '$lib/catalogue/uploadColumns';
+import { addFieldErrors, fieldErrors } from '$lib/schemas/fieldErrors';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import {
 	submissionMetaSchema,
-	visibilityRequestSchema,
+	visibilityFromForm,
 	type VisibilityRequest
 } from '$lib/schemas/submission';
 import { config } from '../config';
@@ -54,26 +55,20 @@ export async function readUploadForm(request: Request): Promise<UploadForm> {
 	for (const [k, v] of form) if (typeof v === 'string') values[k] = v;
 	const errors: FieldErrors = {};
 	const kind = kindField.safeParse(values.kind);
-	if (!kind.success) errors.kind = kind.error.issues.map((i) => i.message);
+	if (!kind.success) Object.assign(errors, fieldErrors(kind.error, { root: 'kind' }));
 	const file = form.get('file');
 	if (!(file instanceof File) || file.size === 0) errors.file = ['choose a CSV file'];
 	else if (file.size > config.UPLOAD_MAX_BYTES)
 		return { ok: false, status: 413, values, errors: { file: [uploadLimitMessage(file.size)] } };
-	const visibility = visibilityRequestSchema.safeParse({
-		visibility: values.visibility || 'public',
-		groupId: values.groupId || null,
-		embargoUntil: values.embargoUntil || null
-	});
-	if (!visibility.success) {
-		for (const i of visibility.error.issues) (errors[String(i.path[0])] ??= []).push(i.message);
-	}
+	const visibility = visibilityFromForm(values);
+	if (!visibility.ok) addFieldErrors(errors, visibility.fields);
 	const meta = submissionMetaSchema.safeParse({ changeNote: values.changeNote ?? '' });
-	if (!meta.success) errors.changeNote = meta.error.issues.map((i) => i.message);
+	if (!meta.success) Object.assign(errors, fieldErrors(meta.error));
 	if (
 		!kind.success ||
 		!(file instanceof File) ||
 		file.size === 0 ||
-		!visibility.success ||
+		!visibility.ok ||
 		!meta.success
 	) {
 		return { ok: false, status: 400, values, errors };
@@ -83,7 +78,7 @@ export async function readUploadForm(request: Request): Promise<UploadForm> {
 		kind: kind.data,
 		filename: file.name || 'upload.csv',
 		text: await file.text(),
-		visibility: visibility.data,
+		visibility: visibility.visibility,
 		changeNote: meta.data.changeNote,
 		values
 	};

@@ -1,6 +1,8 @@
 import { fail } from '@sveltejs/kit';
-import { MAX_TITRATION_POINTS, fieldErrors, titrationRequestSchema } from '$lib/schemas/calc';
-import { calcFormFailure, calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
+import { MAX_TITRATION_POINTS, titrationRequestSchema } from '$lib/schemas/calc';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
+import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
+import { toFormFailure } from '$lib/server/http/failures';
 import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import type { Actions } from './$types';
 
@@ -21,7 +23,7 @@ export const actions: Actions = {
 		try {
 			checkCaller(caller);
 		} catch (e) {
-			return calcFormFailure(e, event, values, 'points');
+			return toFormFailure(e, event, values);
 		}
 		let text = pasted;
 		if (file instanceof File && file.size > 0) {
@@ -49,7 +51,7 @@ export const actions: Actions = {
 			const fit = await calculate({ kind: 'titration', points: valid, options }, caller);
 			return { values, fit, points: valid };
 		} catch (e) {
-			return calcFormFailure(e, event, values, 'points');
+			return toFormFailure(e, event, values);
 		}
 	}
 };

@@ -1,6 +1,8 @@
 import { fail } from '@sveltejs/kit';
-import { MAX_POTENTIAL_SAMPLES, fieldErrors, tunnellingRequestSchema } from '$lib/schemas/calc';
-import { calcFormFailure, calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
+import { MAX_POTENTIAL_SAMPLES, tunnellingRequestSchema } from '$lib/schemas/calc';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
+import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
+import { toFormFailure } from '$lib/server/http/failures';
 import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import type { Actions } from './$types';
 
@@ -30,7 +32,7 @@ export const actions: Actions = {
 		try {
 			checkCaller(caller);
 		} catch (e) {
-			return calcFormFailure(e, event, values, 'potential');
+			return toFormFailure(e, event, values);
 		}
 		const kind = values.potentialKind;
 		const sampled = parseTwoColumnText(values.pointsText ?? '', ['x', 'V'], MAX_POTENTIAL_SAMPLES);
@@ -63,7 +65,7 @@ export const actions: Actions = {
 				result: await calculate({ kind: 'tunnelling', request: parsed.data }, caller)
 			};
 		} catch (e) {
-			return calcFormFailure(e, event, values, 'potential');
+			return toFormFailure(e, event, values);
 		}
 	}
 };

@@ -1,10 +1,10 @@
 import { fail } from '@sveltejs/kit';
 import { resetForm } from '$lib/schemas/account';
-import { BusyError } from '$lib/server/auth/hashingQueue';
 import { accountAttempts } from '$lib/server/auth/rateLimit';
 import { resetPassword } from '$lib/server/auth/selfService';
 import { db } from '$lib/server/db';
-import { parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/http/forms';
+import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions } from './$types';
 
 export const actions: Actions = {
@@ -16,8 +16,8 @@ export const actions: Actions = {
 		try {
 			email = await resetPassword(db, event.params.token, form.data.password);
 		} catch (e) {
-			if (e instanceof BusyError) return fail(503, { errors: { form: [e.message] } });
-			throw e;
+			// The password hashing queue is full (BusyError): 503.
+			return toFormFailure(e, event);
 		}
 		if (!email)
 			return fail(400, {

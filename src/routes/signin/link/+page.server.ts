@@ -1,7 +1,7 @@
 import { signInLinkForm } from '$lib/schemas/account';
 import { TOO_MANY_MAIL_REQUESTS } from '$lib/server/auth/rateLimit';
 import { signInWith } from '$lib/server/auth/signInWith';
-import { parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/http/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 // Auth.js sends people here after mailing a link (its "verify request" page), with ?provider=email,

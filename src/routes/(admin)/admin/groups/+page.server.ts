@@ -1,7 +1,5 @@
-import { fail } from '@sveltejs/kit';
 import { addMemberForm, createGroupForm, removeMemberForm } from '$lib/schemas/admin';
 import {
-	AdminRuleError,
 	addGroupMember,
 	createGroup,
 	listGroups,
@@ -9,17 +7,13 @@ import {
 } from '$lib/server/admin/accounts';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
-import { parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/http/forms';
+import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'admin');
 	return { groups: await listGroups(db) };
-};
-
-const ruleFailure = (values: Record<string, string>) => (e: unknown) => {
-	if (e instanceof AdminRuleError) return fail(400, { values, errors: { [e.field]: [e.message] } });
-	throw e;
 };
 
 export const actions: Actions = {
@@ -30,7 +24,10 @@ export const actions: Actions = {
 		return db
 			.transaction()
 			.execute((trx) => createGroup(trx, admin.id, form.data))
-			.then(() => ({ done: `Group ${form.data.name} created.` }), ruleFailure(form.values));
+			.then(
+				() => ({ done: `Group ${form.data.name} created.` }),
+				(e: unknown) => toFormFailure(e, event, form.values)
+			);
 	},
 	add: async (event) => {
 		const admin = requireRole(event, 'admin');
@@ -39,7 +36,10 @@ export const actions: Actions = {
 		return db
 			.transaction()
 			.execute((trx) => addGroupMember(trx, admin.id, form.data.groupId, form.data.email))
-			.then(() => ({ done: `${form.data.email} added.` }), ruleFailure(form.values));
+			.then(
+				() => ({ done: `${form.data.email} added.` }),
+				(e: unknown) => toFormFailure(e, event, form.values)
+			);
 	},
 	remove: async (event) => {
 		const admin = requireRole(event, 'admin');

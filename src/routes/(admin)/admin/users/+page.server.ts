@@ -1,24 +1,14 @@
-import { fail } from '@sveltejs/kit';
 import { setDisabledForm, setRoleForm } from '$lib/schemas/admin';
-import {
-	AdminRuleError,
-	listUsers,
-	setUserDisabled,
-	setUserRole
-} from '$lib/server/admin/accounts';
+import { listUsers, setUserDisabled, setUserRole } from '$lib/server/admin/accounts';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
-import { parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/http/forms';
+import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'admin');
 	return { users: await listUsers(db) };
-};
-
-const ruleFailure = (e: unknown) => {
-	if (e instanceof AdminRuleError) return fail(400, { errors: { [e.field]: [e.message] } });
-	throw e;
 };
 
 export const actions: Actions = {
@@ -29,7 +19,10 @@ export const actions: Actions = {
 		return db
 			.transaction()
 			.execute((trx) => setUserRole(trx, admin.id, form.data.userId, form.data.role))
-			.then(() => ({ done: 'Role changed.' }), ruleFailure);
+			.then(
+				() => ({ done: 'Role changed.' }),
+				(e: unknown) => toFormFailure(e, event)
+			);
 	},
 	disabled: async (event) => {
 		const admin = requireRole(event, 'admin');
@@ -40,7 +33,7 @@ export const actions: Actions = {
 			.execute((trx) => setUserDisabled(trx, admin.id, form.data.userId, form.data.disabled))
 			.then(
 				() => ({ done: form.data.disabled ? 'Account disabled.' : 'Account enabled.' }),
-				ruleFailure
+				(e: unknown) => toFormFailure(e, event)
 			);
 	}
 };

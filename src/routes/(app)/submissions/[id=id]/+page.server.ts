@@ -1,25 +1,22 @@
-import { error, fail, redirect } from '@sveltejs/kit';
+import { fail, redirect } from '@sveltejs/kit';
 import { KINDS } from '$lib/kinds';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
-import { SubmissionNotFoundError } from '$lib/server/curation/errors';
-import { curationFailure, postComment, readSubmissionForm } from '$lib/server/curation/form';
+import { readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefaults';
-import { deliver } from '$lib/server/curation/outbox';
-import { batchForPage } from '$lib/server/curation/batchPage';
-import { loadSubmissionView } from '$lib/server/curation/queue';
+import { runCurationAction } from '$lib/server/curation/outbox';
+import { loadSubmissionView, submissionKind } from '$lib/server/curation/queue';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
-import { fillFromDoi } from '$lib/server/sources/lookupAction';
+import { batchForPage } from '$lib/server/http/batchPage';
+import { postComment } from '$lib/server/http/commentAction';
+import { fillFromDoi } from '$lib/server/http/doiLookup';
+import { orNotFound, toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'contributor');
 	const id = Number(event.params.id);
-	const view = await loadSubmissionView(db, user, id).catch((e: unknown) => {
-		if (e instanceof SubmissionNotFoundError) return null;
-		throw e;
-	});
-	if (!view) error(404, { message: `no submission ${id} of yours` });
+	const view = await orNotFound(loadSubmissionView(db, user, id), `no submission ${id} of yours`);
 	const first = view.versions[0];
 	return {
 		view,
@@ -43,27 +40,17 @@ export const load: PageServerLoad = async (event) => {
 async function save(event: RequestEvent, andSubmit: boolean) {
 	const user = requireRole(event, 'contributor');
 	const id = Number(event.params.id);
-	const kind = (
-		await db
-			.selectFrom('entry_version')
-			.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
-			.select('entry.kind')
-			.where('entry_version.submission_id', '=', id)
-			.executeTakeFirst()
-	)?.kind;
-	if (!kind) error(404, { message: `no submission ${id}` });
+	const kind = await orNotFound(submissionKind(db, id), `no submission ${id}`);
 	const form = readSubmissionForm(kind, await event.request.formData());
 	if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
-	let mails;
 	try {
-		mails = await db.transaction().execute(async (trx) => {
+		await runCurationAction(db, async (trx) => {
 			await updateDraft(trx, user, id, form);
-			return andSubmit ? (await submitForReview(trx, user, id, event.url.origin)).mails : [];
+			return andSubmit ? submitForReview(trx, user, id, event.url.origin) : { mails: [] };
 		});
 	} catch (e) {
-		return curationFailure(e, form.values);
+		return toFormFailure(e, event, form.values);
 	}
-	await deliver(mails);
 	redirect(303, `/submissions/${id}?${andSubmit ? 'submitted' : 'saved'}`);
 }
 
@@ -80,7 +67,7 @@ export const actions: Actions = {
 		try {
 			await db.transaction().execute((trx) => withdrawSubmission(trx, user, id));
 		} catch (e) {
-			return curationFailure(e);
+			return toFormFailure(e, event, {});
 		}
 		return { withdrawn: true };
 	},

@@ -4,12 +4,11 @@ import type { HeaderNames, UploadKind } from '$lib/catalogue/uploadKinds';
 import { requireRole } from '$lib/server/auth/guards';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
-import { curationFailure } from '$lib/server/curation/form';
 import { groupsForSharing } from '$lib/server/curation/formDefaults';
-import { deliver } from '$lib/server/curation/outbox';
+import { runCurationAction } from '$lib/server/curation/outbox';
+import { toFormFailure } from '$lib/server/http/failures';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { commitUpload } from '$lib/server/uploads/commitUpload';
-import { CsvLimitError } from '$lib/catalogue/csvRecords';
 import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { summariseCheck } from '$lib/server/uploads/summary';
 import { readUploadForm } from '$lib/server/uploads/uploadForm';
@@ -44,9 +43,8 @@ async function checked(event: RequestEvent) {
 		});
 		return { user, form, check };
 	} catch (e) {
-		if (!(e instanceof CsvLimitError)) throw e;
-		// Beside the file field: which row passed which limit.
-		return { user, failure: fail(413, { values: form.values, errors: { file: [e.message] } }) };
+		// A CsvLimitError goes beside the file field (413): which row passed which limit.
+		return { user, failure: toFormFailure(e, event, form.values) };
 	}
 }
 
@@ -75,7 +73,7 @@ export const actions: Actions = {
 		}
 		let result;
 		try {
-			result = await db.transaction().execute((trx) =>
+			result = await runCurationAction(db, (trx) =>
 				commitUpload(trx, user, check, {
 					filename: form.filename,
 					visibility: form.visibility,
@@ -85,9 +83,8 @@ export const actions: Actions = {
 				})
 			);
 		} catch (e) {
-			return curationFailure(e, form.values);
+			return toFormFailure(e, event, form.values);
 		}
-		await deliver(result.mails);
 		redirect(303, `/submissions/${result.submissionId}?uploaded`);
 	}
 };

@@ -1,27 +1,27 @@
-import { error, fail } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schemas/calc';
+import { fail } from '@sveltejs/kit';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { batchDecisionSchema, reviewDecisionSchema } from '$lib/schemas/submission';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
-import { SubmissionNotFoundError } from '$lib/server/curation/errors';
-import { curationFailure, postComment } from '$lib/server/curation/form';
-import { deliver } from '$lib/server/curation/outbox';
+import { runCurationAction } from '$lib/server/curation/outbox';
 import { loadSubmissionView } from '$lib/server/curation/queue';
 import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
-import { batchForPage } from '$lib/server/curation/batchPage';
+import { batchForPage } from '$lib/server/http/batchPage';
+import { postComment } from '$lib/server/http/commentAction';
+import { orNotFound, toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'curator');
 	const id = Number(event.params.id);
-	const view = await loadSubmissionView(db, user, id).catch((e: unknown) => {
-		if (e instanceof SubmissionNotFoundError) return null;
-		throw e;
-	});
-	if (!view) error(404, { message: `no submission ${id}` });
+	const view = await orNotFound(loadSubmissionView(db, user, id), `no submission ${id}`);
 	const batch = view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null;
 	return { view, batch };
 };
+
+// Given the database, a large approval commits in chunks (see curation/reviews.ts): the
+// decisions open their own transactions.
+const chunked = { ownTransactions: true };
 
 export const actions: Actions = {
 	decide: async (event) => {
@@ -37,12 +37,17 @@ export const actions: Actions = {
 		}
 		let outcome;
 		try {
-			// Given the database, a large approval commits in chunks (see curation/reviews.ts).
-			outcome = await decideSubmission(db, user, id, parsed.data, event.url.origin);
+			outcome = await runCurationAction(
+				db,
+				(database) => decideSubmission(database, user, id, parsed.data, event.url.origin),
+				chunked
+			);
 		} catch (e) {
-			return curationFailure(e, { decision: parsed.data.decision, comment: parsed.data.comment });
+			return toFormFailure(e, event, {
+				decision: parsed.data.decision,
+				comment: parsed.data.comment
+			});
 		}
-		await deliver(outcome.mails);
 		return { decided: parsed.data.decision, approved: outcome.approved };
 	},
 	/** A CSV batch row by row: approve every row except those listed, which go back with the comment. */
@@ -59,11 +64,14 @@ export const actions: Actions = {
 		if (!parsed.success) return fail(400, { values: strings, errors: fieldErrors(parsed.error) });
 		let outcome;
 		try {
-			outcome = await decideBatch(db, user, id, parsed.data, event.url.origin);
+			outcome = await runCurationAction(
+				db,
+				(database) => decideBatch(database, user, id, parsed.data, event.url.origin),
+				chunked
+			);
 		} catch (e) {
-			return curationFailure(e, strings);
+			return toFormFailure(e, event, strings);
 		}
-		await deliver(outcome.mails);
 		return { batchDone: { approved: outcome.approved.length, returned: outcome.returned } };
 	},
 	comment: async (event) => {

@@ -1,8 +1,9 @@
 import { json } from '@sveltejs/kit';
+import { addFieldErrors } from '$lib/schemas/fieldErrors';
 import {
 	apiSubmissionSchema,
 	parseEntryInput,
-	visibilityRequestSchema
+	parseVisibilityRequest
 } from '$lib/schemas/submission';
 import { assertRole } from '$lib/server/auth/roles';
 import { parseJsonBody } from '$lib/server/api/body';
@@ -10,7 +11,7 @@ import { apiHandler } from '$lib/server/api/handler';
 import { apiError } from '$lib/server/api/respond';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
-import { deliver } from '$lib/server/curation/outbox';
+import { runCurationAction } from '$lib/server/curation/outbox';
 import { loadSubmissionView } from '$lib/server/curation/queue';
 import { createDraft, submitForReview } from '$lib/server/curation/submissions';
 import type { RequestHandler } from './$types';
@@ -26,20 +27,17 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 	if (!body.ok) return body.response;
 	const { kind, data, edit, changeNote, submit } = body.data;
 	const entry = parseEntryInput(kind, data);
-	const visibility = visibilityRequestSchema.safeParse(body.data.visibility);
+	const visibility = parseVisibilityRequest(body.data.visibility, 'visibility.');
 	const fields: Record<string, string[]> = {};
 	if (!entry.ok) for (const [k, v] of Object.entries(entry.fields)) fields[`data.${k}`] = v;
-	if (!visibility.success) {
-		for (const i of visibility.error.issues)
-			(fields[`visibility.${i.path.join('.')}`] ??= []).push(i.message);
-	}
-	if (!entry.ok || !visibility.success) {
+	if (!visibility.ok) addFieldErrors(fields, visibility.fields);
+	if (!entry.ok || !visibility.ok) {
 		return apiError('bad_request', `Invalid field(s): ${Object.keys(fields).join(', ')}`, fields);
 	}
-	const result = await db.transaction().execute(async (trx) => {
+	const result = await runCurationAction(db, async (trx) => {
 		const draft = await createDraft(trx, user, {
 			entry: entry.entry,
-			visibility: visibility.data,
+			visibility: visibility.visibility,
 			changeNote,
 			editAccession: edit,
 			pendingRowsMax: config.PENDING_ROWS_MAX
@@ -49,7 +47,6 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 			: null;
 		return { ...draft, mails: sent?.mails ?? [] };
 	});
-	await deliver(result.mails);
 	const view = await loadSubmissionView(db, user, result.submissionId);
 	return json(
 		{

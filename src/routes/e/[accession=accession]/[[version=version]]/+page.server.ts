@@ -1,4 +1,3 @@
-import { error } from '@sveltejs/kit';
 import { describeConflictRule } from '$lib/catalogue/conflicts';
 import { buildLadder } from '$lib/catalogue/ladder';
 import { roleAtLeast } from '$lib/roles';
@@ -8,10 +7,10 @@ import { parseVersionSegment } from '$lib/schemas/accession';
 import { parseRelatedPages } from '$lib/schemas/relatedPages';
 import { conflictFlags, conflictFlagsOfPotential } from '$lib/server/catalogue/conflictFlags';
 import { getEntryView } from '$lib/server/catalogue/entryView';
-import { EntryNotFoundError } from '$lib/server/catalogue/errors';
 import { ladderInputs } from '$lib/server/catalogue/ladderInputs';
 import { relatedRecords } from '$lib/server/catalogue/related';
 import { db } from '$lib/server/db';
+import { orNotFound, queryError } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
 import { shownRelated } from './shownRelated';
 
@@ -23,27 +22,13 @@ import { shownRelated } from './shownRelated';
 export const load: PageServerLoad = async ({ params, locals, url, setHeaders }) => {
 	const version = params.version ? (parseVersionSegment(params.version) ?? undefined) : undefined;
 	const pages = parseRelatedPages(url.searchParams);
-	if (!pages.ok) {
-		error(400, {
-			message: Object.entries(pages.fields)
-				.map(([field, messages]) => `${field}: ${messages.join('; ')}`)
-				.join(' · ')
-		});
-	}
-	const view = await getEntryView(db, params.accession, version, locals.viewer).catch(
-		(e: unknown) => {
-			if (e instanceof EntryNotFoundError) return null;
-			throw e;
-		}
+	if (!pages.ok) queryError(pages.fields);
+	const view = await orNotFound(
+		getEntryView(db, params.accession, version, locals.viewer),
+		version === undefined
+			? `There is no entry ${params.accession}.`
+			: `Entry ${params.accession} has no version ${version}.`
 	);
-	if (!view) {
-		error(404, {
-			message:
-				version === undefined
-					? `There is no entry ${params.accession}.`
-					: `Entry ${params.accession} has no version ${version}.`
-		});
-	}
 	const related = await relatedRecords(db, view.kind, view.accession, locals.viewer, pages.pages);
 	const ladderData =
 		view.kind === 'protein' ? await ladderInputs(db, view.accession, locals.viewer) : null;

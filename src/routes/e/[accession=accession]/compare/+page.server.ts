@@ -1,9 +1,9 @@
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { compareVersions } from '$lib/server/catalogue/entryView';
-import { EntryNotFoundError } from '$lib/server/catalogue/errors';
 import { queryInteger, parseSearchParams } from '$lib/schemas/searchParams';
 import { db } from '$lib/server/db';
+import { orNotFound } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
 
 const compareQuery = z.object({ from: queryInteger(1, 999_999), to: queryInteger(1, 999_999) });
@@ -12,13 +12,9 @@ export const load: PageServerLoad = async ({ params, url, locals }) => {
 	const query = parseSearchParams(compareQuery, url.searchParams);
 	if (!query.ok) error(400, { message: 'Choose two versions to compare.', fields: query.fields });
 	const { from, to } = query.data;
-	const result = await compareVersions(db, params.accession, from, to, locals.viewer).catch(
-		(e: unknown) => {
-			if (e instanceof EntryNotFoundError) return null;
-			throw e;
-		}
+	const result = await orNotFound(
+		compareVersions(db, params.accession, from, to, locals.viewer),
+		`Entry ${params.accession} has no version ${from} or ${to}.`
 	);
-	if (!result)
-		error(404, { message: `Entry ${params.accession} has no version ${from} or ${to}.` });
 	return { accession: params.accession, ...result };
 };

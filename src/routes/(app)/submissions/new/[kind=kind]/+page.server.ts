@@ -4,11 +4,12 @@ import { isAccession } from '$lib/schemas/accession';
 import { requireRole } from '$lib/server/auth/guards';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
-import { curationFailure, readSubmissionForm } from '$lib/server/curation/form';
+import { readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesForEditing } from '$lib/server/curation/formDefaults';
-import { deliver } from '$lib/server/curation/outbox';
+import { runCurationAction } from '$lib/server/curation/outbox';
 import { createDraft, submitForReview } from '$lib/server/curation/submissions';
-import { fillFromDoi } from '$lib/server/sources/lookupAction';
+import { fillFromDoi } from '$lib/server/http/doiLookup';
+import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -40,7 +41,7 @@ async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean)
 	const edit = event.url.searchParams.get('edit');
 	let result;
 	try {
-		result = await db.transaction().execute(async (trx) => {
+		result = await runCurationAction(db, async (trx) => {
 			const draft = await createDraft(trx, user, {
 				entry: form.entry,
 				visibility: form.visibility,
@@ -54,9 +55,8 @@ async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean)
 			return { ...draft, mails: sent.mails };
 		});
 	} catch (e) {
-		return curationFailure(e, form.values);
+		return toFormFailure(e, event, form.values);
 	}
-	await deliver(result.mails);
 	redirect(303, `/submissions/${result.submissionId}?${andSubmit ? 'submitted' : 'saved'}`);
 }
 

@@ -1,7 +1,7 @@
 import { titrationRequestSchema } from '$lib/schemas/calc';
 import { parseJsonBody } from '$lib/server/api/body';
 import { apiHandler } from '$lib/server/api/handler';
-import { apiError, computedJson } from '$lib/server/api/respond';
+import { computedJson } from '$lib/server/api/respond';
 import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import type { RequestHandler } from './$types';
 
@@ -12,13 +12,7 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 	const body = await parseJsonBody(event.request, titrationRequestSchema);
 	if (!body.ok) return body.response;
 	const { points, ...options } = body.data;
-	let fit;
-	try {
-		fit = await calculate({ kind: 'titration', points, options }, caller);
-	} catch (e) {
-		if (e instanceof RangeError) return apiError('bad_request', e.message, { points: [e.message] });
-		throw e;
-	}
+	const fit = await calculate({ kind: 'titration', points, options }, caller);
 	return computedJson({
 		...fit,
 		units: { emMv: 'mV (same reference as the potentials sent)', temperatureK: 'K' },

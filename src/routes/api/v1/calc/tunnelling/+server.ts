@@ -1,7 +1,7 @@
 import { tunnellingRequestSchema } from '$lib/schemas/calc';
 import { parseJsonBody } from '$lib/server/api/body';
 import { apiHandler } from '$lib/server/api/handler';
-import { apiError, computedJson } from '$lib/server/api/respond';
+import { computedJson } from '$lib/server/api/respond';
 import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import type { RequestHandler } from './$types';
 
@@ -11,14 +11,7 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 	checkCaller(caller);
 	const body = await parseJsonBody(event.request, tunnellingRequestSchema);
 	if (!body.ok) return body.response;
-	let result;
-	try {
-		result = await calculate({ kind: 'tunnelling', request: body.data }, caller);
-	} catch (e) {
-		if (e instanceof RangeError)
-			return apiError('bad_request', e.message, { potential: [e.message] });
-		throw e;
-	}
+	const result = await calculate({ kind: 'tunnelling', request: body.data }, caller);
 	return computedJson({
 		...result,
 		units: { energies: 'kcal/mol and cm⁻¹', grid: 'Å', wavefunctions: 'Å^-1/2', massAmu: 'u' },

@@ -5,7 +5,6 @@ import { apiHandler } from '$lib/server/api/handler';
 import { apiError } from '$lib/server/api/respond';
 import { db } from '$lib/server/db';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
-import { CsvLimitError } from '$lib/catalogue/csvRecords';
 import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { summariseCheck } from '$lib/server/uploads/summary';
 import { readUploadForm } from '$lib/server/uploads/uploadForm';
@@ -33,19 +32,12 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 			form.errors
 		);
 	}
-	let check;
-	try {
-		check = await checkUpload(db, form.text, form.kind, {
-			viewer: { groupIds: user.groupIds },
-			uploaderId: user.id,
-			limits: uploadCsvLimits
-		});
-	} catch (e) {
-		// The message names the row and the limit it passed.
-		if (e instanceof CsvLimitError)
-			return apiError('payload_too_large', e.message, { file: [e.message] });
-		throw e;
-	}
+	// A file past a shape limit is a CsvLimitError: 413, naming the row and the limit (`fields.file`).
+	const check = await checkUpload(db, form.text, form.kind, {
+		viewer: { groupIds: user.groupIds },
+		uploaderId: user.id,
+		limits: uploadCsvLimits
+	});
 	if (format === 'csv') {
 		const csv = Papa.unparse(
 			{

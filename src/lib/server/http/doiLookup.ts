@@ -1,5 +1,5 @@
 import { fail } from '@sveltejs/kit';
-import { lookUpDoi } from './doiService';
+import { lookUpDoi } from '../sources/doiService';
 
 /**
  * The "fill from DOI" step of the source form, shared by the new-entry and draft pages: the

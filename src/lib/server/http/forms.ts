@@ -1,6 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import type { z } from 'zod';
-import { fieldErrors } from '$lib/schemas/calc';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
 
 /**
  * Parses a form action's body with a schema: the data, or a 400 `fail` carrying the values sent

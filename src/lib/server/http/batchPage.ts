@@ -1,9 +1,9 @@
-import { error } from '@sveltejs/kit';
 import { parseSearchParams } from '$lib/schemas/searchParams';
 import { BATCH_PAGE_SIZE, batchQuerySchema } from '$lib/schemas/submission';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
-import { loadBatchRows } from './queue';
+import { loadBatchRows } from '../curation/queue';
+import { queryError } from './failures';
 
 /** The page of a CSV batch a submission page shows, from its URL (?page, ?flagged). */
 export async function batchForPage(db: Kysely<Database>, url: URL, submissionId: number) {
@@ -13,13 +13,7 @@ export async function batchForPage(db: Kysely<Database>, url: URL, submissionId:
 		for (const v of url.searchParams.getAll(key)) params.append(key, v);
 	}
 	const query = parseSearchParams(batchQuerySchema, params);
-	if (!query.ok) {
-		error(400, {
-			message: Object.entries(query.fields)
-				.map(([k, v]) => `${k}: ${v.join('; ')}`)
-				.join(' · ')
-		});
-	}
+	if (!query.ok) queryError(query.fields);
 	const flagged = query.data.flagged === '1';
 	const rows = await loadBatchRows(db, submissionId, {
 		offset: (query.data.page - 1) * BATCH_PAGE_SIZE,
