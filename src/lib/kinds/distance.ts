@@ -1,23 +1,42 @@
 import { distanceSchema } from '$lib/schemas/distance';
 import { DISTANCE_METHODS, DISTANCE_METHOD_LABELS } from '$lib/schemas/vocabulary';
+import { by, columnsFromFields, withAlternative } from './csvColumns';
 import { defineKind } from './kind';
 import { ACCESSION_HINT, field, options } from './formFields';
 
+const FIELDS = [
+	field('centreAAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	field('centreBAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	field('edgeToEdgeA', 'number', { required: true, unit: 'Å' }),
+	field('centreToCentreA', 'number', { unit: 'Å' }),
+	field('structureId', 'text', { required: true, hint: 'e.g. a PDB identifier' }),
+	field('method', 'select', {
+		required: true,
+		options: options(DISTANCE_METHODS, DISTANCE_METHOD_LABELS)
+	}),
+	field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
+	field('note', 'textarea')
+];
+
 export const distance = defineKind({
 	schema: distanceSchema,
-	formFields: [
-		field('centreAAccession', 'text', { required: true, hint: ACCESSION_HINT }),
-		field('centreBAccession', 'text', { required: true, hint: ACCESSION_HINT }),
-		field('edgeToEdgeA', 'number', { required: true, unit: 'Å' }),
-		field('centreToCentreA', 'number', { unit: 'Å' }),
-		field('structureId', 'text', { required: true, hint: 'e.g. a PDB identifier' }),
-		field('method', 'select', {
-			required: true,
-			options: options(DISTANCE_METHODS, DISTANCE_METHOD_LABELS)
-		}),
-		field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
-		field('note', 'textarea')
-	],
+	formFields: FIELDS,
 	references: { centreAAccession: 'centre', centreBAccession: 'centre', sourceAccession: 'source' },
+	upload: {
+		columns: [
+			...withAlternative(
+				withAlternative(
+					columnsFromFields(FIELDS, { method: 'crystal_structure' }),
+					'centreAAccession',
+					'protein + centreALabel'
+				),
+				'centreBAccession',
+				'protein + centreBLabel'
+			),
+			by('protein', 'Protein (name or accession)', 'with centreALabel and centreBLabel', ''),
+			by('centreALabel', 'Centre A label', 'label of centre A within that protein', ''),
+			by('centreBLabel', 'Centre B label', 'label of centre B within that protein', '')
+		]
+	},
 	submissionTitle: (d) => `${d.centreAAccession} – ${d.centreBAccession}`
 });

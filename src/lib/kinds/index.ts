@@ -1,6 +1,7 @@
 import type { z } from 'zod';
 import type { EntryKind } from '$lib/schemas/vocabulary';
-import type { KindModule } from './kind';
+import type { UploadKind } from '$lib/catalogue/uploadKinds';
+import type { KindModule, KindUpload } from './kind';
 import { centre } from './centre';
 import { distance } from './distance';
 import { potential } from './potential';
@@ -16,10 +17,12 @@ export const KINDS = {
 	spin_record: spinRecord,
 	distance,
 	source
-} satisfies Record<EntryKind, KindModule>;
+} satisfies {
+	[K in EntryKind]: KindModule & (K extends UploadKind ? { upload: KindUpload } : unknown);
+};
 
 /** What one version of an entry of kind K stores. */
 export type EntryDataByKind = { [K in EntryKind]: z.output<(typeof KINDS)[K]['schema']> };
 
-export type { KindModule } from './kind';
+export type { KindModule, KindUpload } from './kind';
 export type { FormField, FormFieldType } from './formFields';

@@ -1,6 +1,7 @@
 import type { z } from 'zod';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { UploadColumn } from './csvColumns';
 import type { FormField } from './formFields';
 
 // What the browser and the server share about one kind of entry. Each kind has one module
@@ -30,9 +31,24 @@ export interface KindModule<
 	references: Readonly<Record<string, EntryKind>>;
 	/** A title a curator can scan in the queue, from the data as submitted. */
 	submissionTitle(data: z.output<Stored>): string;
+	/** CSV uploads of this kind (the kinds in UPLOAD_KINDS have them). */
+	upload?: KindUpload;
 }
 
-/** Declares a kind's module with its data typed from its schema. */
-export const defineKind = <Stored extends z.ZodType, Input extends z.ZodType = Stored>(
-	module: KindModule<Stored, Input>
-): KindModule<Stored, Input> => module;
+export interface KindUpload {
+	/** The file's columns: the form's fields, and columns that name entries in words. */
+	columns: readonly UploadColumn[];
+}
+
+/**
+ * Declares a kind's module with its data typed from its schema; whether it has CSV uploads
+ * stays in its type, so that the table of kinds can require them of the upload kinds.
+ */
+export const defineKind = <
+	Stored extends z.ZodType,
+	Input extends z.ZodType = Stored,
+	Upload extends KindUpload | undefined = undefined
+>(
+	module: KindModule<Stored, Input> & { upload?: Upload }
+): KindModule<Stored, Input> & { upload: Upload } =>
+	module as KindModule<Stored, Input> & { upload: Upload };

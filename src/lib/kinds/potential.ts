@@ -6,12 +6,40 @@ import {
 	POTENTIAL_METHODS,
 	POTENTIAL_METHOD_LABELS
 } from '$lib/schemas/vocabulary';
+import { CENTRE_BY_NAME, columnsFromFields, withAlternative } from './csvColumns';
 import { defineKind } from './kind';
 import { ACCESSION_HINT, TEMPERATURE_HINT, field, options } from './formFields';
 
 const EM_FIELD = potentialSchema.shape.emMvShe;
 
 const ALL_COUPLES = [...new Set(Object.values(COUPLES_BY_KIND).flat())];
+
+const FIELDS = [
+	field('centreAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	field('couple', 'text', {
+		required: true,
+		suggestions: ALL_COUPLES,
+		hint: 'oxidised/reduced level, e.g. [4Fe-4S]2+/1+'
+	}),
+	field('reportedValue', 'number', { required: true, hint: 'as reported, before conversion' }),
+	field('reportedUnit', 'select', { required: true, options: options(POTENTIAL_UNITS) }),
+	field('referenceElectrode', 'select', {
+		required: true,
+		options: options(REFERENCE_ELECTRODES, REFERENCE_ELECTRODE_LABELS)
+	}),
+	field('ph', 'number'),
+	field('temperatureK', 'temperature', { unit: 'K', hint: TEMPERATURE_HINT }),
+	field('ionicStrengthM', 'number', { unit: 'M' }),
+	field('buffer', 'text'),
+	field('method', 'select', {
+		required: true,
+		options: options(POTENTIAL_METHODS, POTENTIAL_METHOD_LABELS)
+	}),
+	field('nElectrons', 'number', { hint: '1 unless the couple is a two-electron one' }),
+	field('uncertaintyMv', 'number', { unit: 'mV', hint: 'one standard uncertainty' }),
+	field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
+	field('note', 'textarea')
+];
 
 export const potential = defineKind({
 	schema: potentialSchema,
@@ -32,32 +60,22 @@ export const potential = defineKind({
 			};
 		}
 	},
-	formFields: [
-		field('centreAccession', 'text', { required: true, hint: ACCESSION_HINT }),
-		field('couple', 'text', {
-			required: true,
-			suggestions: ALL_COUPLES,
-			hint: 'oxidised/reduced level, e.g. [4Fe-4S]2+/1+'
-		}),
-		field('reportedValue', 'number', { required: true, hint: 'as reported, before conversion' }),
-		field('reportedUnit', 'select', { required: true, options: options(POTENTIAL_UNITS) }),
-		field('referenceElectrode', 'select', {
-			required: true,
-			options: options(REFERENCE_ELECTRODES, REFERENCE_ELECTRODE_LABELS)
-		}),
-		field('ph', 'number'),
-		field('temperatureK', 'temperature', { unit: 'K', hint: TEMPERATURE_HINT }),
-		field('ionicStrengthM', 'number', { unit: 'M' }),
-		field('buffer', 'text'),
-		field('method', 'select', {
-			required: true,
-			options: options(POTENTIAL_METHODS, POTENTIAL_METHOD_LABELS)
-		}),
-		field('nElectrons', 'number', { hint: '1 unless the couple is a two-electron one' }),
-		field('uncertaintyMv', 'number', { unit: 'mV', hint: 'one standard uncertainty' }),
-		field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
-		field('note', 'textarea')
-	],
+	formFields: FIELDS,
 	references: { centreAccession: 'centre', sourceAccession: 'source' },
+	upload: {
+		columns: [
+			// The unit and the electrode may instead ride in the value's header or cell: "(mV vs SCE)".
+			...withAlternative(
+				withAlternative(
+					withAlternative(columnsFromFields(FIELDS), 'centreAccession', 'protein + centreLabel'),
+					'reportedUnit',
+					'a unit in the reportedValue header or cell'
+				),
+				'referenceElectrode',
+				'"vs …" in the reportedValue header or cell'
+			),
+			...CENTRE_BY_NAME
+		]
+	},
 	submissionTitle: (d) => `${d.couple} of ${d.centreAccession}`
 });

@@ -1,23 +1,40 @@
 import { spinRecordSchema } from '$lib/schemas/spinRecord';
 import { SPIN_METHODS, SPIN_METHOD_LABELS } from '$lib/schemas/vocabulary';
+import { CENTRE_BY_NAME, columnsFromFields, withAlternative } from './csvColumns';
 import { defineKind } from './kind';
 import { ACCESSION_HINT, TEMPERATURE_HINT, field, options } from './formFields';
 
+const FIELDS = [
+	field('centreAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	field('oxidationLevel', 'text', { required: true, hint: 'e.g. [4Fe-4S]1+ or Fe3+' }),
+	field('spinS', 'number', { required: true, hint: 'whole or half-whole, e.g. 1/2 as 0.5' }),
+	field('gValues', 'numberList', { hint: 'one, two or three principal values' }),
+	field('temperatureK', 'temperature', { unit: 'K', hint: TEMPERATURE_HINT }),
+	field('method', 'select', {
+		required: true,
+		options: options(SPIN_METHODS, SPIN_METHOD_LABELS)
+	}),
+	field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
+	field('note', 'textarea')
+];
+
 export const spinRecord = defineKind({
 	schema: spinRecordSchema,
-	formFields: [
-		field('centreAccession', 'text', { required: true, hint: ACCESSION_HINT }),
-		field('oxidationLevel', 'text', { required: true, hint: 'e.g. [4Fe-4S]1+ or Fe3+' }),
-		field('spinS', 'number', { required: true, hint: 'whole or half-whole, e.g. 1/2 as 0.5' }),
-		field('gValues', 'numberList', { hint: 'one, two or three principal values' }),
-		field('temperatureK', 'temperature', { unit: 'K', hint: TEMPERATURE_HINT }),
-		field('method', 'select', {
-			required: true,
-			options: options(SPIN_METHODS, SPIN_METHOD_LABELS)
-		}),
-		field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
-		field('note', 'textarea')
-	],
+	formFields: FIELDS,
 	references: { centreAccession: 'centre', sourceAccession: 'source' },
+	upload: {
+		columns: [
+			...withAlternative(
+				columnsFromFields(FIELDS, {
+					method: 'cw_epr_x',
+					temperatureK: '10',
+					note: 'invented example row'
+				}),
+				'centreAccession',
+				'protein + centreLabel'
+			),
+			...CENTRE_BY_NAME
+		]
+	},
 	submissionTitle: (d) => `${d.oxidationLevel} of ${d.centreAccession}`
 });

@@ -3,6 +3,7 @@ import { yieldToEventLoop } from '../eventLoop';
 import type { Kysely } from 'kysely';
 import type { CsvLimits } from '$lib/catalogue/csvRecords';
 import { UPLOAD_COLUMNS, columnForHeader, type UploadKind } from '$lib/catalogue/uploadColumns';
+import { KINDS } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Protein } from '$lib/schemas/protein';
 import { parseEntryInput } from '$lib/schemas/submission';
@@ -174,7 +175,7 @@ export async function checkUpload(
 				`no source ${sourceText} in the registry (or not visible to you)`
 			);
 		const resolved = rules.resolve(r);
-		const parsed = parseEntryInput(kind, stripHelperColumns(values));
+		const parsed = parseEntryInput(kind, dataFields(kind, values));
 		if (!parsed.ok) {
 			for (const [field, messages] of Object.entries(parsed.fields)) {
 				if (missing.has(field) && messages.every((m) => m === 'required')) continue;
@@ -243,20 +244,9 @@ function hasIssueSince(
 	return false;
 }
 
-/** Columns that only find a protein or a centre (or describe a new protein); no entity field has these names. */
-const HELPER_COLUMNS = new Set([
-	'protein',
-	'centreLabel',
-	'centreALabel',
-	'centreBLabel',
-	'proteinName',
-	'organism',
-	'uniprot',
-	'structureIds'
-]);
-
-function stripHelperColumns(values: Record<string, unknown>): Record<string, unknown> {
-	const entity: Record<string, unknown> = {};
-	for (const key in values) if (!HELPER_COLUMNS.has(key)) entity[key] = values[key];
-	return entity;
+/** The row's values for the kind's data: columns that only find or describe entries left out. */
+function dataFields(kind: UploadKind, values: Record<string, unknown>): Record<string, unknown> {
+	const data: Record<string, unknown> = {};
+	for (const f of KINDS[kind].formFields) if (f.name in values) data[f.name] = values[f.name];
+	return data;
 }

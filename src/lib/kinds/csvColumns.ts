@@ -1,0 +1,118 @@
+import type { HeaderNames } from '$lib/catalogue/uploadKinds';
+import type { FormField } from './formFields';
+
+// The columns of a CSV upload are the kind's form fields (and so its schema's) plus columns
+// that name proteins and centres in words instead of accessions. Each uploadable kind lists its
+// columns with these helpers; header spellings and example values are shared across kinds.
+
+/** One column of an upload: a form field, or a column that finds an entry in words. */
+export interface UploadColumn extends FormField, HeaderNames {
+	/** A value for the template's example row (invented). */
+	example: string;
+	/** Required unless its alternative column(s) are given. */
+	alternative?: string;
+}
+
+/** A column that only finds an entry in words, or describes one to create: no field of the data. */
+export const by = (
+	name: string,
+	label: string,
+	hint: string,
+	example: string,
+	alternative?: string
+): UploadColumn => ({
+	name,
+	label,
+	type: 'text',
+	hint,
+	aliases: [],
+	example,
+	alternative
+});
+
+const ALIASES: Record<string, readonly string[]> = {
+	reportedValue: ['value', 'em', 'potential', 'midpoint potential', 'reported value'],
+	reportedUnit: ['unit'],
+	referenceElectrode: ['reference', 'electrode', 'reference electrode', 'vs'],
+	temperatureK: ['temperature', 't'],
+	ionicStrengthM: ['ionic strength'],
+	uncertaintyMv: ['uncertainty', 'error', 'sd'],
+	nElectrons: ['n'],
+	sourceAccession: ['source'],
+	centreAccession: ['centre accession', 'center accession'],
+	centreAAccession: ['centre a accession'],
+	centreBAccession: ['centre b accession'],
+	proteinAccession: ['protein accession'],
+	cofactorKind: ['kind', 'cofactor', 'cofactor kind'],
+	oxidationLevel: ['oxidation level', 'level'],
+	spinS: ['spin', 's'],
+	gValues: ['g', 'g values', 'g-values'],
+	edgeToEdgeA: ['edge to edge', 'edge-to-edge', 'edge'],
+	centreToCentreA: ['centre to centre', 'centre-to-centre', 'center to center'],
+	structureId: ['structure', 'pdb'],
+	coordinatesA: ['coordinates', 'centroid']
+};
+
+const EXAMPLES: Record<string, string> = {
+	centreAccession: 'HL000012',
+	couple: '[4Fe-4S]2+/1+',
+	reportedValue: '-0.512',
+	reportedUnit: 'V',
+	referenceElectrode: 'AgAgCl_sat',
+	ph: '7.5',
+	temperatureK: '25 °C',
+	ionicStrengthM: '0.1',
+	buffer: 'HEPES 50 mM',
+	method: 'epr_titration',
+	nElectrons: '1',
+	uncertaintyMv: '15',
+	sourceAccession: '',
+	note: 'invented example row',
+	oxidationLevel: '[4Fe-4S]1+',
+	spinS: '0.5',
+	gValues: '2.05 1.94 1.89',
+	centreAAccession: 'HL000011',
+	centreBAccession: 'HL000012',
+	edgeToEdgeA: '11.2',
+	centreToCentreA: '14.0',
+	structureId: 'DEMO1',
+	proteinAccession: '',
+	label: 'N7',
+	cofactorKind: 'fe4s4',
+	ligation: 'Cys4',
+	chainId: 'B',
+	residues: '45 48 51 83',
+	coordinatesA: '10.1 -4.2 33.0'
+};
+
+/** The kind's form fields as columns, with the shared aliases and examples. */
+export function columnsFromFields(
+	fields: readonly FormField[],
+	examples: Record<string, string> = {}
+): UploadColumn[] {
+	return fields.map((f) => ({
+		...f,
+		aliases: ALIASES[f.name] ?? [],
+		example: examples[f.name] ?? EXAMPLES[f.name] ?? ''
+	}));
+}
+
+/** Makes a required column optional when another column (or a unit in a header) can stand in. */
+export function withAlternative(
+	columns: UploadColumn[],
+	name: string,
+	alternative: string
+): UploadColumn[] {
+	return columns.map((c) => (c.name === name ? { ...c, required: false, alternative } : c));
+}
+
+/** A centre named by its protein and label instead of its accession. */
+export const CENTRE_BY_NAME = [
+	by(
+		'protein',
+		'Protein (name or accession)',
+		'with centreLabel, instead of the centre accession',
+		''
+	),
+	by('centreLabel', 'Centre label', "the centre's label within that protein, e.g. N2", '')
+];
