@@ -48,7 +48,8 @@ describe('toSHE / fromSHE', () => {
 				fc.double({ min: -2000, max: 2000, noNaN: true }),
 				fc.constantFrom(...REFERENCE_ELECTRODES),
 				fc.double({ min: 273.15, max: 343.15, noNaN: true }),
-				(mv, electrode, t) => Math.abs(fromSHE(toSHE(mv, electrode, t), electrode, t) - mv) < 1e-9
+				(mv, electrode, t) =>
+					expect(Math.abs(fromSHE(toSHE(mv, electrode, t), electrode, t) - mv)).toBeLessThan(1e-9)
 			)
 		);
 	});
