@@ -9,6 +9,9 @@ export default defineConfig({
 		watch: { ignored: ['**/data/**', '**/bench/.data/**'] }
 	},
 	test: {
+		// A test that makes no assertion cannot fail: every test in every project must call expect().
+		// Projects inherit this through `extends: true`.
+		expect: { requireAssertions: true },
 		projects: [
 			{
 				extends: true,

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, inject, it } from 'vitest';
 import { ROLES } from '$lib/server/auth/roles';
 import type { Role } from '$lib/server/db/schema';
 import accounts from '../../seed/demoAccounts.json';
-import { MUTATIONS, type Mutation } from '../support/mutations';
+import { MUTATIONS, type Answer, type Mutation } from '../support/mutations';
 import { signInCookie } from '../support/session';
 
 // Every mutating route × (signed out, reader, contributor, curator, admin), from one table.
@@ -14,9 +14,10 @@ beforeAll(async () => {
 		cookies.set(a.role as Role, await signInCookie(base, a.email, a.password));
 });
 
-type Outcome = 'allowed' | 'sign-in required' | 'forbidden';
+type Refusal = 'sign-in required' | 'forbidden';
 
-async function attempt(m: Mutation, role: Role | null): Promise<Outcome> {
+/** What the server answered, in the terms of the table (see Answer in tests/support/mutations.ts). */
+async function attempt(m: Mutation, role: Role | null): Promise<Answer | Refusal> {
 	const headers: Record<string, string> = { origin: base };
 	if (role) headers.cookie = cookies.get(role)!;
 	const isJson = 'json' in m.body;
@@ -35,25 +36,38 @@ async function attempt(m: Mutation, role: Role | null): Promise<Outcome> {
 	});
 	if (res.status === 401) return 'sign-in required';
 	if (res.status === 403) return 'forbidden';
-	if (!isJson) {
-		const body = (await res.json()) as { type: string; status?: number; location?: string };
-		if (body.type === 'redirect' && body.location?.startsWith('/signin')) return 'sign-in required';
-		if (body.type === 'error' && body.status === 403) return 'forbidden';
+	if (isJson) {
+		const body = (await res.json()) as { error?: { code?: string } };
+		return body.error ? { status: res.status, code: body.error.code } : { status: res.status };
 	}
-	return 'allowed';
+	const body = (await res.json()) as {
+		type: NonNullable<Answer['type']>;
+		status?: number;
+		location?: string;
+		error?: { message?: string };
+	};
+	if (body.type === 'redirect' && body.location?.startsWith('/signin')) return 'sign-in required';
+	if (body.type === 'error' && res.status === 403) return 'forbidden';
+	if (body.type === 'error')
+		return { type: 'error', status: res.status, message: body.error?.message };
+	return { type: body.type, status: body.status ?? res.status };
 }
 
-function expected(m: Mutation, role: Role | null): Outcome {
-	if (m.least === null) return 'allowed';
+function expected(m: Mutation, role: Role | null): Answer | Refusal {
+	if (m.least === null) return m.allowed;
 	if (role === null) return 'sign-in required';
-	return ROLES.indexOf(role) >= ROLES.indexOf(m.least) ? 'allowed' : 'forbidden';
+	return ROLES.indexOf(role) >= ROLES.indexOf(m.least) ? m.allowed : 'forbidden';
 }
+
+const label = (e: Answer | Refusal) =>
+	typeof e === 'string' ? e : `allowed (${[e.type, e.status, e.code].filter(Boolean).join(' ')})`;
 
 describe('authorization matrix', () => {
 	for (const m of MUTATIONS) {
 		for (const role of [null, ...ROLES] as (Role | null)[]) {
-			it(`${m.url} (${m.name}) as ${role ?? 'signed out'} → ${expected(m, role)}`, async () => {
-				expect(await attempt(m, role)).toBe(expected(m, role));
+			const want = expected(m, role);
+			it(`${m.url} (${m.name}) as ${role ?? 'signed out'} → ${label(want)}`, async () => {
+				expect(await attempt(m, role)).toEqual(want);
 				// Signing out ends the session on the server: the next attempts need a new one.
 				if (m.endsSession && role) {
 					const a = accounts.find((x) => x.role === role)!;

@@ -16,9 +16,31 @@ export interface Mutation {
 	least: Role | null;
 	/** A harmless body for the attempt (form fields or JSON). */
 	body: Record<string, string> | { json: unknown };
+	/**
+	 * The answer when the role check lets the caller through. The bodies are harmless, so most
+	 * answers are the specific refusal that comes after the guard (a validation failure, an
+	 * unknown submission); a server error or a stray 404 no longer passes for "allowed".
+	 * For +server.ts: the HTTP status and the error code of the JSON body. For a form action: the
+	 * ActionResult's type and status (an `error` result's status is the HTTP status), and for an
+	 * error its message.
+	 */
+	allowed: Answer;
 	/** Ends the caller's session(s) when allowed: the matrix signs in again after trying it. */
 	endsSession?: true;
 }
+
+export interface Answer {
+	status: number;
+	/** Form actions only. */
+	type?: 'success' | 'failure' | 'redirect' | 'error';
+	/** +server.ts only: `error.code` of the JSON body. */
+	code?: string;
+	/** Form action errors only. */
+	message?: string;
+}
+
+const invalid: Answer = { type: 'failure', status: 400 };
+const noSubmission: Answer = { type: 'error', status: 404, message: 'no submission 999999' };
 
 export const MUTATIONS: Mutation[] = [
 	{
@@ -26,42 +48,48 @@ export const MUTATIONS: Mutation[] = [
 		name: 'default',
 		url: '/signin',
 		least: null,
-		body: { email: 'nobody@example.test', password: 'x' }
+		body: { email: 'nobody@example.test', password: 'x' },
+		allowed: invalid
 	},
 	{
 		file: 'signup/+page.server.ts',
 		name: 'default',
 		url: '/signup',
 		least: null,
-		body: { name: 'x', email: 'not-an-address', password: 'short', confirm: 'other' }
+		body: { name: 'x', email: 'not-an-address', password: 'short', confirm: 'other' },
+		allowed: invalid
 	},
 	{
 		file: 'reset/+page.server.ts',
 		name: 'default',
 		url: '/reset',
 		least: null,
-		body: { email: 'not-an-address' }
+		body: { email: 'not-an-address' },
+		allowed: invalid
 	},
 	{
 		file: 'reset/[token]/+page.server.ts',
 		name: 'default',
 		url: '/reset/not-a-real-token-value-xx',
 		least: null,
-		body: { password: 'short', confirm: 'x' }
+		body: { password: 'short', confirm: 'x' },
+		allowed: invalid
 	},
 	{
 		file: 'signin/link/+page.server.ts',
 		name: 'default',
 		url: '/signin/link',
 		least: null,
-		body: { email: 'not-an-address' }
+		body: { email: 'not-an-address' },
+		allowed: invalid
 	},
 	{
 		file: 'signin/oidc/+page.server.ts',
 		name: 'default',
 		url: '/signin/oidc',
 		least: null,
-		body: { redirectTo: '/' }
+		body: { redirectTo: '/' },
+		allowed: { type: 'redirect', status: 302 }
 	},
 	{
 		file: 'signout/+page.server.ts',
@@ -69,6 +97,7 @@ export const MUTATIONS: Mutation[] = [
 		url: '/signout',
 		least: null,
 		body: {},
+		allowed: { type: 'redirect', status: 302 },
 		endsSession: true
 	},
 	{
@@ -76,77 +105,88 @@ export const MUTATIONS: Mutation[] = [
 		name: 'default',
 		url: '/calc/titration',
 		least: null,
-		body: { points: '' }
+		body: { points: '' },
+		allowed: invalid
 	},
 	{
 		file: 'calc/tunnelling/+page.server.ts',
 		name: 'default',
 		url: '/calc/tunnelling',
 		least: null,
-		body: { imagFreqCm1: '900' }
+		body: { imagFreqCm1: '900' },
+		allowed: { type: 'success', status: 200 }
 	},
 	{
 		file: 'api/v1/calc/titration/+server.ts',
 		name: 'POST',
 		url: '/api/v1/calc/titration',
 		least: null,
-		body: { json: { points: [] } }
+		body: { json: { points: [] } },
+		allowed: { status: 400, code: 'bad_request' }
 	},
 	{
 		file: 'api/v1/calc/tunnelling/+server.ts',
 		name: 'POST',
 		url: '/api/v1/calc/tunnelling',
 		least: null,
-		body: { json: { imagFreqCm1: 900 } }
+		body: { json: { imagFreqCm1: 900 } },
+		allowed: { status: 200 }
 	},
 	{
 		file: 'api/v1/submissions/+server.ts',
 		name: 'POST',
 		url: '/api/v1/submissions',
 		least: 'contributor',
-		body: { json: {} }
+		body: { json: {} },
+		allowed: { status: 400, code: 'bad_request' }
 	},
 	{
 		file: 'api/v1/[...rest]/+server.ts',
 		name: 'fallback',
 		url: '/api/v1/nothing-here',
 		least: null,
-		body: { json: {} }
+		body: { json: {} },
+		allowed: { status: 404, code: 'not_found' }
 	},
 	{
 		file: '(admin)/admin/users/+page.server.ts',
 		name: 'role',
 		url: '/admin/users?/role',
 		least: 'admin',
-		body: { userId: 'no-such-user', role: 'reader' }
+		body: { userId: 'no-such-user', role: 'reader' },
+		allowed: invalid
 	},
 	{
 		file: '(admin)/admin/users/+page.server.ts',
 		name: 'disabled',
 		url: '/admin/users?/disabled',
 		least: 'admin',
-		body: { userId: 'no-such-user', disabled: 'false' }
+		body: { userId: 'no-such-user', disabled: 'false' },
+		allowed: invalid
 	},
 	{
 		file: '(admin)/admin/groups/+page.server.ts',
 		name: 'create',
 		url: '/admin/groups?/create',
 		least: 'admin',
-		body: { name: 'x', slug: 'Not A Slug' }
+		body: { name: 'x', slug: 'Not A Slug' },
+		allowed: invalid
 	},
 	{
 		file: '(admin)/admin/groups/+page.server.ts',
 		name: 'add',
 		url: '/admin/groups?/add',
 		least: 'admin',
-		body: { groupId: '999999', email: 'nobody@example.test' }
+		body: { groupId: '999999', email: 'nobody@example.test' },
+		allowed: invalid
 	},
 	{
 		file: '(admin)/admin/groups/+page.server.ts',
 		name: 'remove',
 		url: '/admin/groups?/remove',
 		least: 'admin',
-		body: { groupId: '999999', userId: 'no-such-user' }
+		body: { groupId: '999999', userId: 'no-such-user' },
+		allowed: invalid
 	},
 	// Curation: harmless bodies (empty forms, unknown submissions) that pass the guard and fail after it.
 	...(['save', 'submit', 'lookup'] as const).map((name) => ({
@@ -154,42 +194,49 @@ export const MUTATIONS: Mutation[] = [
 		name,
 		url: `/submissions/new/potential?/${name}`,
 		least: 'contributor' as const,
-		body: {}
+		body: {},
+		allowed: invalid
 	})),
 	...(['save', 'submit', 'lookup', 'withdraw', 'comment'] as const).map((name) => ({
 		file: '(app)/submissions/[id=id]/+page.server.ts',
 		name,
 		url: `/submissions/999999?/${name}`,
 		least: 'contributor' as const,
-		body: {}
+		body: {},
+		// An unknown submission is looked up before anything else; a lookup or comment is read first.
+		allowed: name === 'lookup' || name === 'comment' ? invalid : noSubmission
 	})),
 	...(['decide', 'batch', 'comment'] as const).map((name) => ({
 		file: '(curation)/review/[id=id]/+page.server.ts',
 		name,
 		url: `/review/999999?/${name}`,
 		least: 'curator' as const,
-		body: {}
+		body: {},
+		allowed: name === 'batch' ? noSubmission : invalid
 	})),
 	...(['check', 'commit'] as const).map((name) => ({
 		file: '(app)/submissions/upload/+page.server.ts',
 		name,
 		url: `/submissions/upload?/${name}`,
 		least: 'contributor' as const,
-		body: { kind: 'potential' }
+		body: { kind: 'potential' },
+		allowed: invalid
 	})),
 	{
 		file: 'api/v1/uploads/check/+server.ts',
 		name: 'POST',
 		url: '/api/v1/uploads/check',
 		least: 'contributor',
-		body: { json: {} }
+		body: { json: {} },
+		allowed: { status: 400, code: 'bad_request' }
 	},
 	{
 		file: 'account/+page.server.ts',
 		name: 'notices',
 		url: '/account?/notices',
 		least: 'curator',
-		body: { curationNotices: 'not-a-choice' }
+		body: { curationNotices: 'not-a-choice' },
+		allowed: invalid
 	},
 	{
 		file: 'account/+page.server.ts',
@@ -197,6 +244,7 @@ export const MUTATIONS: Mutation[] = [
 		url: '/account?/signOutEverywhere',
 		least: 'reader',
 		body: {},
+		allowed: { type: 'redirect', status: 302 },
 		endsSession: true
 	}
 ];

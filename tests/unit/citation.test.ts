@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
 import { citeEntry, escapeBibtex } from '$lib/catalogue/citation';
-import { diffEntryData } from '$lib/catalogue/diff';
 
 const entry = {
 	accession: 'HL000046',
@@ -40,15 +39,4 @@ describe('citations', () => {
 		expect(c.text).toContain('https://hopline.example/e/HL000046/v2 (accessed 2026-12-02)'));
 	it('escapes braces and backslashes for BibTeX', () =>
 		expect(escapeBibtex('a{b}\\c')).toBe('a\\{b\\}\\textbackslash{}c'));
-});
-
-describe('version diff', () => {
-	it('lists only changed fields, in order', () => {
-		expect(
-			diffEntryData({ a: 1, b: [1, 2], c: 'x' }, { a: 1, b: [1, 3], c: 'y', d: null })
-		).toEqual([
-			{ field: 'b', before: [1, 2], after: [1, 3] },
-			{ field: 'c', before: 'x', after: 'y' }
-		]);
-	});
 });

@@ -75,7 +75,8 @@ describe('Moser–Dutton ruler', () => {
 				fc.double({ min: 0.01, max: 5, noNaN: true }),
 				(r, dg, l) => {
 					const x = moserDuttonRate({ edgeDistanceA: r, deltaGEv: dg, lambdaEv: l });
-					return Number.isFinite(x.rate) && Number.isFinite(x.log10Rate);
+					expect(Number.isFinite(x.rate)).toBe(true);
+					expect(Number.isFinite(x.log10Rate)).toBe(true);
 				}
 			)
 		);
@@ -112,7 +113,7 @@ describe('nonadiabatic Marcus rate', () => {
 					const f = marcusRate({ couplingEv: 0.001, deltaGEv: dg, lambdaEv: l }).log10Rate;
 					const b = marcusRate({ couplingEv: 0.001, deltaGEv: -dg, lambdaEv: l }).log10Rate;
 					const expected = -dg / (BOLTZMANN_EV_PER_K * 298.15) / Math.LN10;
-					return Math.abs(f - b - expected) < 1e-9;
+					expect(Math.abs(f - b - expected)).toBeLessThan(1e-9);
 				}
 			)
 		);

@@ -65,11 +65,50 @@ describe('fitNernst', () => {
 						{ components: 1, n: 1 }
 					);
 					const c = fit.components[0]!;
-					return Math.abs(c.emMv - em) < 5 * c.emSeMv && c.emSeMv > 0 && c.emSeMv < 20;
+					expect(Math.abs(c.emMv - em)).toBeLessThan(5 * c.emSeMv);
+					expect(c.emSeMv).toBeGreaterThan(0);
+					expect(c.emSeMv).toBeLessThan(20);
 				}
 			),
 			{ numRuns: 60 }
 		);
+	});
+	/*
+	 * An external case: the data come from the Nernst equation written out here, not from the
+	 * library's nernstFractionReduced. Fraction reduced x = 1 / (1 + exp[nF(E − Em)/RT]), with
+	 * CODATA 2018 (exact since the 2019 SI): F = 96485.33212 C/mol, R = 8.314462618 J/(mol K).
+	 * A worked point: at E − Em = (RT/F)·ln 10 = 59.159 mV (n = 1, 298.15 K) the ratio ox/red is 10,
+	 * so x = 1/11 exactly.
+	 */
+	describe('on a titration written out from the Nernst equation (CODATA 2018 F and R)', () => {
+		const F = 96485.33212;
+		const R = 8.314462618;
+		const T = 298.15;
+		const fractionReduced = (eMv: number, emMv: number, n: number) =>
+			1 / (1 + Math.exp((n * F * ((eMv - emMv) / 1000)) / (R * T)));
+		const titration = (emMv: number, n: number, amplitude: number, offset: number) =>
+			Array.from({ length: 41 }, (_, i) => {
+				const e = emMv - 200 + 10 * i;
+				return { potentialMv: e, signal: offset + amplitude * fractionReduced(e, emMv, n) };
+			});
+		it('the worked point: ox/red = 10 at 59.159 mV above Em gives x = 1/11', () => {
+			const slopeMv = ((R * T) / F) * Math.LN10 * 1000;
+			expect(slopeMv).toBeCloseTo(59.159, 3);
+			expect(fractionReduced(-250 + slopeMv, -250, 1)).toBeCloseTo(1 / 11, 12);
+		});
+		it('recovers Em, amplitude and offset of a one-electron centre (n fixed)', () => {
+			const fit = fitNernst(titration(-345, 1, 0.72, 0.05), { components: 1, n: 1 });
+			expect(fit.components[0]!.emMv).toBeCloseTo(-345, 4);
+			expect(fit.components[0]!.amplitude).toBeCloseTo(0.72, 5);
+			expect(fit.offset).toBeCloseTo(0.05, 5);
+			expect(fit.rmsd).toBeLessThan(1e-6);
+		});
+		it('recovers n = 2 when n is fitted (a two-electron flavin-like step)', () => {
+			const fit = fitNernst(titration(-180, 2, -0.4, 0.9), { components: 1 });
+			expect(fit.components[0]!.n).toBeCloseTo(2, 4);
+			expect(fit.components[0]!.emMv).toBeCloseTo(-180, 4);
+			expect(fit.components[0]!.amplitude).toBeCloseTo(-0.4, 5);
+		});
 	});
 	// Covariance s²(JᵀJ)⁻¹ (Numerical Recipes §15.5): about 95 % of fits should land within 1.96 SE.
 	it('standard errors are calibrated (coverage near 95 %)', () => {

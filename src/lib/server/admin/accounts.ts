@@ -174,16 +174,28 @@ export async function addGroupMember(
 	await audit(trx, actorId, 'group.add_member', null, { groupId, userId: user.id });
 }
 
+/**
+ * @throws {AdminRuleError} for an unknown group, or an account that is not a member of it (say,
+ * removed meanwhile from another page): nothing is removed, and nothing is written to the log.
+ */
 export async function removeGroupMember(
 	trx: Kysely<Database>,
 	actorId: string,
 	groupId: number,
 	userId: string
 ): Promise<void> {
-	await trx
+	const group = await trx
+		.selectFrom('research_group')
+		.select('id')
+		.where('id', '=', groupId)
+		.executeTakeFirst();
+	if (!group) throw new AdminRuleError('groupId', 'no such group');
+	const removed = await trx
 		.deleteFrom('group_member')
 		.where('group_id', '=', groupId)
 		.where('user_id', '=', userId)
-		.execute();
+		.executeTakeFirst();
+	if (Number(removed.numDeletedRows) === 0)
+		throw new AdminRuleError('userId', 'that account is not a member of this group');
 	await audit(trx, actorId, 'group.remove_member', { groupId, userId }, null);
 }

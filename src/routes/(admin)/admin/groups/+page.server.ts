@@ -45,9 +45,12 @@ export const actions: Actions = {
 		const admin = requireRole(event, 'admin');
 		const form = await parseForm(event.request, removeMemberForm);
 		if (!form.ok) return form.failure;
-		await db
+		return db
 			.transaction()
-			.execute((trx) => removeGroupMember(trx, admin.id, form.data.groupId, form.data.userId));
-		return { done: 'Member removed.' };
+			.execute((trx) => removeGroupMember(trx, admin.id, form.data.groupId, form.data.userId))
+			.then(
+				() => ({ done: 'Member removed.' }),
+				(e: unknown) => toFormFailure(e, event, form.values)
+			);
 	}
 };

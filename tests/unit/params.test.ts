@@ -1,0 +1,49 @@
+import { readdirSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { match as accession } from '../../src/params/accession';
+import { match as id } from '../../src/params/id';
+import { match as kind } from '../../src/params/kind';
+import { match as version } from '../../src/params/version';
+
+// Every route matcher in src/params, each with what it takes and what it refuses.
+const MATCHERS: Record<string, { match: (param: string) => boolean; yes: string[]; no: string[] }> =
+	{
+		accession: {
+			match: accession,
+			yes: ['HL000123', 'HL999999', 'HL1000000'],
+			no: ['HL12', 'hl000123', 'HL0000123', 'HL0100000', 'HL00012A', ' HL000123', '']
+		},
+		id: {
+			match: id,
+			yes: ['1', '42', '9999999999'],
+			no: ['0', '01', '-1', '1.5', 'x', '12345678901', '']
+		},
+		kind: {
+			match: kind,
+			yes: ['potential', 'spin_record', 'distance', 'centre', 'protein', 'source'],
+			no: ['spin-record', 'Potential', 'potentials', '']
+		},
+		version: {
+			match: version,
+			yes: ['v1', 'v2', 'v12'],
+			no: ['v0', 'v01', '2', 'v', 'v1a', 'v-1', 'V1', '']
+		}
+	};
+
+describe('route matchers (src/params)', () => {
+	it('are all listed here', () => {
+		const files = readdirSync('src/params')
+			.filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts'))
+			.map((f) => f.replace(/\.ts$/, ''))
+			.sort();
+		expect(Object.keys(MATCHERS).sort()).toEqual(files);
+	});
+	for (const [name, { match, yes, no }] of Object.entries(MATCHERS)) {
+		it(`${name} takes ${yes.join(', ')}`, () => {
+			for (const param of yes) expect(match(param), param).toBe(true);
+		});
+		it(`${name} refuses ${no.map((x) => JSON.stringify(x)).join(', ')}`, () => {
+			for (const param of no) expect(match(param), param).toBe(false);
+		});
+	}
+});
