@@ -5,14 +5,14 @@ import {
 } from '$lib/science/referenceElectrodes';
 import {
 	COFACTOR_KIND_LABELS,
-	DISTANCE_METHOD_LABELS,
-	POTENTIAL_METHOD_LABELS,
-	SPIN_METHOD_LABELS,
+	METHOD_LABELS,
 	type CofactorKind,
 	type DistanceMethod,
 	type PotentialMethod,
 	type SpinMethod
 } from '$lib/schemas/vocabulary';
+
+type Method = PotentialMethod | SpinMethod | DistanceMethod;
 
 /** How each field of an entry's data is named and shown, with its unit. */
 
@@ -66,7 +66,7 @@ export function fieldLabel(field: string): string {
 }
 
 /** A field's value as text with its unit; null/empty shows as an em dash. */
-export function formatField(field: string, value: unknown, kind?: string): string {
+export function formatField(field: string, value: unknown): string {
 	if (value === null || value === undefined || (Array.isArray(value) && value.length === 0))
 		return '—';
 	switch (field) {
@@ -94,13 +94,7 @@ export function formatField(field: string, value: unknown, kind?: string): strin
 			return `(${c.x}, ${c.y}, ${c.z})`;
 		}
 		case 'method':
-			return (
-				(kind === 'spin_record'
-					? SPIN_METHOD_LABELS[value as SpinMethod]
-					: kind === 'distance'
-						? DISTANCE_METHOD_LABELS[value as DistanceMethod]
-						: POTENTIAL_METHOD_LABELS[value as PotentialMethod]) ?? String(value)
-			);
+			return METHOD_LABELS[value as Method] ?? String(value);
 	}
 	if (Array.isArray(value)) return value.join(field === 'authors' ? '; ' : ', ');
 	return String(value);

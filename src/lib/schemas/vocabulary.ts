@@ -145,6 +145,13 @@ export const DISTANCE_METHOD_LABELS: Record<DistanceMethod, string> = {
 	structural_model: 'structural model (not an experimental structure)'
 };
 
+/** Every method's label: an identifier two vocabularies share ('computed') has one label (tested). */
+export const METHOD_LABELS: Record<PotentialMethod | SpinMethod | DistanceMethod, string> = {
+	...POTENTIAL_METHOD_LABELS,
+	...SPIN_METHOD_LABELS,
+	...DISTANCE_METHOD_LABELS
+};
+
 export const SOURCE_KINDS = ['publication', 'dataset'] as const;
 export type SourceKind = (typeof SOURCE_KINDS)[number];
 

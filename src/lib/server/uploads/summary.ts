@@ -26,9 +26,7 @@ export function summariseCheck(check: UploadCheck, limits: { issues: number; pre
 			rows: check.entries.slice(0, limits.preview).map((e) => ({
 				row: e.row,
 				warnings: e.warnings.length,
-				cells: fields.map((f) =>
-					formatField(f, (e.entry.data as Record<string, unknown>)[f], check.kind)
-				)
+				cells: fields.map((f) => formatField(f, (e.entry.data as Record<string, unknown>)[f]))
 			}))
 		}
 	};
