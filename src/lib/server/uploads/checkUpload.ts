@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { yieldToEventLoop } from '../eventLoop';
+import { setImmediate } from 'node:timers/promises';
 import type { Kysely } from 'kysely';
 import { potentialConflict } from '$lib/catalogue/conflicts';
 import type { CsvLimits } from '$lib/catalogue/csvRecords';
@@ -145,7 +145,7 @@ export async function checkUpload(
 	const proteins: PlannedProtein[] = [];
 
 	for (let i = 0; i < table.rows.length; i++) {
-		if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
+		if (i > 0 && i % YIELD_EVERY === 0) await setImmediate();
 		const { row, cells } = table.rows[i] as (typeof table.rows)[number];
 		const before = issues.length;
 		const values: Record<string, unknown> = {};

@@ -1,5 +1,5 @@
 import { sql, type Kysely } from 'kysely';
-import { yieldToEventLoop } from '../eventLoop';
+import { setImmediate } from 'node:timers/promises';
 import { formatAccession } from '$lib/schemas/accession';
 import { UPLOAD_KIND_NOUNS } from '$lib/catalogue/uploadColumns';
 import type { SessionUser } from '../auth/roles';
@@ -143,7 +143,7 @@ export async function commitUpload(
 				})
 			)
 			.execute();
-		await yieldToEventLoop();
+		await setImmediate();
 	}
 
 	await writeAudit(trx, {

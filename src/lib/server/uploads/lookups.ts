@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import { yieldToEventLoop } from '../eventLoop';
+import { setImmediate } from 'node:timers/promises';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { entryIsVisible, potentialIsVisible, type Viewer } from '../catalogue/visibility';
@@ -67,7 +67,7 @@ async function paged<T extends { entry_id: number }>(
 		}
 		if (rows.length < PAGE) return all;
 		after = (rows.at(-1) as T).entry_id;
-		await yieldToEventLoop();
+		await setImmediate();
 	}
 }
 

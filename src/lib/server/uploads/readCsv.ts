@@ -5,7 +5,7 @@ import {
 	type CsvLimits
 } from '$lib/catalogue/csvRecords';
 import { config } from '../config';
-import { yieldToEventLoop } from '../eventLoop';
+import { setImmediate } from 'node:timers/promises';
 
 /**
  * Reads CSV text as people export it from spreadsheets: comma, semicolon or tab; UTF-8 with or
@@ -48,7 +48,7 @@ export async function readCsv(text: string, limits: CsvLimits): Promise<CsvTable
 	};
 	for (let at = 0; at < source.length; at += CHUNK_CHARS) {
 		take(splitter.push(source.slice(at, at + CHUNK_CHARS)));
-		await yieldToEventLoop();
+		await setImmediate();
 	}
 	take(splitter.end());
 	table.delimiter = splitter.dialect?.delimiter ?? ',';
