@@ -1,6 +1,6 @@
 import Papa from 'papaparse';
 
-/**
+/*
  * Cuts CSV text into blocks of whole records and enforces the shape limits of an upload while
  * doing so, before papaparse builds a single cell. Shared by the server's reader and the browser
  * preview, so that both refuse the same files with the same message.

@@ -16,7 +16,7 @@ import {
 } from '$lib/schemas/vocabulary';
 import { FIELD_LABELS } from './fields';
 
-/**
+/*
  * How each kind of entry is laid out as an HTML form, and how the form's strings become the
  * values the zod schemas check. The schemas stay the one judge of validity: this module only
  * reads numbers, lists and units out of text, and names what it could not read.

@@ -14,7 +14,7 @@ import {
 	type SpinMethod
 } from '$lib/schemas/vocabulary';
 
-/** How each field of an entry's data is named and shown, with its unit. */
+/* How each field of an entry's data is named and shown, with its unit. */
 
 export const FIELD_LABELS: Record<string, string> = {
 	name: 'Name',

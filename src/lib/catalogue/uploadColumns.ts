@@ -1,7 +1,7 @@
 import Papa from 'papaparse';
 import { ENTRY_FORM_FIELDS, type FormField } from './entryForm';
 
-/**
+/*
  * The columns of each CSV upload, built from the entry forms' fields (and so from the zod
  * schemas behind them) plus the columns that name proteins and centres in words instead of
  * accessions. Shared by the templates, the column reference page, the browser preview and the

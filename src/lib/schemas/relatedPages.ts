@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-/**
+/*
  * Which page of each related list an entry page shows (`?potentials=3`). Lists on entry pages
  * are paged, never sent whole: a centre may hold thousands of values.
  */

@@ -5,7 +5,7 @@ import { normalisePotential, potentialInputSchema, potentialSchema } from './pot
 import type { FieldErrors } from './searchParams';
 import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
 
-/**
+/*
  * What a contributor sends: entry data in each kind's input schema (for potentials, the value as
  * reported; the normalised one is computed here), the visibility it asks for, and the curation
  * decisions. Forms and the API share these.

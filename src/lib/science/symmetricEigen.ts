@@ -1,4 +1,4 @@
-/**
+/*
  * The lowest eigenvalues and eigenvectors of a dense real symmetric matrix, for Hamiltonians
  * of a few hundred grid points, without computing the whole spectrum:
  *

@@ -3,7 +3,7 @@ import type { Database, Role } from '../db/schema';
 import { writeAudit } from '../audit/log';
 import { endAllSessions } from '../auth/sessions';
 
-/** Admin services: users, roles and groups. Every change is written to the audit log. */
+/* Admin services: users, roles and groups. Every change is written to the audit log. */
 
 export class AdminRuleError extends Error {
 	constructor(

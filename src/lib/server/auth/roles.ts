@@ -1,7 +1,7 @@
 import type { Role } from '../db/schema';
 import { roleAtLeast } from '$lib/roles';
 
-/**
+/*
  * The one rule for roles. Roles are ordered (src/lib/roles.ts): each includes what the ones
  * before it may do (reader < contributor < curator < admin), so checks name the least role that
  * suffices.

@@ -1,4 +1,4 @@
-/** Failures of the calculation service, mapped to HTTP answers by the API handler and the pages. */
+/* Failures of the calculation service, mapped to HTTP answers by the API handler and the pages. */
 
 /** Every worker is busy and the queue is full: 503 with Retry-After. */
 export class CalcBusyError extends Error {

@@ -1,4 +1,4 @@
-/** Domain failures of the catalogue, mapped to HTTP codes at the route. */
+/* Domain failures of the catalogue, mapped to HTTP codes at the route. */
 
 export class EntryNotFoundError extends Error {
 	constructor(

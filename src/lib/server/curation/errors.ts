@@ -1,6 +1,6 @@
 import type { FieldErrors } from '$lib/schemas/searchParams';
 
-/** Domain failures of curation, mapped to HTTP codes at the route. */
+/* Domain failures of curation, mapped to HTTP codes at the route. */
 
 export class SubmissionNotFoundError extends Error {
 	constructor(readonly submissionId: number) {

@@ -21,7 +21,7 @@ import {
 	SubmissionStateError
 } from './errors';
 
-/**
+/*
  * Reads an entry form post: the entry data through the kind's zod schema, the visibility it
  * asks for and the note to curators. Every problem comes back at once, by field.
  */

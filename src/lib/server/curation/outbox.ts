@@ -1,6 +1,6 @@
 import { sendMail } from '../mail/mailer';
 
-/**
+/*
  * Mail decided inside a transaction is sent only after it commits: services return the
  * messages, routes deliver them. A failed delivery is logged and never undoes the change.
  */

@@ -17,7 +17,7 @@ import { setSubmissionStatus } from './submissions';
 import { setImmediate } from 'node:timers/promises';
 import { duringBulkWrite } from '../catalogue/revision';
 
-/**
+/*
  * A curator's side of curation: the decision on a submission and the comment thread. Approval
  * numbers and freezes each version, applies the visibility it asked for, updates the read model
  * and the search revision.

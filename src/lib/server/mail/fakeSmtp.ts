@@ -1,7 +1,7 @@
 import PostalMime from 'postal-mime';
 import { SMTPServer } from 'smtp-server';
 
-/**
+/*
  * A local SMTP server that keeps what it receives, for the demo and the tests: mail never leaves
  * the machine, and admins can read it at /admin/mail in demo mode. Keeps each message's subject
  * and plain text.

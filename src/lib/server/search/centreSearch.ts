@@ -4,7 +4,7 @@ import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary
 import type { Database } from '../db/schema';
 import { readCatalogueRevision } from '../catalogue/revision';
 
-/**
+/*
  * Full-text search that finds centres. Text describing a protein (name, organism, accession)
  * is indexed once per protein and text describing a centre (label, cofactor kind, ligation,
  * accession) once per centre, so a word such as an organism shared by thousands of centres

@@ -23,7 +23,7 @@ import {
 } from './lookups';
 import { readCsv } from './readCsv';
 
-/**
+/*
  * Checks a CSV upload row by row against the zod schemas and the registry, and plans what a
  * commit would create. Nothing is written here: the dry run and the commit both start from it.
  */

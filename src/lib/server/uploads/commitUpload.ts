@@ -12,7 +12,7 @@ import { assertPendingRoom } from '../curation/pending';
 import type { OutgoingMail } from '../curation/outbox';
 import type { UploadCheck } from './checkUpload';
 
-/**
+/*
  * Commits a checked CSV file as one submission awaiting review: every new protein and entry,
  * each with its submitted version, in the caller's transaction — all rows or none. Rows go in
  * as multi-row inserts in chunks, yielding to the event loop between chunks.

@@ -4,7 +4,7 @@ import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { entryIsVisible, potentialIsVisible, type Viewer } from '../catalogue/visibility';
 
-/**
+/*
  * What a CSV check needs to know about the registry, read once per file rather than once per
  * row: the approved proteins, centres and sources the uploader may see, and the approved values
  * a new row could repeat or contradict.

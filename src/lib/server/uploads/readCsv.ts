@@ -7,7 +7,7 @@ import {
 import { config } from '../config';
 import { setImmediate } from 'node:timers/promises';
 
-/**
+/*
  * Reads CSV text as people export it from spreadsheets: comma, semicolon or tab; UTF-8 with or
  * without a byte-order mark; Windows or Unix line ends; quoted fields; blank rows anywhere. The
  * text goes through the record splitter in chunks that yield to the event loop, so a large file
