@@ -1,4 +1,5 @@
 // Science-engine timings for `npm run bench`: figures printed, never asserted.
+import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import {
 	analyseChain,
 	fitNernst,
@@ -8,8 +9,11 @@ import {
 	vibrationalLevels,
 	type ChainInput
 } from '../src/lib/science';
+import { ATOMIC_MASS_KG, AVOGADRO_PER_MOL, HBAR_J_S } from '../src/lib/science/constants';
+import { MAX_GRID_POINTS } from '../src/lib/schemas/calc';
+import { lowestEigenpairs } from '../src/lib/science/symmetricEigen';
 
-function time(label: string, target: string, runs: number, f: () => unknown): void {
+function medianMs(runs: number, f: () => unknown): number {
 	f(); // warm up the JIT
 	const times: number[] = [];
 	for (let i = 0; i < runs; i++) {
@@ -18,10 +22,75 @@ function time(label: string, target: string, runs: number, f: () => unknown): vo
 		times.push(performance.now() - start);
 	}
 	times.sort((a, b) => a - b);
-	const median = times[Math.floor(times.length / 2)]!;
+	return times[Math.floor(times.length / 2)]!;
+}
+
+function time(label: string, target: string, runs: number, f: () => unknown): void {
+	const median = medianMs(runs, f);
 	console.log(
 		`  ${label.padEnd(44)} median ${median.toFixed(2).padStart(8)} ms  (target ${target}, ${runs} runs)`
 	);
+}
+
+/**
+ * The Colbert–Miller DVR Hamiltonian (kcal/mol) of a proton in a symmetric double well with a
+ * barrier of 8 kcal/mol, on `points` grid points over ±1 Å: the matrix vibrationalLevels builds.
+ */
+function dvrHamiltonian(points: number): Float64Array[] {
+	const dx = 2 / (points + 1);
+	const kinetic =
+		((HBAR_J_S ** 2 / (2 * 1.00782503 * ATOMIC_MASS_KG * (dx * 1e-10) ** 2)) * AVOGADRO_PER_MOL) /
+		4184;
+	return Array.from({ length: points }, (_, i) => {
+		const x = -1 + (i + 1) * dx;
+		const row = new Float64Array(points);
+		for (let j = 0; j < points; j++) {
+			const k = i - j;
+			row[j] =
+				k === 0
+					? kinetic * (Math.PI ** 2 / 3) + 8 * ((x / 0.35) ** 2 - 1) ** 2
+					: (kinetic * 2 * (k % 2 === 0 ? 1 : -1)) / (k * k);
+		}
+		return row;
+	});
+}
+
+/**
+ * The lowest levels of DVR Hamiltonians by our solver (symmetricEigen.ts: Householder, bisection,
+ * inverse iteration) and by ml-matrix's EigenvalueDecomposition (the full spectrum with vectors),
+ * at the grid sizes the calculator allows (default 400, at most MAX_GRID_POINTS) and its level
+ * counts (default 6, at most 20); with the largest difference between their eigenvalues.
+ */
+function benchEigenSolvers(): void {
+	console.log(
+		'\nDVR eigenvalues: symmetricEigen.ts (lowest k) against ml-matrix EigenvalueDecomposition (all)'
+	);
+	for (const [points, levels] of [
+		[100, 6],
+		[400, 6],
+		[400, 20],
+		[MAX_GRID_POINTS, 6],
+		[MAX_GRID_POINTS, 20]
+	] as const) {
+		const h = dvrHamiltonian(points);
+		const runs = points > 400 ? 3 : 5;
+		const ours = lowestEigenpairs(h, levels).values;
+		const theirs = new EigenvalueDecomposition(new Matrix(h.map((row) => Array.from(row))), {
+			assumeSymmetric: true
+		}).realEigenvalues.slice(0, levels);
+		const maxDiff = Math.max(...ours.map((v, i) => Math.abs(v - theirs[i]!)));
+		const oursMs = medianMs(runs, () => lowestEigenpairs(h, levels));
+		const theirsMs = medianMs(
+			runs,
+			() =>
+				new EigenvalueDecomposition(new Matrix(h.map((row) => Array.from(row))), {
+					assumeSymmetric: true
+				})
+		);
+		console.log(
+			`  ${`${points} points, ${levels} levels`.padEnd(22)} ours ${oursMs.toFixed(1).padStart(7)} ms  ml-matrix ${theirsMs.toFixed(1).padStart(7)} ms  (×${(theirsMs / oursMs).toFixed(1)})  max |ΔE| ${maxDiff.toExponential(1)} kcal/mol (E up to ${ours[levels - 1]!.toFixed(1)})  ${runs} runs`
+		);
+	}
 }
 
 export function benchScience(): void {
@@ -75,4 +144,5 @@ export function benchScience(): void {
 			levels: 6
 		})
 	);
+	benchEigenSolvers();
 }

@@ -1,4 +1,4 @@
-/** Number formatting for the UI: every number carries its unit. */
+/* Number formatting for the UI: every number carries its unit. */
 
 const NBSP = '\u00a0';
 

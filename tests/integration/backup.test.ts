@@ -10,6 +10,7 @@ import {
 	closeSync
 } from 'node:fs';
 import { tmpdir } from 'node:os';
+import { setImmediate } from 'node:timers/promises';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
 import type { Kysely } from 'kysely';
@@ -79,7 +80,7 @@ function keepWriting() {
 				await bumpCatalogueRevision(trx);
 			});
 			committed = i;
-			await new Promise((resolve) => setImmediate(resolve));
+			await setImmediate();
 		}
 	})();
 	return {

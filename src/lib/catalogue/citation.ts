@@ -1,4 +1,4 @@
-/**
+/*
  * Citations of one entry version in four open formats: BibTeX, RIS, CSL-JSON and plain text.
  * Each carries the versioned permalink, the version and the access date, so that a reader can
  * retrieve exactly what was cited.

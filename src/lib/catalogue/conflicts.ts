@@ -1,4 +1,4 @@
-/**
+/*
  * When two potentials of the same centre and couple disagree. They are compared only when their
  * conditions are comparable (pH within CONFLICT_RULES.phWindow, temperature within
  * temperatureWindowK), and conflict when they differ by more than their combined standard

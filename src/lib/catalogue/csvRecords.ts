@@ -1,7 +1,7 @@
 import Papa from 'papaparse';
 import { DomainError } from '$lib/domainError';
 
-/**
+/*
  * Cuts CSV text into blocks of whole records and enforces the shape limits of an upload while
  * doing so, before papaparse builds a single cell. Shared by the server's reader and the browser
  * preview, so that both refuse the same files with the same message.

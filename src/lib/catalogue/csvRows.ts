@@ -1,6 +1,6 @@
 import type { CentreDto, DistanceDto, PotentialDto, ProteinDto, SpinRecordDto } from './dto';
 
-/**
+/*
  * Flat CSV rows for the API's `?format=csv`. Column names carry their units; values are
  * normalised (mV vs SHE, K, Å) next to the value as reported.
  */

@@ -1,4 +1,4 @@
-/**
+/*
  * The shapes the catalogue hands to pages and API clients (camelCase, units in the names).
  * Built from database rows by one mapper per entity in src/lib/server/catalogue/mappers.ts.
  */

@@ -2,7 +2,7 @@ import { ZERO_CELSIUS_K } from '$lib/science/constants';
 import { KINDS } from '$lib/kinds';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 
-/**
+/*
  * How the strings of an entry form (laid out by the kind's module, src/lib/kinds) become the
  * values the zod schemas check. The schemas stay the one judge of validity: this module only
  * reads numbers, lists and units out of text, and names what it could not read.

@@ -14,7 +14,7 @@ import {
 
 type Method = PotentialMethod | SpinMethod | DistanceMethod;
 
-/** How each field of an entry's data is named and shown, with its unit. */
+/* How each field of an entry's data is named and shown, with its unit. */
 
 export const FIELD_LABELS: Record<string, string> = {
 	name: 'Name',

@@ -1,7 +1,7 @@
 import type { PotentialPageQuery } from '$lib/schemas/catalogueQuery';
 import { encodeCursor } from '$lib/schemas/pagination';
 
-/** Translating the search page's URL state into API requests and new page URLs. */
+/* Translating the search page's URL state into API requests and new page URLs. */
 
 const FILTER_KEYS = [
 	'q',

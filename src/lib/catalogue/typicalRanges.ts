@@ -1,6 +1,6 @@
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 
-/**
+/*
  * Typical midpoint-potential ranges per cofactor kind and couple, in mV vs SHE, near neutral pH
  * and room temperature. They only raise a warning for the contributor and the curator (a value
  * outside is unusual, often a sign error, a V/mV slip or a reference-electrode mix-up, but it can

@@ -1,4 +1,4 @@
-/**
+/*
  * Accessions: `HL` followed by the entry's row id, written with six digits (zero-padded) up to
  * 999 999 and with as many digits as it needs after that (HL1000000, …; never a leading zero
  * there, so every number has exactly one spelling). The number is unique, never reused and says

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-/** Account forms: sign-up, password reset. */
+/* Account forms: sign-up, password reset. */
 
 export const MIN_PASSWORD_LENGTH = 10;
 

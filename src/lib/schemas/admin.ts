@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { ROLES } from '$lib/roles';
 
-/** Admin form inputs (users, roles, groups). */
+/* Admin form inputs (users, roles, groups). */
 
 export const ROLE_VALUES = ROLES;
 

@@ -1,6 +1,6 @@
 import type { FieldErrors } from './searchParams';
 
-/** The API's one error shape: `{ error: { code, message, fields? } }`, codes a closed set. */
+/* The API's one error shape: `{ error: { code, message, fields? } }`, codes a closed set. */
 export const API_ERROR_CODES = {
 	bad_request: 400,
 	unauthorized: 401,

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { queryNumber } from './searchParams';
 
-/**
+/*
  * Inputs of the calculators, shared by their pages and the API. Bounds are those within which
  * the science functions are meaningful; everything outside is a 400 naming the field.
  */

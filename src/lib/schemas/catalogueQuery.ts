@@ -4,7 +4,7 @@ import { decodeCursor } from './pagination';
 import { queryInteger, queryNumber } from './searchParams';
 import { COFACTOR_KINDS, DISTANCE_METHODS, POTENTIAL_METHODS, SPIN_METHODS } from './vocabulary';
 
-/**
+/*
  * Query parameters of the catalogue, shared by the search page (whose whole state lives in the
  * URL) and the read API. One base set of filters; page and API variants add paging and format.
  */

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
 
-/** Field schemas shared by several entities: one definition of each rule. */
+/* Field schemas shared by several entities: one definition of each rule. */
 
 export const accessionField = z
 	.string()

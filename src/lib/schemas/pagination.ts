@@ -1,4 +1,4 @@
-/**
+/*
  * Opaque page cursors for the API. A cursor encodes the position of the next page; clients
  * pass back what they were given and never build one. Offsets keep every sort order (including
  * search relevance) paginable with one mechanism.

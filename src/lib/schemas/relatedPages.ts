@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { fieldErrors } from './fieldErrors';
 
-/**
+/*
  * Which page of each related list an entry page shows (`?potentials=3`). Lists on entry pages
  * are paged, never sent whole: a centre may hold thousands of values.
  */

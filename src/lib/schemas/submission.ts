@@ -6,7 +6,7 @@ import { fieldErrors } from './fieldErrors';
 import type { FieldErrors } from './searchParams';
 import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
 
-/**
+/*
  * What a contributor sends: entry data in each kind's input schema (for potentials, the value as
  * reported; the normalised one is computed by the kind's module), the visibility it asks for,
  * and the curation decisions. Forms and the API share these.

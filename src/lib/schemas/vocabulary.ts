@@ -1,4 +1,4 @@
-/**
+/*
  * Controlled vocabularies of the registry: the one list of each, used by forms, CSV rows, the API,
  * facets and labels. Identifiers are stable (they appear in URLs and API payloads); labels are
  * what people read.

@@ -15,7 +15,7 @@ import {
 import { requireFinite, requireInRange, requirePositive } from './guards';
 import { percentile, seededRandom } from './random';
 
-/**
+/*
  * Kinetics of one electron crossing a network of redox centres.
  *
  * Model: one electron at a time hops between centres; every hop is reversible, its downhill

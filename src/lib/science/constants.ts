@@ -1,4 +1,4 @@
-/**
+/*
  * Physical constants, CODATA 2018 recommended values (Tiesinga et al., Rev. Mod. Phys. 93,
  * 025010 (2021)). Since the 2019 SI redefinition e, h, k_B and N_A are exact; F and R follow.
  * The one place in Hopline where these numbers are written.

@@ -6,7 +6,7 @@ import {
 } from './constants';
 import { requireElectronCount, requireFinite, requireInRange, requirePositive } from './guards';
 
-/**
+/*
  * Electron-transfer rate estimates between two redox centres. Sign convention throughout:
  * ΔG° < 0 is downhill (exergonic) for the direction asked about. Energies in eV, distances in Å,
  * rates in s⁻¹. These are model estimates, typically good to about an order of magnitude; every

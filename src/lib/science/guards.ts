@@ -1,4 +1,4 @@
-/** Argument guards shared by the science functions: precise messages, no NaN escapes. */
+/* Argument guards shared by the science functions: precise messages, no NaN escapes. */
 
 export function requireFinite(value: number, name: string): void {
 	if (typeof value !== 'number' || !Number.isFinite(value)) {

@@ -2,7 +2,7 @@ import { STANDARD_TEMPERATURE_K } from './constants';
 import { requireElectronCount, requireFinite, requireInRange, requirePositive } from './guards';
 import { nernstSlopeMvPerDecade } from './nernst';
 
-/**
+/*
  * pH dependence of a midpoint potential when one proton binds on reduction (Nernst–Clark):
  *
  *   Em(pH) = Em,alk + (2.303RT/nF) · log10[(1 + [H⁺]/Ka,red) / (1 + [H⁺]/Ka,ox)]

@@ -1,4 +1,4 @@
-/**
+/*
  * A seeded, reproducible random source: mulberry32 for uniforms (T. Ettinger, public domain;
  * passes PractRand to 2^32 outputs — ample for Monte Carlo error propagation) and the
  * Box–Muller transform for standard normals (Box & Muller, Ann. Math. Stat. 29, 610 (1958)).

@@ -1,6 +1,6 @@
 import { STANDARD_TEMPERATURE_K, ZERO_CELSIUS_K } from './constants';
 
-/**
+/*
  * Reference electrodes that redox potentials of proteins are reported against, and conversion
  * of a potential between any of them and the standard hydrogen electrode (SHE).
  *

@@ -1,4 +1,4 @@
-/**
+/*
  * Reading atoms from PDB and PDBx/mmCIF coordinate files, grouping cofactor atoms into redox
  * centres, and measuring edge-to-edge and centre-to-centre distances between them (Å).
  *

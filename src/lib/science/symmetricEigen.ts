@@ -1,4 +1,4 @@
-/**
+/*
  * The lowest eigenvalues and eigenvectors of a dense real symmetric matrix, for Hamiltonians
  * of a few hundred grid points, without computing the whole spectrum:
  *
@@ -11,6 +11,11 @@
  * 4. back-transformation through the reflectors.
  *
  * About 4n³/3 operations, against ~9n³ for a full eigen-decomposition with vectors.
+ *
+ * Why not ml-matrix's EigenvalueDecomposition (`npm run bench -- science`, bench/RESULTS.md, on
+ * the DVR Hamiltonians of the calculator's grid sizes): it computes the whole spectrum and took
+ * about five times as long (400 points: 0.52 s against 0.10 s; 600 points: 1.99 s against
+ * 0.38 s), with the lowest eigenvalues agreeing to 3e-11 kcal/mol.
  */
 
 export interface LowestEigen {

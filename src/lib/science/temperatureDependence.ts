@@ -1,7 +1,7 @@
 import { FARADAY_C_PER_MOL } from './constants';
 import { requireElectronCount, requireFinite, requirePositive } from './guards';
 
-/**
+/*
  * Temperature dependence of a midpoint potential from the reaction entropy of reduction:
  *
  *   dEm/dT = ΔS°rc / nF,   so   Em(T) = Em(T₀) + (ΔS°rc / nF)(T − T₀)

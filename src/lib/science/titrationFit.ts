@@ -3,7 +3,7 @@ import { Matrix, inverse } from 'ml-matrix';
 import { FARADAY_C_PER_MOL, GAS_J_PER_MOL_K, STANDARD_TEMPERATURE_K } from './constants';
 import { requireFinite, requireInRange, requirePositive } from './guards';
 
-/**
+/*
  * Least-squares fit of a redox titration (a spectroscopic signal against the ambient potential)
  * to one or two Nernstian components:
  *

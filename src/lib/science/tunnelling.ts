@@ -10,7 +10,7 @@ import {
 import { requireFinite, requireInRange, requirePositive } from './guards';
 import { lowestEigenpairs } from './symmetricEigen';
 
-/**
+/*
  * Quantum corrections for proton and hydride transfer: tunnelling factors for a parabolic
  * barrier, and vibrational levels of a one-dimensional potential by the Colbert–Miller discrete
  * variable representation. Frequencies in cm⁻¹, energies in kcal/mol or kJ/mol as named,

@@ -1,6 +1,6 @@
 import { ZERO_CELSIUS_K } from './constants';
 
-/**
+/*
  * Unit conversions used across Hopline. Each conversion is written once, here.
  * Stored and computed units: potentials mV, temperature K, distances Å, energies eV, rates s⁻¹.
  */

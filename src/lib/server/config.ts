@@ -1,7 +1,7 @@
 import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 
-/**
+/*
  * The app's whole configuration, parsed once from the environment. Nothing else reads
  * process.env, so every setting is documented here and validated at start-up.
  */

@@ -3,7 +3,7 @@ import type { Handle } from '@sveltejs/kit';
 import { config } from './config';
 import { withHeaders } from './http/headers';
 
-/**
+/*
  * Request-size limits, applied before any body is read. adapter-node's own limit is lifted
  * (BODY_SIZE_LIMIT=Infinity in the start scripts) so that these, which know which routes take
  * uploads, answer with a message that says what the limit is.

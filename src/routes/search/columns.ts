@@ -8,7 +8,7 @@ import {
 import type { PotentialDto } from '$lib/catalogue/dto';
 import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/schemas/catalogueQuery';
 
-/**
+/*
  * The search table's features and columns. Sorting and paging run on the server (manual
  * mode); the table coordinates their state, which the page keeps in the URL.
  */

@@ -4,7 +4,7 @@ import type { Database, Role } from '../db/schema';
 import { writeAudit } from '../audit/log';
 import { endAllSessions } from '../auth/sessions';
 
-/** Admin services: users, roles and groups. Every change is written to the audit log. */
+/* Admin services: users, roles and groups. Every change is written to the audit log. */
 
 /** A change an admin may not make (the last active admin, a taken name): 400 on `field`. */
 export class AdminRuleError extends DomainError {

@@ -6,7 +6,7 @@ import { decodeCursor } from '$lib/schemas/pagination';
 import { parseSearchParams, type FieldErrors, type ParamsResult } from '$lib/schemas/searchParams';
 import type { Page } from '$lib/catalogue/dto';
 
-/** Building API responses: the error shape, query parsing, JSON and CSV pages. */
+/* Building API responses: the error shape, query parsing, JSON and CSV pages. */
 
 export function apiError(code: ApiErrorCode, message: string, fields?: FieldErrors): Response {
 	const body: ApiErrorBody = { error: { code, message, ...(fields ? { fields } : {}) } };

@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 
-/**
+/*
  * The audit log: who did what, when, to which entry or submission, with the state before and
  * after. Written in the same transaction as the change it records, so neither exists without
  * the other.

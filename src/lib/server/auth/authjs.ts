@@ -15,7 +15,7 @@ import { takeMailRequest } from './rateLimit';
 import { endSession, sessionIsLive, startSession } from './sessions';
 import { findUserForSignIn } from './users';
 
-/**
+/*
  * Auth.js wiring: e-mail + password, e-mail sign-in links, and OpenID Connect. Sessions are JWT
  * cookies carrying the user id and the session's id and generation (auth/sessions.ts); every
  * read of a session checks on the server that it was not ended, and role and groups are read

@@ -2,7 +2,7 @@ import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import type { Role } from '../db/schema';
 import { roleAtLeast, type SessionUser } from './roles';
 
-/**
+/*
  * Guards for loads and actions: the first statement of every protected one. Signed-out visitors
  * of a page are sent to sign in and brought back; API callers get 401/403 from the API wrapper.
  */

@@ -1,6 +1,6 @@
 import { DomainError } from '$lib/domainError';
 
-/**
+/*
  * A small admission queue for expensive work: at most `concurrency` tasks run at once, at most
  * `maxWaiting` more wait their turn (first come, first served), and any beyond that are refused
  * at once with BusyError instead of piling up. Password hashing goes through one (scrypt takes

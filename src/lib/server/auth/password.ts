@@ -7,7 +7,7 @@ import {
 import { config } from '../config';
 import { AdmissionQueue } from './hashingQueue';
 
-/**
+/*
  * Password hashing with scrypt (node:crypto) and a random 16-byte salt per user. Stored as
  * `scrypt$N$r$p$salt$hash` (base64), so parameters can be raised later without breaking old
  * hashes. Never reversible; comparison in constant time.

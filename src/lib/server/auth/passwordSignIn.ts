@@ -5,7 +5,7 @@ import { verifyPassword } from './password';
 import { accountAttempts, addressAttempts } from './rateLimit';
 import { findUserForSignIn } from './users';
 
-/**
+/*
  * The one check of an e-mail and password, used by Auth.js's `authorize` whichever way the
  * request came (the /signin form, or a direct POST to /auth/callback/password):
  * 1. refused while the account or the client address has too many recent failures;

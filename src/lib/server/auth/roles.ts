@@ -2,7 +2,7 @@ import type { Role } from '../db/schema';
 import { DomainError } from '$lib/domainError';
 import { roleAtLeast } from '$lib/roles';
 
-/**
+/*
  * The one rule for roles. Roles are ordered (src/lib/roles.ts): each includes what the ones
  * before it may do (reader < contributor < curator < admin), so checks name the least role that
  * suffices.

@@ -6,7 +6,7 @@ import { endAllSessions } from './sessions';
 import { consumeToken, issueToken, tokenIsValid } from './tokens';
 import { insertPasswordUser } from './users';
 
-/**
+/*
  * Sign-up with e-mail verification, and password reset by e-mail. Neither tells a visitor whether
  * an address has an account: the answer is the same, the work before it is alike (one password
  * hash, a token, a mail handed to the background), and only the mail says what happened.

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 
-/**
+/*
  * Ending sessions on the server. A session cookie is a signed JWT that would otherwise stay valid
  * until it expires, whatever happens on the server; so each one carries
  * - `sid`, an id of its own, fixed at sign-in and kept across refreshes; signing out writes it to

@@ -2,7 +2,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 
-/**
+/*
  * Single-use e-mail tokens (address verification, password reset) in Auth.js's VerificationToken
  * table. Only a SHA-256 of the token is stored, so a copy of the database cannot be used to take
  * over accounts; a token is deleted when used and refused after it expires.

@@ -3,7 +3,7 @@ import type { Database, Role } from '../db/schema';
 import { hashPassword } from './password';
 import type { SessionUser } from './roles';
 
-/** Accounts: reading the signed-in user with groups, and creating password accounts. */
+/* Accounts: reading the signed-in user with groups, and creating password accounts. */
 
 export async function findUserForSignIn(db: Kysely<Database>, email: string) {
 	return db

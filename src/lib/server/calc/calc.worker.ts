@@ -1,7 +1,7 @@
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { runCalcJob, type CalcJob } from './jobs';
 
-/**
+/*
  * The calculation worker's module. The pool (pool.ts) starts a worker thread on this very file,
  * whose location it learns from `calcWorkerUrl` after importing it dynamically: that import is
  * what makes the bundlers keep the file (and the science it needs) as a chunk of its own in the

@@ -7,7 +7,7 @@ import { CalcBusyError, CalcInputError, CalcRateLimitedError, CalcTimeLimitError
 import type { CalcJob, CalcKind, CalcResults } from './jobs';
 import { WorkerPool } from './pool';
 
-/**
+/*
  * The calculation service: every costly computation (titration fits, tunnelling levels, chain
  * estimates) goes through `calculate`, which runs it in the worker pool, so the thread that
  * answers requests never computes for long. Callers without an account are limited per address.

@@ -1,6 +1,6 @@
 import { DomainError } from '$lib/domainError';
 
-/** Failures of the calculation service; their codes decide the HTTP answer (see `DomainError`). */
+/* Failures of the calculation service; their codes decide the HTTP answer (see `DomainError`). */
 
 /** Every worker is busy and the queue is full: 503 with Retry-After. */
 export class CalcBusyError extends DomainError {

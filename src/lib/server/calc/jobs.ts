@@ -4,7 +4,7 @@ import type { TunnellingRequest } from '$lib/schemas/calc';
 import { estimateChain, type LadderChainInput } from './chainEstimate';
 import { runTunnelling, type TunnellingResult } from './tunnelling';
 
-/**
+/*
  * The calculations that run in worker threads: each a message that survives structured cloning
  * (plain data in, plain data out). Pure: the worker (calc.worker.ts) calls `runCalcJob`.
  */

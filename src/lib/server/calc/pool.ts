@@ -2,7 +2,7 @@ import { Worker } from 'node:worker_threads';
 import { CalcBusyError, CalcTimeLimitError, CalcWorkerError } from './errors';
 import type { WorkerReply } from './calc.worker';
 
-/**
+/*
  * A fixed set of worker threads with a bounded queue and a running-time limit per job.
  *
  * - `size` workers, each started on first need and kept; an idle worker does not keep the

@@ -11,7 +11,7 @@ import {
 } from '$lib/science';
 import type { TunnellingRequest } from '$lib/schemas/calc';
 
-/** The tunnelling calculator: factors for a barrier and levels of a potential, with cautions. */
+/* The tunnelling calculator: factors for a barrier and levels of a potential, with cautions. */
 export interface TunnellingResult {
 	kappa: {
 		wigner: number;

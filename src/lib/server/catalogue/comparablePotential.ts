@@ -2,7 +2,7 @@ import type { Selectable } from 'kysely';
 import type { ListedPotential } from '$lib/catalogue/conflicts';
 import type { PotentialTable } from '../db/schema';
 
-/**
+/*
  * The columns of the potential read model that comparing values needs (conflict flags, the
  * ladder's representative value), and the one mapping of such a row to its comparable form.
  */

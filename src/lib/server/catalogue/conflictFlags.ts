@@ -8,7 +8,7 @@ import type { Database } from '../db/schema';
 import { COMPARABLE_COLUMNS, toComparable } from './comparablePotential';
 import { potentialIsVisible, type Viewer } from './visibility';
 
-/**
+/*
  * Conflict flags for the potentials a page shows, against the approved values of the same
  * centres and couples that the reader may see. At most CANDIDATE_CAP values are read, however
  * many a centre holds, so one page view costs bounded time and memory; the page says so when

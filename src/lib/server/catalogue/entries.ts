@@ -10,7 +10,7 @@ import { bumpCatalogueRevision } from './revision';
 import { projectApprovedVersion } from './projection';
 import { writeAudit } from '../audit/log';
 
-/**
+/*
  * Writing entries and versions. An entry gets its accession when created; its versions are
  * numbered when approved, and an approved version is never changed again (the database
  * enforces this with triggers). Callers pass a transaction: these functions never open one.

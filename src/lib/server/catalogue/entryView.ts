@@ -7,7 +7,7 @@ import { EntryNotFoundError } from './errors';
 import type { Viewer } from './visibility';
 import { findVisibleEntry } from './visibleEntry';
 
-/** Reading one entry at one approved version, as permalinks show it. */
+/* Reading one entry at one approved version, as permalinks show it. */
 
 async function findEntryOrThrow(db: Kysely<Database>, accession: string, viewer: Viewer | null) {
 	const entry = await findVisibleEntry(db, accession, viewer);

@@ -1,6 +1,6 @@
 import { DomainError } from '$lib/domainError';
 
-/** Domain failures of the catalogue; their codes decide the HTTP answer (see `DomainError`). */
+/* Domain failures of the catalogue; their codes decide the HTTP answer (see `DomainError`). */
 
 /** No such entry, or no such approved version of it: 404. */
 export class EntryNotFoundError extends DomainError {

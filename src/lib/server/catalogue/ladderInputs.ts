@@ -6,7 +6,7 @@ import { listCentres, listDistances } from './lists';
 import { COMPARABLE_COLUMNS, toComparable } from './comparablePotential';
 import { potentialIsVisible, type Viewer } from './visibility';
 
-/**
+/*
  * What a protein's energy ladder is drawn from, read with bounds however large the protein:
  * its centres (at most LADDER_MAX_CENTRES, else no ladder), one representative potential per
  * centre chosen in SQL (the one nearest pH 7 and 25 °C, as the ladder would choose), and the

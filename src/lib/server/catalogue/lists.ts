@@ -15,7 +15,7 @@ import { resolveTextQuery } from './textMatch';
 import type { ListOptions } from './potentials';
 import { entryIsVisible, type Viewer } from './visibility';
 
-/** Read-only lists of proteins, centres, spin records and distances for pages and the API. */
+/* Read-only lists of proteins, centres, spin records and distances for pages and the API. */
 
 function pageOf<T>(items: T[], total: number, offset: number): Page<T> {
 	const next = offset + items.length;

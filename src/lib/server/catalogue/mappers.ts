@@ -8,7 +8,7 @@ import type {
 } from '$lib/catalogue/dto';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 
-/** Row → DTO, one mapper per entity. Column aliases here are the ones the queries select. */
+/* Row → DTO, one mapper per entity. Column aliases here are the ones the queries select. */
 
 export interface CentreRefColumns {
 	centre_accession: string;

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { Database, PotentialTable } from '../db/schema';
 import { owningGroup, publicFrom } from './visibility';
 
-/**
+/*
  * The columns a potential's read-model row copies from its centre, protein and entries, so that
  * searching potentials touches one table. Computed here and nowhere else.
  */

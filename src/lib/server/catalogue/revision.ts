@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 
-/**
+/*
  * The catalogue revision: a counter bumped, inside the writing transaction, by every change
  * to what searches can see. In-memory indexes compare it with the revision they were built at.
  */

@@ -4,7 +4,7 @@ import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
 import { entryRowIsVisible, type Viewer } from './visibility';
 
-/**
+/*
  * Finding an entry by an accession a client sent. Every path that takes an accession from a
  * client (permalinks, the entries API, proposed changes, references in forms, API bodies and CSV
  * rows) asks here, and gets the same answer — nothing — for an entry that does not exist, that

@@ -7,7 +7,7 @@ import type { Database } from '../db/schema';
 import { potentialIsVisible, type Viewer } from '../catalogue/visibility';
 import { findVisibleEntry } from '../catalogue/visibleEntry';
 
-/**
+/*
  * Warnings on a proposed version: things a curator should look at twice, none of which stops a
  * submission. Errors (a reference that does not resolve) are checked elsewhere.
  */

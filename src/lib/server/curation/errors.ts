@@ -1,7 +1,7 @@
 import { DomainError } from '$lib/domainError';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 
-/** Domain failures of curation; their codes decide the HTTP answer (see `DomainError`). */
+/* Domain failures of curation; their codes decide the HTTP answer (see `DomainError`). */
 
 /** No such submission (or none the user may see): 404. */
 export class SubmissionNotFoundError extends DomainError {

@@ -10,7 +10,7 @@ import {
 } from '$lib/schemas/submission';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 
-/**
+/*
  * Reads an entry form post: the entry data through the kind's zod schema, the visibility it
  * asks for and the note to curators. Every problem comes back at once, by field.
  */

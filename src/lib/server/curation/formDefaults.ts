@@ -5,7 +5,7 @@ import { roleAtLeast, type SessionUser } from '../auth/roles';
 import type { Database } from '../db/schema';
 import { getEntryView } from '../catalogue/entryView';
 
-/** What the entry forms need besides the fields: the groups one may share with, and prefills. */
+/* What the entry forms need besides the fields: the groups one may share with, and prefills. */
 
 export async function groupsForSharing(db: Kysely<Database>, user: SessionUser) {
 	let q = db.selectFrom('research_group').select(['id', 'name']).orderBy('name');

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { Database, SubmissionRow } from '../db/schema';
 import type { OutgoingMail } from './outbox';
 
-/**
+/*
  * Who hears of what. Curators choose per account: a mail for each new submission, one daily
  * digest, or nothing (the queue is always there). Contributors always hear of decisions and of
  * curators' comments on their submissions.

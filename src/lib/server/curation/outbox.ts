@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 import { sendMail } from '../mail/mailer';
 
-/**
+/*
  * Mail decided inside a transaction is sent only after it commits: services return the
  * messages, routes deliver them. A failed delivery is logged and never undoes the change.
  */

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 import { PendingLimitError } from './errors';
 
-/**
+/*
  * How many entry versions one contributor may have awaiting review at once (drafts, submitted,
  * returned). Without a bound, one account could fill the database (and the accession space)
  * with rows nobody will ever review.

@@ -8,7 +8,7 @@ import { warningsForVersion, type VersionWarning, type WarningAudience } from '.
 import { viewerOf } from '../catalogue/visibility';
 import { SubmissionNotFoundError } from './errors';
 
-/** Reading submissions: the curators' queue, a contributor's own list, one submission in full. */
+/* Reading submissions: the curators' queue, a contributor's own list, one submission in full. */
 
 export interface QueueFilter {
 	status: SubmissionStatus;

@@ -19,7 +19,7 @@ import { noticesForNewSubmission } from './notices';
 import { assertPendingRoom } from './pending';
 import type { OutgoingMail } from './outbox';
 
-/**
+/*
  * A contributor's side of curation: drafts (one entry version per form submission), submitting
  * for review, withdrawing, and comments. Every function runs in the caller's transaction and
  * writes the audit log; mail comes back to the caller to send after commit.

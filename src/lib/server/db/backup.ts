@@ -16,7 +16,7 @@ import { openDatabase } from './connect';
 import { migrateToLatest } from './migrate';
 import type { Database } from './schema';
 
-/**
+/*
  * Backups of the SQLite file, taken while the app runs, and restores (with the app stopped).
  *
  * Under WAL, committed transactions live in the `-wal` file until a checkpoint copies them into

@@ -14,7 +14,7 @@ import {
 	type QueryResult
 } from 'kysely';
 
-/**
+/*
  * A Kysely dialect over two better-sqlite3 connections to one WAL-mode file: a writer and a
  * read-only reader. Kysely's own SQLite driver serialises every query behind one connection, so
  * a long write transaction (approving a large batch) made every page wait for it. Here:

@@ -1,7 +1,7 @@
 import { brotliCompressSync, constants, gzipSync } from 'node:zlib';
 import Negotiator from 'negotiator';
 
-/**
+/*
  * Compressed copies of answers kept for many readers (readCache.ts): compressed once, sent many
  * times. adapter-node compresses only prerendered files, so without this every page and JSON
  * answer went out at full size.

@@ -1,4 +1,4 @@
-/**
+/*
  * Bounded work per turn of the event loop, so that a crowd of readers cannot keep the server
  * from taking new connections.
  *

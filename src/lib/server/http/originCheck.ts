@@ -1,7 +1,7 @@
 import { text, type Handle } from '@sveltejs/kit';
 import { apiError } from '../api/respond';
 
-/**
+/*
  * Cross-site request forgery protection, in place of SvelteKit's own origin check (turned off
  * with `csrf.trustedOrigins: ['*']` in svelte.config.js), so that the API can answer in its
  * JSON error shape and scripts can call it without pretending to be a browser.

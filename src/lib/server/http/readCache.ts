@@ -11,7 +11,7 @@ import {
 	type ContentEncoding
 } from './compression';
 
-/**
+/*
  * Answers for signed-out readers, kept in memory for as long as the catalogue they show stays
  * the same. Signed-out readers of a catalogue page all see the same bytes — it depends on the
  * URL and on the approved, public data, which move only with the catalogue revision (every

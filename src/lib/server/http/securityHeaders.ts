@@ -2,7 +2,7 @@ import type { Handle } from '@sveltejs/kit';
 import { oidcSettings } from '../auth/oidc';
 import { withHeaders } from './headers';
 
-/**
+/*
  * Security headers on every response the app makes: pages, API JSON and CSV, redirects and
  * errors. Pages get SvelteKit's Content-Security-Policy (`kit.csp` in svelte.config.js, with the
  * hash of its inline hydration script), completed here with `form-action`; everything else

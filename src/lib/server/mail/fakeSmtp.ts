@@ -1,9 +1,10 @@
+import PostalMime from 'postal-mime';
 import { SMTPServer } from 'smtp-server';
 
-/**
+/*
  * A local SMTP server that keeps what it receives, for the demo and the tests: mail never leaves
- * the machine, and admins can read it at /admin/mail in demo mode. Accepts plain-text messages
- * (as Hopline sends them: base64 or quoted-printable bodies, RFC 2047 subjects).
+ * the machine, and admins can read it at /admin/mail in demo mode. Keeps each message's subject
+ * and plain text.
  */
 
 export interface KeptMessage {
@@ -17,44 +18,15 @@ export interface KeptMessage {
 
 const KEEP = 500;
 
-function decodeWords(value: string): string {
-	return value.replace(/=\?utf-8\?([bq])\?([^?]*)\?=/gi, (_, enc: string, text: string) =>
-		enc.toLowerCase() === 'b'
-			? Buffer.from(text, 'base64').toString('utf8')
-			: decodeQuotedPrintable(text.replace(/_/g, ' '))
-	);
-}
-
-function decodeQuotedPrintable(text: string): string {
-	const bytes = text
-		.replace(/=\r?\n/g, '')
-		.replace(/=([0-9A-F]{2})/gi, (_, hex: string) => `%${hex}`);
-	try {
-		return decodeURIComponent(bytes);
-	} catch {
-		return bytes;
-	}
-}
-
-/** Headers and text of a single-part message. */
-export function parseMessage(raw: string): { headers: Map<string, string>; text: string } {
-	const split = raw.search(/\r?\n\r?\n/);
-	const head = split < 0 ? raw : raw.slice(0, split);
-	const body = split < 0 ? '' : raw.slice(split).replace(/^\r?\n\r?\n/, '');
-	const headers = new Map<string, string>();
-	for (const line of head.replace(/\r?\n[ \t]+/g, ' ').split(/\r?\n/)) {
-		const colon = line.indexOf(':');
-		if (colon > 0)
-			headers.set(line.slice(0, colon).trim().toLowerCase(), line.slice(colon + 1).trim());
-	}
-	const encoding = headers.get('content-transfer-encoding')?.toLowerCase();
-	const text =
-		encoding === 'base64'
-			? Buffer.from(body.replace(/\s+/g, ''), 'base64').toString('utf8')
-			: encoding === 'quoted-printable'
-				? decodeQuotedPrintable(body)
-				: body;
-	return { headers, text: text.trim() };
+/**
+ * Subject and text of a message, decoded by postal-mime (MIME parts, transfer encodings, charsets,
+ * RFC 2047 encoded words across folded lines).
+ */
+export async function parseMessage(
+	raw: string | Buffer
+): Promise<{ subject: string; text: string }> {
+	const email = await PostalMime.parse(raw);
+	return { subject: email.subject ?? '', text: (email.text ?? '').trim() };
 }
 
 export class FakeSmtp {
@@ -72,17 +44,21 @@ export class FakeSmtp {
 				const chunks: Buffer[] = [];
 				stream.on('data', (c: Buffer) => chunks.push(c));
 				stream.on('end', () => {
-					const { headers, text } = parseMessage(Buffer.concat(chunks).toString('utf8'));
-					this.messages.unshift({
-						id: this.nextId++,
-						receivedAt: new Date().toISOString(),
-						from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
-						to: session.envelope.rcptTo.map((r) => r.address),
-						subject: decodeWords(headers.get('subject') ?? ''),
-						text
-					});
-					this.messages.length = Math.min(this.messages.length, KEEP);
-					callback();
+					parseMessage(Buffer.concat(chunks)).then(
+						({ subject, text }) => {
+							this.messages.unshift({
+								id: this.nextId++,
+								receivedAt: new Date().toISOString(),
+								from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
+								to: session.envelope.rcptTo.map((r) => r.address),
+								subject,
+								text
+							});
+							this.messages.length = Math.min(this.messages.length, KEEP);
+							callback();
+						},
+						(e: unknown) => callback(e instanceof Error ? e : new Error(String(e)))
+					);
 				});
 			}
 		});

@@ -2,7 +2,7 @@ import nodemailer, { type Transporter } from 'nodemailer';
 import { config } from '../config';
 import { FakeSmtp } from './fakeSmtp';
 
-/**
+/*
  * Outgoing mail through Nodemailer over SMTP. With SMTP_URL unset in demo mode, mail goes to a
  * local fake SMTP server (started on first use) whose messages admins can read at /admin/mail.
  */

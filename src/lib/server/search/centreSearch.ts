@@ -4,13 +4,16 @@ import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary
 import type { Database } from '../db/schema';
 import { readCatalogueRevision } from '../catalogue/revision';
 
-/**
+/*
  * Full-text search that finds centres. Text describing a protein (name, organism, accession)
  * is indexed once per protein and text describing a centre (label, cofactor kind, ligation,
  * accession) once per centre, so a word such as an organism shared by thousands of centres
  * costs one posting per protein, not one per centre. A centre matches a query when every word
  * matches the centre itself or its protein (AND semantics); its score is the sum of both.
- * Numeric and vocabulary filters, visibility and paging are applied in SQL afterwards.
+ * The ranked centre ids go to the callers (through `catalogue/textMatch.ts`): a potential search
+ * filters, counts, sorts and pages them in the in-memory potential columns (`potentialIndex.ts`,
+ * visibility included) and then reads the page's rows from SQLite by id, checking visibility
+ * again; the protein and centre lists apply filters, visibility and paging in SQL.
  *
  * Both indexes follow the catalogue's revision counter: every approval bumps it inside its
  * transaction, and each search first folds in rows changed since the index last looked —

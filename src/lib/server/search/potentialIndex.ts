@@ -6,7 +6,7 @@ import type { Database } from '../db/schema';
 import { bulkWriteInProgress, readCatalogueRevision } from '../catalogue/revision';
 import type { Viewer } from '../catalogue/visibility';
 
-/**
+/*
  * The potential read model held as columns in memory, for searching: filters, counts, facet
  * counts and every sort order are answered by one pass over typed arrays (about a millisecond
  * for 100 000 rows), and SQLite is then asked only for the rows of the page shown. SQLite stays

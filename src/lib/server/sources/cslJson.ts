@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-/**
+/*
  * The part of a CSL-JSON item (Citation Style Language, citationstyles.org, schema
  * csl-data.json) that a source needs: title, authors, container title, year, DOI. DOI
  * registration agencies answer content negotiation for `application/vnd.citationstyles.csl+json`

@@ -1,7 +1,7 @@
 import { DOI_PATTERN } from '$lib/schemas/source';
 import { cslItemSchema, metadataFromCsl, type DoiMetadata } from './cslJson';
 
-/**
+/*
  * Looks up a DOI's metadata from a DOI metadata service by content negotiation
  * (GET {base}/{doi}, Accept: CSL-JSON — as doi.org answers). Every failure comes back as a
  * reason and a message a contributor can act on; none throws.

@@ -3,7 +3,7 @@ import { config } from '../config';
 import { lookupDoi, type DoiLookup } from './doiClient';
 import { FakeDoiService } from './fakeDoiService';
 
-/**
+/*
  * The app's DOI look-up: the service at DOI_SERVICE_URL, or in demo mode (when unset) a loopback
  * fake that knows the demo DOIs. Outside demo mode it defaults to https://doi.org.
  */

@@ -2,7 +2,7 @@ import { closest, distance } from 'fastest-levenshtein';
 import { readNumber, readTemperature } from '$lib/catalogue/entryForm';
 import type { UploadColumn } from '$lib/catalogue/uploadColumns';
 
-/**
+/*
  * Reading one CSV cell into the value its column wants: numbers with a Unicode minus or a
  * decimal comma (in semicolon files), units in the cell or the header, vocabularies matched by
  * identifier or label with a "did you mean" when nothing matches.

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { yieldToEventLoop } from '../eventLoop';
+import { setImmediate } from 'node:timers/promises';
 import type { Kysely } from 'kysely';
 import type { CsvLimits } from '$lib/catalogue/csvRecords';
 import { UPLOAD_COLUMNS, columnForHeader, type UploadKind } from '$lib/catalogue/uploadColumns';
@@ -15,7 +15,7 @@ import { loadUploadLookups } from './lookups';
 import { readCsv } from './readCsv';
 import type { RowState, UploadRow } from './rows';
 
-/**
+/*
  * Checks a CSV upload row by row against the zod schemas and the registry, and plans what a
  * commit would create. Nothing is written here: the dry run and the commit both start from it.
  */
@@ -136,7 +136,7 @@ export async function checkUpload(
 	const proteins: PlannedProtein[] = [];
 
 	for (let i = 0; i < table.rows.length; i++) {
-		if (i > 0 && i % YIELD_EVERY === 0) await yieldToEventLoop();
+		if (i > 0 && i % YIELD_EVERY === 0) await setImmediate();
 		const { row, cells } = table.rows[i] as (typeof table.rows)[number];
 		const before = issues.length;
 		const values: Record<string, unknown> = {};

@@ -1,6 +1,6 @@
 import { sql, type Kysely } from 'kysely';
+import { setImmediate } from 'node:timers/promises';
 import { DomainError } from '$lib/domainError';
-import { yieldToEventLoop } from '../eventLoop';
 import { formatAccession } from '$lib/schemas/accession';
 import { UPLOAD_KIND_NOUNS } from '$lib/catalogue/uploadColumns';
 import type { SessionUser } from '../auth/roles';
@@ -13,7 +13,7 @@ import { assertPendingRoom } from '../curation/pending';
 import type { OutgoingMail } from '../curation/outbox';
 import type { UploadCheck } from './checkUpload';
 
-/**
+/*
  * Commits a checked CSV file as one submission awaiting review: every new protein and entry,
  * each with its submitted version, in the caller's transaction — all rows or none. Rows go in
  * as multi-row inserts in chunks, yielding to the event loop between chunks.
@@ -147,7 +147,7 @@ export async function commitUpload(
 				})
 			)
 			.execute();
-		await yieldToEventLoop();
+		await setImmediate();
 	}
 
 	await writeAudit(trx, {

@@ -1,10 +1,10 @@
 import type { Kysely } from 'kysely';
-import { yieldToEventLoop } from '../eventLoop';
+import { setImmediate } from 'node:timers/promises';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { entryIsVisible, potentialIsVisible, type Viewer } from '../catalogue/visibility';
 
-/**
+/*
  * What a CSV check needs to know about the registry, read once per file rather than once per
  * row: the approved proteins, centres and sources the uploader may see, and the approved values
  * a new row could repeat or contradict.
@@ -67,7 +67,7 @@ async function paged<T extends { entry_id: number }>(
 		}
 		if (rows.length < PAGE) return all;
 		after = (rows.at(-1) as T).entry_id;
-		await yieldToEventLoop();
+		await setImmediate();
 	}
 }
 

@@ -5,9 +5,9 @@ import {
 	type CsvLimits
 } from '$lib/catalogue/csvRecords';
 import { config } from '../config';
-import { yieldToEventLoop } from '../eventLoop';
+import { setImmediate } from 'node:timers/promises';
 
-/**
+/*
  * Reads CSV text as people export it from spreadsheets: comma, semicolon or tab; UTF-8 with or
  * without a byte-order mark; Windows or Unix line ends; quoted fields; blank rows anywhere. The
  * text goes through the record splitter in chunks that yield to the event loop, so a large file
@@ -48,7 +48,7 @@ export async function readCsv(text: string, limits: CsvLimits): Promise<CsvTable
 	};
 	for (let at = 0; at < source.length; at += CHUNK_CHARS) {
 		take(splitter.push(source.slice(at, at + CHUNK_CHARS)));
-		await yieldToEventLoop();
+		await setImmediate();
 	}
 	take(splitter.end());
 	table.delimiter = splitter.dialect?.delimiter ?? ',';

@@ -10,7 +10,7 @@ import {
 import { config } from '../config';
 import { uploadLimitMessage, uploadTooLargeMessage } from '../requestLimits';
 
-/**
+/*
  * Reads the upload form (kind, file, visibility, note) and the file's text. Size is checked from
  * the request's length before the body is read, and again on the file itself.
  */

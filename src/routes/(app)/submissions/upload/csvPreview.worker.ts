@@ -6,7 +6,7 @@ import {
 	type CsvLimits
 } from '$lib/catalogue/csvRecords';
 
-/**
+/*
  * Reads a chosen CSV file in the browser, off the main thread, reporting progress as it goes:
  * the header, the first rows, the row count and the delimiter. Only a preview: the server reads
  * and checks the file again and never trusts this. The file goes through the same record

@@ -1,7 +1,7 @@
 import type { CentreDto, DistanceDto, PotentialDto, SpinRecordDto } from '$lib/catalogue/dto';
 import type { RelatedPage, RelatedRecords } from '$lib/server/catalogue/related';
 
-/**
+/*
  * The columns the entry page's related tables show, and nothing else: every field of a load's
  * answer is serialised into the page, and the full rows repeat the protein and its organism in
  * each of them, which these tables never print.
