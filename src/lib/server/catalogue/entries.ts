@@ -2,6 +2,7 @@ import type { Kysely } from 'kysely';
 import { formatAccession } from '$lib/schemas/accession';
 import { parseEntryData } from '$lib/schemas/entryData';
 import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
+import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
 import { InvalidEntryDataError, VersionStateError } from './errors';
@@ -121,7 +122,7 @@ export async function approveVersion(
 	if (row.status !== 'submitted') {
 		throw new VersionStateError(`version ${versionId} is ${row.status}, not submitted`);
 	}
-	const entryData = parseEntryData(row.kind, JSON.parse(row.data));
+	const entryData = parseEntryData(row.kind, readJson(row.data));
 	const version = ((await latestApprovedVersionNumber(trx, row.entry_id)) ?? 0) + 1;
 	const approvedAt = options.approvedAt ?? new Date().toISOString();
 	if (row.visibility !== null) {

@@ -1,6 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { EntryView } from '$lib/catalogue/dto';
 import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
+import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
 import { EntryNotFoundError } from './errors';
@@ -59,7 +60,7 @@ export async function getEntryView(
 	if (!latest) throw new EntryNotFoundError(accession);
 	const chosen = await approvedVersion(db, entry.id, version ?? (latest.version as number));
 	if (!chosen) throw new EntryNotFoundError(accession, version);
-	const data = JSON.parse(chosen.data) as Record<string, unknown>;
+	const data = readJson(chosen.data);
 
 	const references: EntryView['references'] = {};
 	for (const [field, value] of Object.entries(data)) {
@@ -114,5 +115,5 @@ export async function compareVersions(
 	const b = await approvedVersion(db, entry.id, to);
 	if (!a) throw new EntryNotFoundError(accession, from);
 	if (!b) throw new EntryNotFoundError(accession, to);
-	return { changes: diffEntryData(JSON.parse(a.data), JSON.parse(b.data)), from, to };
+	return { changes: diffEntryData(readJson(a.data), readJson(b.data)), from, to };
 }

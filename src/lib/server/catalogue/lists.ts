@@ -7,7 +7,7 @@ import type {
 	SpinRecordApiQuery
 } from '$lib/schemas/catalogueQuery';
 import { encodeCursor } from '$lib/schemas/pagination';
-import type { CofactorKind } from '$lib/schemas/vocabulary';
+import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { toDistanceDto, toProteinRef, toSpinRecordDto } from './mappers';
 import { nullsLast } from './sortOrder';
@@ -79,7 +79,7 @@ export async function listProteins(
 		...toProteinRef(r),
 		version: r.version,
 		uniprot: r.uniprot,
-		structureIds: JSON.parse(r.structure_ids) as string[],
+		structureIds: readJson(r.structure_ids),
 		centreCount: Number(r.centre_count ?? 0),
 		isDemo: r.is_demo === 1
 	}));
@@ -141,11 +141,11 @@ export async function listCentres(
 		accession: r.accession,
 		version: r.version,
 		label: r.label,
-		cofactorKind: r.cofactor_kind as CofactorKind,
+		cofactorKind: r.cofactor_kind,
 		protein: toProteinRef(r),
 		ligation: r.ligation,
 		chainId: r.chain_id,
-		residues: JSON.parse(r.residues) as number[],
+		residues: readJson(r.residues),
 		isDemo: r.is_demo === 1
 	}));
 	return pageOf(items, Number(n), options.offset);

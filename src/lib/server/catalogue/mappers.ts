@@ -6,25 +6,31 @@ import type {
 	SourceRef,
 	SpinRecordDto
 } from '$lib/catalogue/dto';
+import type { Selectable } from 'kysely';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
+import { readJson } from '../db/json';
+import type { Database } from '../db/schema';
 
 /* Row → DTO, one mapper per entity. Column aliases here are the ones the queries select. */
 
+/** The selected columns of one table, as Kysely reads them. */
+type Row<T extends keyof Database> = Selectable<Database[T]>;
+
 export interface CentreRefColumns {
 	centre_accession: string;
-	centre_label: string;
-	cofactor_kind: string;
+	centre_label: Row<'centre'>['label'];
+	cofactor_kind: Row<'centre'>['cofactor_kind'];
 }
-export interface ProteinRefColumns {
-	protein_accession: string;
-	protein_name: string;
-	organism: string;
-}
+export type ProteinRefColumns = Pick<
+	Row<'potential'>,
+	'protein_accession' | 'protein_name' | 'organism'
+>;
+/** A source joined on the left: every column null when the row names none (or none visible). */
 export interface SourceRefColumns {
 	source_accession: string | null;
-	source_doi: string | null;
-	source_year: number | null;
-	source_authors: string | null;
+	source_doi: Row<'source'>['doi'];
+	source_year: Row<'source'>['year'];
+	source_authors: Row<'source'>['authors'] | null;
 }
 
 export function toProteinRef(r: ProteinRefColumns): ProteinRef {
@@ -35,13 +41,13 @@ export function toCentreRef(r: CentreRefColumns): CentreRef {
 	return {
 		accession: r.centre_accession,
 		label: r.centre_label,
-		cofactorKind: r.cofactor_kind as CofactorKind
+		cofactorKind: r.cofactor_kind
 	};
 }
 
 export function toSourceRef(r: SourceRefColumns): SourceRef | null {
 	if (r.source_accession === null) return null;
-	const authors = r.source_authors ? (JSON.parse(r.source_authors) as string[]) : [];
+	const authors = r.source_authors ? readJson(r.source_authors) : [];
 	return {
 		accession: r.source_accession,
 		doi: r.source_doi,
@@ -50,23 +56,31 @@ export function toSourceRef(r: SourceRefColumns): SourceRef | null {
 	};
 }
 
-export interface PotentialRowColumns extends CentreRefColumns, ProteinRefColumns, SourceRefColumns {
-	accession: string;
-	version: number;
-	couple: string;
-	em_mv_she: number;
-	reported_value: number;
-	reported_unit: string;
-	reference_electrode: string;
-	ph: number | null;
-	temperature_k: number | null;
-	ionic_strength_m: number | null;
-	buffer: string | null;
-	method: string;
-	n_electrons: number;
-	uncertainty_mv: number | null;
-	is_demo: number;
-}
+export type PotentialRowColumns = SourceRefColumns &
+	Pick<
+		Row<'potential'>,
+		| 'accession'
+		| 'version'
+		| 'centre_accession'
+		| 'centre_label'
+		| 'cofactor_kind'
+		| 'protein_accession'
+		| 'protein_name'
+		| 'organism'
+		| 'couple'
+		| 'em_mv_she'
+		| 'reported_value'
+		| 'reported_unit'
+		| 'reference_electrode'
+		| 'ph'
+		| 'temperature_k'
+		| 'ionic_strength_m'
+		| 'buffer'
+		| 'method'
+		| 'n_electrons'
+		| 'uncertainty_mv'
+		| 'is_demo'
+	>;
 
 export function toPotentialDto(r: PotentialRowColumns): PotentialDto {
 	return {
@@ -93,17 +107,14 @@ export function toPotentialDto(r: PotentialRowColumns): PotentialDto {
 	};
 }
 
-export interface SpinRecordRowColumns
-	extends CentreRefColumns, ProteinRefColumns, SourceRefColumns {
-	accession: string;
-	version: number;
-	oxidation_level: string;
-	spin_s: number;
-	g_values: string;
-	temperature_k: number | null;
-	method: string;
-	is_demo: number;
-}
+export type SpinRecordRowColumns = CentreRefColumns &
+	ProteinRefColumns &
+	SourceRefColumns &
+	Pick<
+		Row<'spin_record'>,
+		'version' | 'oxidation_level' | 'spin_s' | 'g_values' | 'temperature_k' | 'method'
+	> &
+	Pick<Row<'entry'>, 'accession' | 'is_demo'>;
 
 export function toSpinRecordDto(r: SpinRecordRowColumns): SpinRecordDto {
 	return {
@@ -113,7 +124,7 @@ export function toSpinRecordDto(r: SpinRecordRowColumns): SpinRecordDto {
 		protein: toProteinRef(r),
 		oxidationLevel: r.oxidation_level,
 		spinS: r.spin_s,
-		gValues: JSON.parse(r.g_values) as number[],
+		gValues: readJson(r.g_values),
 		temperatureK: r.temperature_k,
 		method: r.method,
 		source: toSourceRef(r),
@@ -121,21 +132,20 @@ export function toSpinRecordDto(r: SpinRecordRowColumns): SpinRecordDto {
 	};
 }
 
-export interface DistanceRowColumns extends ProteinRefColumns, SourceRefColumns {
-	accession: string;
-	version: number;
-	a_accession: string;
-	a_label: string;
-	a_kind: string;
-	b_accession: string;
-	b_label: string;
-	b_kind: string;
-	edge_to_edge_a: number;
-	centre_to_centre_a: number | null;
-	structure_id: string;
-	method: string;
-	is_demo: number;
-}
+export type DistanceRowColumns = ProteinRefColumns &
+	SourceRefColumns &
+	Pick<
+		Row<'distance'>,
+		'version' | 'edge_to_edge_a' | 'centre_to_centre_a' | 'structure_id' | 'method'
+	> &
+	Pick<Row<'entry'>, 'accession' | 'is_demo'> & {
+		a_accession: string;
+		a_label: string;
+		a_kind: CofactorKind;
+		b_accession: string;
+		b_label: string;
+		b_kind: CofactorKind;
+	};
 
 export function toDistanceDto(r: DistanceRowColumns): DistanceDto {
 	return {

@@ -2,7 +2,6 @@ import type { Kysely } from 'kysely';
 import { describeConflictRule, potentialConflict } from '$lib/catalogue/conflicts';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
 import type { EntryData } from '$lib/schemas/entryData';
-import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { potentialIsVisible, type Viewer } from '../catalogue/visibility';
 import { findVisibleEntry } from '../catalogue/visibleEntry';
@@ -45,7 +44,7 @@ export async function warningsForVersion(
 		.executeTakeFirst();
 	if (!centre) return [];
 	const warnings: VersionWarning[] = [];
-	const range = checkTypicalRange(centre.cofactor_kind as CofactorKind, d.couple, d.emMvShe);
+	const range = checkTypicalRange(centre.cofactor_kind, d.couple, d.emMvShe);
 	if (range) {
 		warnings.push({
 			kind: 'range',

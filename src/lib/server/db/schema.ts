@@ -39,8 +39,20 @@ export interface Database {
 
 export type { Role } from '$lib/roles';
 import type { Role } from '$lib/roles';
-export type EntryKind = 'protein' | 'centre' | 'potential' | 'spin_record' | 'distance' | 'source';
-export type Visibility = 'public' | 'group' | 'embargoed';
+import type { PotentialUnit } from '$lib/science/units';
+import type { ReferenceElectrode } from '$lib/science/referenceElectrodes';
+import type {
+	CofactorKind,
+	DistanceMethod,
+	EntryKind,
+	PotentialMethod,
+	SourceKind,
+	SpinMethod,
+	Visibility
+} from '$lib/schemas/vocabulary';
+import type { JsonColumn } from './json';
+
+export type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
 export type VersionStatus =
 	'draft' | 'submitted' | 'returned' | 'approved' | 'rejected' | 'withdrawn';
 export type SubmissionStatus =
@@ -141,7 +153,7 @@ export interface EntryVersionTable {
 	version: number | null;
 	status: VersionStatus;
 	/** JSON of the entity's stored schema (src/lib/schemas), validated on write and read. */
-	data: string;
+	data: JsonColumn<Record<string, unknown>>;
 	change_note: string | null;
 	submission_id: number | null;
 	based_on_version: number | null;
@@ -277,12 +289,12 @@ export interface CatalogueStateTable {
 export interface SourceTable {
 	entry_id: number;
 	version: number;
-	source_kind: string;
+	source_kind: SourceKind;
 	doi: string | null;
 	pubmed_id: string | null;
 	title: string;
 	/** JSON array of author names as "Family, Given". */
-	authors: string;
+	authors: JsonColumn<string[]>;
 	journal: string | null;
 	year: number | null;
 }
@@ -294,7 +306,7 @@ export interface ProteinTable {
 	organism: string;
 	uniprot: string | null;
 	/** JSON array of structure identifiers. */
-	structure_ids: string;
+	structure_ids: JsonColumn<string[]>;
 	revision: number;
 }
 
@@ -303,11 +315,11 @@ export interface CentreTable {
 	version: number;
 	protein_entry_id: number;
 	label: string;
-	cofactor_kind: string;
+	cofactor_kind: CofactorKind;
 	ligation: string | null;
 	chain_id: string | null;
 	/** JSON array of residue numbers. */
-	residues: string;
+	residues: JsonColumn<number[]>;
 	revision: number;
 }
 
@@ -318,7 +330,7 @@ export interface PotentialTable {
 	centre_entry_id: number;
 	centre_accession: string;
 	centre_label: string;
-	cofactor_kind: string;
+	cofactor_kind: CofactorKind;
 	protein_entry_id: number;
 	protein_accession: string;
 	protein_name: string;
@@ -326,13 +338,13 @@ export interface PotentialTable {
 	couple: string;
 	em_mv_she: number;
 	reported_value: number;
-	reported_unit: string;
-	reference_electrode: string;
+	reported_unit: PotentialUnit;
+	reference_electrode: ReferenceElectrode;
 	ph: number | null;
 	temperature_k: number | null;
 	ionic_strength_m: number | null;
 	buffer: string | null;
-	method: string;
+	method: PotentialMethod;
 	n_electrons: number;
 	uncertainty_mv: number | null;
 	source_entry_id: number | null;
@@ -349,9 +361,9 @@ export interface SpinRecordTable {
 	oxidation_level: string;
 	spin_s: number;
 	/** JSON array of principal g-values, largest first. */
-	g_values: string;
+	g_values: JsonColumn<number[]>;
 	temperature_k: number | null;
-	method: string;
+	method: SpinMethod;
 	source_entry_id: number | null;
 }
 
@@ -363,7 +375,7 @@ export interface DistanceTable {
 	edge_to_edge_a: number;
 	centre_to_centre_a: number | null;
 	structure_id: string;
-	method: string;
+	method: DistanceMethod;
 	source_entry_id: number | null;
 }
 

@@ -1,4 +1,4 @@
-import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary';
+import { COFACTOR_KIND_LABELS } from '$lib/schemas/vocabulary';
 import { refreshPotentialRows } from '../catalogue/potentialRows';
 import { centreLabelKey } from '../uploads/lookups';
 import { firstInFile, resolveCentreProtein } from '../uploads/rows';
@@ -34,7 +34,7 @@ export const centre: KindOnServer<'centre'> = {
 			.where('centre.entry_id', '=', entryId)
 			.executeTakeFirst();
 		if (!c) return 'Centre';
-		const kindLabel = COFACTOR_KIND_LABELS[c.cofactor_kind as CofactorKind] ?? c.cofactor_kind;
+		const kindLabel = COFACTOR_KIND_LABELS[c.cofactor_kind];
 		return `${c.label} (${kindLabel}) · ${c.name}`;
 	},
 	potentialRowsColumn: 'centre_entry_id',

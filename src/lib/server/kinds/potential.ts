@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import { COUPLES_BY_KIND, type CofactorKind } from '$lib/schemas/vocabulary';
+import { COUPLES_BY_KIND } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { InvalidEntryDataError } from '../catalogue/errors';
 import { potentialContext } from '../catalogue/potentialRows';
@@ -25,7 +25,7 @@ async function assertCoupleFitsCentre(
 		.select('cofactor_kind')
 		.where('entry_id', '=', centreEntryId)
 		.executeTakeFirstOrThrow();
-	const allowed = COUPLES_BY_KIND[centre.cofactor_kind as CofactorKind] ?? [];
+	const allowed = COUPLES_BY_KIND[centre.cofactor_kind];
 	if (allowed.length > 0 && !allowed.includes(couple)) {
 		throw new InvalidEntryDataError(
 			'couple',

@@ -1,3 +1,4 @@
+import { readJson } from '../db/json';
 import { upsertReadModel, type KindOnServer } from './kind';
 
 export const source: KindOnServer<'source'> = {
@@ -22,7 +23,7 @@ export const source: KindOnServer<'source'> = {
 			.where('entry_id', '=', entryId)
 			.executeTakeFirst();
 		if (!s) return 'Source';
-		const authors = JSON.parse(s.authors) as string[];
+		const authors = readJson(s.authors);
 		const first = (authors[0] ?? '').split(',')[0];
 		return `${first}${authors.length > 1 ? ' et al.' : ''}${s.year ? ` (${s.year})` : ''}: ${s.title}`;
 	},

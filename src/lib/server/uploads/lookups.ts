@@ -129,7 +129,7 @@ export async function loadUploadLookups(
 			entryId: c.entry_id,
 			proteinEntryId: c.protein_entry_id,
 			label: c.label,
-			cofactorKind: c.cofactor_kind as CofactorKind
+			cofactorKind: c.cofactor_kind
 		};
 		centresByAccession.set(c.accession, fact);
 		centresByProteinLabel.set(centreLabelKey(c.protein_entry_id, c.label), fact);
