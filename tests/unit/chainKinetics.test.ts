@@ -39,6 +39,19 @@ function birthDeathMfpt(up: number[], down: number[]): number {
 	return tau;
 }
 
+/** A four-centre chain, and the same chain with a dead-end side centre S hung on C1. */
+function deadEndBranch(): { main: ChainInput; branched: ChainInput } {
+	const main = linear([-350, -300, -250, -200], [9, 9, 9]);
+	return {
+		main,
+		branched: {
+			...main,
+			centres: [...main.centres, { id: 'S', emMv: -320 }],
+			hops: [...main.hops, { from: 'C1', to: 'S', edgeDistanceA: 8 }]
+		}
+	};
+}
+
 describe('analyseChain', () => {
 	it('a single hop: the throughput is that hop’s rate', () => {
 		const r = analyseChain(linear([-300, -250], [8]));
@@ -74,12 +87,7 @@ describe('analyseChain', () => {
 		expect(r.throughputPerS / (r.hops[0]!.forwardRate + r.hops[1]!.forwardRate)).toBeCloseTo(1, 9);
 	});
 	it('handles branches: a dead-end side branch slows transit only slightly, never speeds it', () => {
-		const main = linear([-350, -300, -250, -200], [9, 9, 9]);
-		const branched: ChainInput = {
-			...main,
-			centres: [...main.centres, { id: 'S', emMv: -320 }],
-			hops: [...main.hops, { from: 'C1', to: 'S', edgeDistanceA: 8 }]
-		};
+		const { main, branched } = deadEndBranch();
 		const a = analyseChain(main);
 		const b = analyseChain(branched);
 		expect(b.meanTransitTimeS).toBeGreaterThanOrEqual(a.meanTransitTimeS);
@@ -214,12 +222,7 @@ describe('sensitivities', () => {
 	 * its sensitivity is exactly 0.
 	 */
 	it('are 0 for a dead-end side branch, whose extra transit time has a closed form', () => {
-		const main = linear([-350, -300, -250, -200], [9, 9, 9]);
-		const branched: ChainInput = {
-			...main,
-			centres: [...main.centres, { id: 'S', emMv: -320 }],
-			hops: [...main.hops, { from: 'C1', to: 'S', edgeDistanceA: 8 }]
-		};
+		const { main, branched } = deadEndBranch();
 		const a = analyseChain(main);
 		const b = analyseChain(branched);
 		const up = a.hops.map((h) => h.forwardRate);

@@ -144,6 +144,16 @@ export async function createGroup(
 	return id;
 }
 
+/** @throws {AdminRuleError} when there is no such group. */
+async function requireGroup(trx: Kysely<Database>, groupId: number): Promise<void> {
+	const group = await trx
+		.selectFrom('research_group')
+		.select('id')
+		.where('id', '=', groupId)
+		.executeTakeFirst();
+	if (!group) throw new AdminRuleError('groupId', 'no such group');
+}
+
 /** @throws {AdminRuleError} for an unknown group or e-mail, or an existing membership. */
 export async function addGroupMember(
 	trx: Kysely<Database>,
@@ -151,12 +161,7 @@ export async function addGroupMember(
 	groupId: number,
 	email: string
 ): Promise<void> {
-	const group = await trx
-		.selectFrom('research_group')
-		.select('id')
-		.where('id', '=', groupId)
-		.executeTakeFirst();
-	if (!group) throw new AdminRuleError('groupId', 'no such group');
+	await requireGroup(trx, groupId);
 	const user = await trx
 		.selectFrom('User')
 		.select('id')
@@ -184,12 +189,7 @@ export async function removeGroupMember(
 	groupId: number,
 	userId: string
 ): Promise<void> {
-	const group = await trx
-		.selectFrom('research_group')
-		.select('id')
-		.where('id', '=', groupId)
-		.executeTakeFirst();
-	if (!group) throw new AdminRuleError('groupId', 'no such group');
+	await requireGroup(trx, groupId);
 	const removed = await trx
 		.deleteFrom('group_member')
 		.where('group_id', '=', groupId)
