@@ -5,7 +5,12 @@ import { ENTRY_KIND_LABELS } from '$lib/schemas/vocabulary';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
 import type { Database, SubmissionStatus } from '../db/schema';
-import { addVersion, createEntry, type VisibilityChange } from '../catalogue/entries';
+import {
+	addVersion,
+	allocateEntries,
+	type AllocatedEntry,
+	type VisibilityChange
+} from '../catalogue/entries';
 import { checkEntryReferences } from '../catalogue/references';
 import { findVisibleEntry, notVisibleMessage } from '../catalogue/visibleEntry';
 import { viewerOf } from '../catalogue/visibility';
@@ -74,7 +79,7 @@ export async function createDraft(
 ): Promise<{ submissionId: number; accession: string }> {
 	await assertGroupAllowed(trx, user, input.visibility);
 	await assertPendingRoom(trx, user.id, 1, input.pendingRowsMax);
-	let entry: { id: number; accession: string };
+	let entry: AllocatedEntry;
 	if (input.editAccession) {
 		// Only an approved entry the user may see can get a proposed new version; anything else
 		// (unknown, hidden, or someone's pending accession) is answered alike.
@@ -89,7 +94,8 @@ export async function createDraft(
 		}
 		entry = existing;
 	} else {
-		entry = await createEntry(trx, { kind: input.entry.kind, createdBy: user.id });
+		const [created] = await allocateEntries(trx, [{ kind: input.entry.kind, createdBy: user.id }]);
+		entry = created as AllocatedEntry;
 	}
 	const { id: submissionId } = await trx
 		.insertInto('submission')
