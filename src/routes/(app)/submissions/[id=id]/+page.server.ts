@@ -5,7 +5,7 @@ import { db } from '$lib/server/db';
 import { readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefaults';
 import { runCurationAction } from '$lib/server/curation/outbox';
-import { loadSubmissionView, submissionKind } from '$lib/server/curation/queue';
+import { loadSubmissionView, submissionKind } from '$lib/server/curation/submissionView';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';

@@ -4,7 +4,7 @@ import { batchDecisionSchema, reviewDecisionSchema } from '$lib/schemas/submissi
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { runCurationAction } from '$lib/server/curation/outbox';
-import { loadSubmissionView } from '$lib/server/curation/queue';
+import { loadSubmissionView } from '$lib/server/curation/submissionView';
 import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
