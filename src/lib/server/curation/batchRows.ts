@@ -1,5 +1,10 @@
 import { sql, type Kysely } from 'kysely';
 import type { EntryKind } from '$lib/schemas/vocabulary';
+import {
+	parseStoredWarnings,
+	type VersionWarning,
+	type VersionWarningKind
+} from '$lib/schemas/versionWarning';
 import type { Database } from '../db/schema';
 
 /**
@@ -8,7 +13,15 @@ import type { Database } from '../db/schema';
  * checked again.
  */
 
-/** A CSV batch's kinds and flags from the warnings stored when its file was checked. */
+/** 1 for a version whose stored warnings include one of `kind`, else null (for `count`). */
+const hasWarningOf = (kind: VersionWarningKind) =>
+	sql<number | null>`case when exists (select 1 from json_each(entry_version.warnings) as w
+		where w.value ->> 'kind' = ${kind}) then 1 end`;
+
+/**
+ * A CSV batch's kinds and flags from the warnings stored when its file was checked: how many
+ * rows are outside a typical range, and how many conflict with an approved value.
+ */
 export async function batchFlagCounts(db: Kysely<Database>, submissionId: number) {
 	const rows = await db
 		.selectFrom('entry_version')
@@ -16,12 +29,8 @@ export async function batchFlagCounts(db: Kysely<Database>, submissionId: number
 		.select((eb) => [
 			'entry.kind',
 			eb.fn.countAll<number>().as('n'),
-			eb.fn
-				.count<number>(sql`case when entry_version.warnings like '%typical range%' then 1 end`)
-				.as('range'),
-			eb.fn
-				.count<number>(sql`case when entry_version.warnings like '%conflicts with%' then 1 end`)
-				.as('conflicts')
+			eb.fn.count<number>(hasWarningOf('range')).as('range'),
+			eb.fn.count<number>(hasWarningOf('conflict')).as('conflicts')
 		])
 		.where('entry_version.submission_id', '=', submissionId)
 		.groupBy('entry.kind')
@@ -40,7 +49,7 @@ export interface BatchRow {
 	kind: EntryKind;
 	status: string;
 	data: Record<string, unknown>;
-	warnings: string[];
+	warnings: VersionWarning[];
 	comments: string[];
 }
 
@@ -95,7 +104,7 @@ export async function loadBatchRows(
 			kind: r.kind,
 			status: r.status,
 			data: JSON.parse(r.data) as Record<string, unknown>,
-			warnings: r.warnings ? (JSON.parse(r.warnings) as string[]) : [],
+			warnings: parseStoredWarnings(r.warnings),
 			comments: comments.filter((c) => c.entry_version_id === r.id).map((c) => c.body)
 		}))
 	};

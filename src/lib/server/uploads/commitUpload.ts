@@ -2,6 +2,7 @@ import type { Kysely } from 'kysely';
 import { DomainError } from '$lib/domainError';
 import { yieldToEventLoop } from '../eventLoop';
 import { UPLOAD_KIND_NOUNS } from '$lib/catalogue/uploadColumns';
+import { storeWarnings, type VersionWarning } from '$lib/schemas/versionWarning';
 import type { SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
 import type { Database } from '../db/schema';
@@ -74,7 +75,7 @@ export async function commitUpload(
 			row: p.row,
 			kind: 'protein' as const,
 			data: p.data as unknown,
-			warnings: [] as string[],
+			warnings: [] as VersionWarning[],
 			proteinKey: p.key,
 			newProteinKey: null as string | null
 		})),
@@ -125,7 +126,7 @@ export async function commitUpload(
 						group_id: meta.visibility.groupId,
 						embargo_until: meta.visibility.embargoUntil,
 						row_number: p.row,
-						warnings: p.warnings.length ? JSON.stringify(p.warnings) : null
+						warnings: storeWarnings(p.warnings)
 					};
 				})
 			)
