@@ -3,6 +3,7 @@ import { SubmissionStateError } from '$lib/server/curation/errors';
 import {
 	SUBMISSION_ACTIONS,
 	SUBMISSION_STATUSES,
+	allowedActions,
 	allows,
 	nextStatus,
 	type SubmissionAction
@@ -57,6 +58,8 @@ describe('submission transitions', () => {
 
 	it.each(pairs)('%s + %s', (status, action) => {
 		const expected = ALLOWED.find(([s, a]) => s === status && a === action)?.[2];
+		// What pages offer is the same table.
+		expect(allowedActions(status)[action]).toBe(expected !== undefined);
 		if (expected) {
 			expect(allows(status, action)).toBe(true);
 			expect(nextStatus(status, action, 7)).toBe(expected);

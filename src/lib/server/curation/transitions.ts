@@ -95,6 +95,14 @@ export function allows(status: SubmissionStatus, action: SubmissionAction): bool
 	return SUBMISSION_TRANSITIONS[status][action] !== undefined;
 }
 
+/** Which actions a submission in `status` allows: what pages offer it (the services decide). */
+export function allowedActions(status: SubmissionStatus): Record<SubmissionAction, boolean> {
+	return Object.fromEntries(SUBMISSION_ACTIONS.map((a) => [a, allows(status, a)])) as Record<
+		SubmissionAction,
+		boolean
+	>;
+}
+
 /**
  * The state a submission moves to when `action` is taken on it (its id names it in the refusal).
  * @throws {SubmissionStateError} (409) when the action is not allowed in that state.
