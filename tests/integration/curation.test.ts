@@ -11,7 +11,8 @@ import {
 	withdrawSubmission
 } from '$lib/server/curation/submissions';
 import { addComment, decideSubmission } from '$lib/server/curation/reviews';
-import { listQueue, loadSubmissionView } from '$lib/server/curation/queue';
+import { listQueue } from '$lib/server/curation/submissionLists';
+import { loadSubmissionView } from '$lib/server/curation/submissionView';
 import { dueDigests } from '$lib/server/curation/notices';
 import {
 	SubmissionAccessError,

@@ -1,4 +1,4 @@
-import type { Kysely } from 'kysely';
+import { sql, type Kysely } from 'kysely';
 import { formatAccession } from '$lib/schemas/accession';
 import { parseEntryData } from '$lib/schemas/entryData';
 import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
@@ -10,6 +10,7 @@ import { refreshPotentialRows } from './potentialRows';
 import { bumpCatalogueRevision } from './revision';
 import { projectApprovedVersion } from './projection';
 import { writeAudit } from '../audit/log';
+import { setImmediate } from 'node:timers/promises';
 
 /*
  * Writing entries and versions. An entry gets its accession when created; its versions are
@@ -26,28 +27,73 @@ export interface NewEntry {
 	createdBy?: string | null;
 }
 
-export async function createEntry(
+/** An entry as created: its row id and its accession. */
+export interface AllocatedEntry {
+	id: number;
+	accession: string;
+}
+
+/** Entry rows per multi-row insert: 500 × 9 columns stays far below SQLite's 32 766 parameters. */
+const ALLOCATE_CHUNK_ROWS = 500;
+
+/**
+ * Creates one entry row for each of `entries`, in order, each with its final accession, and
+ * returns their ids and accessions. The one way entries are made: the form path, the CSV commit
+ * and the seed all come here. Ids are handed out here rather than by SQLite so that each row's
+ * accession (derived from its id by `formatAccession`, which widens past HL999999) goes into
+ * the same insert as the row: no placeholder accession is ever written. The next id follows
+ * the highest ever handed out (`sqlite_sequence`: ids of withdrawn drafts are never reused).
+ * Must run in the writing transaction, which holds SQLite's write lock from the first
+ * statement (transactions begin IMMEDIATE), so nobody can take the same ids meanwhile; between
+ * chunks of a large batch it lets the event loop go.
+ * @throws {Error} when not given a transaction (a programming error).
+ */
+export async function allocateEntries(
 	trx: Kysely<Database>,
-	entry: NewEntry
-): Promise<{ id: number; accession: string }> {
-	// The accession is derived from the row id, which SQLite assigns; a placeholder fills the
-	// NOT NULL column for the instant between insert and update inside the same transaction.
-	const { id } = await trx
-		.insertInto('entry')
-		.values({
-			accession: `pending-${crypto.randomUUID()}`,
-			kind: entry.kind,
-			visibility: entry.visibility ?? 'public',
-			group_id: entry.groupId ?? null,
-			embargo_until: entry.embargoUntil ?? null,
-			is_demo: entry.isDemo ? 1 : 0,
-			created_by: entry.createdBy ?? null
-		})
-		.returning('id')
-		.executeTakeFirstOrThrow();
-	const accession = formatAccession(id);
-	await trx.updateTable('entry').set({ accession }).where('id', '=', id).execute();
-	return { id, accession };
+	entries: readonly NewEntry[]
+): Promise<AllocatedEntry[]> {
+	if (!trx.isTransaction) {
+		throw new Error('allocateEntries must run inside the transaction that writes the entries');
+	}
+	if (entries.length === 0) return [];
+	const last = await sql<{ seq: number }>`select max(
+			coalesce((select seq from sqlite_sequence where name = 'entry'), 0),
+			coalesce((select max(id) from entry), 0)
+		) as seq`.execute(trx);
+	const first = Number(last.rows[0]?.seq ?? 0) + 1;
+	const allocated = entries.map((_, i) => ({
+		id: first + i,
+		accession: formatAccession(first + i)
+	}));
+	for (let start = 0; start < entries.length; start += ALLOCATE_CHUNK_ROWS) {
+		if (start > 0) await setImmediate();
+		await trx
+			.insertInto('entry')
+			.values(
+				entries.slice(start, start + ALLOCATE_CHUNK_ROWS).map((entry, j) => {
+					const { id, accession } = allocated[start + j] as AllocatedEntry;
+					return {
+						id,
+						accession,
+						kind: entry.kind,
+						visibility: entry.visibility ?? 'public',
+						group_id: entry.groupId ?? null,
+						embargo_until: entry.embargoUntil ?? null,
+						is_demo: entry.isDemo ? 1 : 0,
+						created_by: entry.createdBy ?? null,
+						merged_into_entry_id: null
+					};
+				})
+			)
+			.execute();
+	}
+	return allocated;
+}
+
+/** One new entry (see `allocateEntries`), in the caller's transaction. */
+export async function createEntry(trx: Kysely<Database>, entry: NewEntry): Promise<AllocatedEntry> {
+	const [created] = await allocateEntries(trx, [entry]);
+	return created as AllocatedEntry;
 }
 
 export interface NewVersion {

@@ -2,23 +2,16 @@ import type { Kysely } from 'kysely';
 import { describeConflictRule, potentialConflict } from '$lib/catalogue/conflicts';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
 import type { EntryData } from '$lib/schemas/entryData';
+import type { VersionWarning } from '$lib/schemas/versionWarning';
 import type { Database } from '../db/schema';
 import { potentialIsVisible, type Viewer } from '../catalogue/visibility';
 import { findVisibleEntry } from '../catalogue/visibleEntry';
 
 /*
- * Warnings on a proposed version: things a curator should look at twice, none of which stops a
- * submission. Errors (a reference that does not resolve) are checked elsewhere.
+ * Warnings on a proposed form version (see `VersionWarning`), computed when it is read: none of
+ * them stops a submission. Errors (a reference that does not resolve) are checked elsewhere.
  */
-export interface VersionWarning {
-	kind: 'range' | 'conflict';
-	field: string;
-	message: string;
-	/** Where the rule or the range comes from. */
-	source?: string;
-	/** The approved entry the value disagrees with. */
-	accession?: string;
-}
+export type { VersionWarning };
 
 /** Who the warnings are for: curators compare with every approved value, others with what they may see. */
 export type WarningAudience = Viewer | null | 'curator';

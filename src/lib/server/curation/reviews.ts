@@ -15,6 +15,7 @@ import { commentMail, outcomeMail } from './notices';
 import type { OutgoingMail } from './outbox';
 import { setSubmissionStatus } from './submissions';
 import { setImmediate } from 'node:timers/promises';
+import { nextStatus, type SubmissionAction } from './transitions';
 import { duringBulkWrite } from '../catalogue/revision';
 
 /*
@@ -59,18 +60,25 @@ async function loadSubmission(trx: Kysely<Database>, submissionId: number) {
 	return submission;
 }
 
+/** The actions of a curator's decision (a batch's is known only once its rows are). */
+type DecisionAction = Extract<
+	SubmissionAction,
+	'approve' | 'approve_in_part' | 'return' | 'reject'
+>;
+
 /**
- * The submission a curator is about to decide on, checked to await a decision and (four eyes)
- * not to be the curator's own.
+ * The submission a curator is about to decide on, checked to allow the decision (see
+ * `SUBMISSION_TRANSITIONS`) and (four eyes) not to be the curator's own.
  */
-async function loadForDecision(trx: Kysely<Database>, curator: SessionUser, submissionId: number) {
+async function loadForDecision(
+	trx: Kysely<Database>,
+	curator: SessionUser,
+	submissionId: number,
+	action: DecisionAction
+) {
 	assertRole(curator, 'curator');
 	const submission = await loadSubmission(trx, submissionId);
-	if (submission.status !== 'submitted') {
-		throw new SubmissionStateError(
-			`submission ${submissionId} is ${submission.status}; only submitted ones await a decision`
-		);
-	}
+	nextStatus(submission.status, action, submissionId);
 	if (submission.submitted_by === curator.id) {
 		throw new SubmissionAccessError('another curator must review your own submission');
 	}
@@ -119,7 +127,7 @@ async function approvePending(
 		let after = 0;
 		for (;;) {
 			const last = await inTransaction(db, async (trx) => {
-				await loadForDecision(trx, curator, submissionId);
+				await loadForDecision(trx, curator, submissionId, 'approve');
 				const chunk = await trx
 					.selectFrom('entry_version')
 					.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
@@ -178,20 +186,21 @@ export async function decideSubmission(
 	origin: string
 ): Promise<DecisionOutcome> {
 	// Refused before anything is written: not awaiting a decision, or the curator's own.
-	await loadForDecision(db, curator, submissionId);
+	await loadForDecision(db, curator, submissionId, decision.decision);
 	const now = new Date().toISOString();
 	if (decision.decision === 'approve') {
 		await approvePending(db, curator, submissionId, new Set(), now);
 	}
 	return inTransaction(db, async (trx) => {
-		const submission = await loadForDecision(trx, curator, submissionId);
+		const submission = await loadForDecision(trx, curator, submissionId, decision.decision);
+		const status = nextStatus(submission.status, decision.decision, submissionId);
 		let approved: DecisionOutcome['approved'] = [];
 		if (decision.decision === 'approve') {
 			await approvePending(trx, curator, submissionId, new Set(), now);
 			approved = await approvedVersions(trx, submissionId);
 			await trx
 				.updateTable('submission')
-				.set({ status: 'approved', updated_at: now })
+				.set({ status, updated_at: now })
 				.where('id', '=', submissionId)
 				.execute();
 		} else {
@@ -203,8 +212,12 @@ export async function decideSubmission(
 						(submission.channel === 'csv' ? ', or return the remaining rows row by row' : '')
 				);
 			}
-			const status = decision.decision === 'return' ? 'returned' : 'rejected';
-			await setSubmissionStatus(trx, submissionId, status, status);
+			await setSubmissionStatus(
+				trx,
+				submissionId,
+				status,
+				decision.decision === 'return' ? 'returned' : 'rejected'
+			);
 		}
 		await trx
 			.insertInto('review')
@@ -231,15 +244,7 @@ export async function decideSubmission(
 			action: `review.${decision.decision}`,
 			submissionId,
 			before: { status: submission.status },
-			after: {
-				status:
-					decision.decision === 'approve'
-						? 'approved'
-						: decision.decision === 'return'
-							? 'returned'
-							: 'rejected',
-				approved
-			},
+			after: { status, approved },
 			detail: decision.comment || null
 		});
 		const mails = await outcomeMail(
@@ -267,9 +272,7 @@ export async function addComment(
 	if (!isOwner && !roleAtLeast(user.role, 'curator')) {
 		throw new SubmissionAccessError('only the contributor and curators can comment here');
 	}
-	if (submission.status === 'withdrawn') {
-		throw new SubmissionStateError(`submission ${submissionId} was withdrawn`);
-	}
+	nextStatus(submission.status, 'comment', submissionId);
 	await trx
 		.insertInto('submission_comment')
 		.values({ submission_id: submissionId, entry_version_id: null, author_id: user.id, body })
@@ -291,7 +294,9 @@ async function planBatch(
 	submissionId: number,
 	decision: BatchDecision
 ) {
-	const submission = await loadForDecision(trx, curator, submissionId);
+	// Every row is approved but those returned: the decision starts by approving; the state it
+	// leads to (approved, partially approved, returned) is known once the rows are.
+	const submission = await loadForDecision(trx, curator, submissionId, 'approve');
 	const versions = await trx
 		.selectFrom('entry_version')
 		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
@@ -382,12 +387,11 @@ export async function decideBatch(
 				)
 				.execute();
 		}
-		const status =
-			returnedIds.length === 0
-				? 'approved'
-				: approved.length === 0
-					? 'returned'
-					: 'partially_approved';
+		const status = nextStatus(
+			submission.status,
+			returnedIds.length === 0 ? 'approve' : approved.length === 0 ? 'return' : 'approve_in_part',
+			submissionId
+		);
 		await trx
 			.updateTable('submission')
 			.set({ status, updated_at: now })

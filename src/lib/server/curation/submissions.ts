@@ -5,7 +5,12 @@ import { ENTRY_KIND_LABELS } from '$lib/schemas/vocabulary';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
 import type { Database, SubmissionStatus } from '../db/schema';
-import { addVersion, createEntry, type VisibilityChange } from '../catalogue/entries';
+import {
+	addVersion,
+	allocateEntries,
+	type AllocatedEntry,
+	type VisibilityChange
+} from '../catalogue/entries';
 import { checkEntryReferences } from '../catalogue/references';
 import { findVisibleEntry, notVisibleMessage } from '../catalogue/visibleEntry';
 import { viewerOf } from '../catalogue/visibility';
@@ -17,12 +22,14 @@ import {
 } from './errors';
 import { noticesForNewSubmission } from './notices';
 import { assertPendingRoom } from './pending';
+import { nextStatus } from './transitions';
 import type { OutgoingMail } from './outbox';
 
 /*
  * A contributor's side of curation: drafts (one entry version per form submission), submitting
  * for review, withdrawing, and comments. Every function runs in the caller's transaction and
- * writes the audit log; mail comes back to the caller to send after commit.
+ * writes the audit log; mail comes back to the caller to send after commit. Which action a
+ * state allows, and the state it leads to, is `SUBMISSION_TRANSITIONS` (`transitions.ts`).
  */
 
 export interface DraftInput {
@@ -30,9 +37,6 @@ export interface DraftInput {
 	visibility: VisibilityChange;
 	changeNote: string | null;
 }
-
-/** States in which the contributor may still change the data. */
-const EDITABLE: readonly SubmissionStatus[] = ['draft', 'returned'];
 
 export async function assertGroupAllowed(
 	trx: Kysely<Database>,
@@ -74,7 +78,7 @@ export async function createDraft(
 ): Promise<{ submissionId: number; accession: string }> {
 	await assertGroupAllowed(trx, user, input.visibility);
 	await assertPendingRoom(trx, user.id, 1, input.pendingRowsMax);
-	let entry: { id: number; accession: string };
+	let entry: AllocatedEntry;
 	if (input.editAccession) {
 		// Only an approved entry the user may see can get a proposed new version; anything else
 		// (unknown, hidden, or someone's pending accession) is answered alike.
@@ -89,7 +93,8 @@ export async function createDraft(
 		}
 		entry = existing;
 	} else {
-		entry = await createEntry(trx, { kind: input.entry.kind, createdBy: user.id });
+		const [created] = await allocateEntries(trx, [{ kind: input.entry.kind, createdBy: user.id }]);
+		entry = created as AllocatedEntry;
 	}
 	const { id: submissionId } = await trx
 		.insertInto('submission')
@@ -168,11 +173,7 @@ export async function updateDraft(
 	input: DraftInput
 ): Promise<void> {
 	const submission = await loadOwnSubmission(trx, user, submissionId);
-	if (!EDITABLE.includes(submission.status)) {
-		throw new SubmissionStateError(
-			`submission ${submissionId} is ${submission.status}; only drafts and returned submissions can be edited`
-		);
-	}
+	nextStatus(submission.status, 'edit', submissionId);
 	await assertGroupAllowed(trx, user, input.visibility);
 	const [version] = await formVersion(trx, submissionId);
 	if (!version) throw new SubmissionStateError(`submission ${submissionId} holds no version`);
@@ -237,9 +238,7 @@ export async function submitForReview(
 	origin: string
 ): Promise<{ mails: OutgoingMail[] }> {
 	const submission = await loadOwnSubmission(trx, user, submissionId);
-	if (!EDITABLE.includes(submission.status)) {
-		throw new SubmissionStateError(`submission ${submissionId} is already ${submission.status}`);
-	}
+	const status = nextStatus(submission.status, 'submit', submissionId);
 	for (const v of await formVersion(trx, submissionId)) {
 		const errors = await checkEntryReferences(
 			trx,
@@ -248,16 +247,16 @@ export async function submitForReview(
 		);
 		if (Object.keys(errors).length > 0) throw new SubmissionInvalidError(errors);
 	}
-	await setStatus(trx, submissionId, 'submitted', 'submitted');
+	await setStatus(trx, submissionId, status, 'submitted');
 	await writeAudit(trx, {
 		actorId: user.id,
 		action: submission.status === 'returned' ? 'submission.resubmit' : 'submission.submit',
 		submissionId,
 		before: { status: submission.status },
-		after: { status: 'submitted' }
+		after: { status }
 	});
 	return {
-		mails: await noticesForNewSubmission(trx, { ...submission, status: 'submitted' }, origin)
+		mails: await noticesForNewSubmission(trx, { ...submission, status }, origin)
 	};
 }
 
@@ -268,11 +267,7 @@ export async function withdrawSubmission(
 	submissionId: number
 ): Promise<void> {
 	const submission = await loadOwnSubmission(trx, user, submissionId);
-	if (!['draft', 'submitted', 'returned'].includes(submission.status)) {
-		throw new SubmissionStateError(
-			`submission ${submissionId} is ${submission.status} and can no longer be withdrawn`
-		);
-	}
+	const status = nextStatus(submission.status, 'withdraw', submissionId);
 	// A batch a curator is approving chunk by chunk already has approved rows: it is being
 	// decided, and withdrawing half of it would leave approved rows under a withdrawn batch.
 	const approved = await trx
@@ -287,13 +282,13 @@ export async function withdrawSubmission(
 			`submission ${submissionId} is being approved and can no longer be withdrawn`
 		);
 	}
-	await setStatus(trx, submissionId, 'withdrawn', 'withdrawn');
+	await setStatus(trx, submissionId, status, 'withdrawn');
 	await writeAudit(trx, {
 		actorId: user.id,
 		action: 'submission.withdraw',
 		submissionId,
 		before: { status: submission.status },
-		after: { status: 'withdrawn' }
+		after: { status }
 	});
 }
 

@@ -165,7 +165,10 @@ export interface EntryVersionTable {
 	visibility: Visibility | null;
 	group_id: number | null;
 	embargo_until: string | null;
-	/** For a CSV batch: the file row, and the warnings (JSON list of text) found on checking. */
+	/**
+	 * For a CSV batch: the file row, and the warnings found on checking (JSON `VersionWarning[]`,
+	 * migration 0006; read with `parseStoredWarnings`).
+	 */
 	row_number: number | null;
 	warnings: string | null;
 }

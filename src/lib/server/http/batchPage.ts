@@ -2,7 +2,7 @@ import { parseSearchParams } from '$lib/schemas/searchParams';
 import { BATCH_PAGE_SIZE, batchQuerySchema } from '$lib/schemas/submission';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
-import { loadBatchRows } from '../curation/queue';
+import { loadBatchRows } from '../curation/batchRows';
 import { queryError } from './failures';
 
 /** The page of a CSV batch a submission page shows, from its URL (?page, ?flagged). */

@@ -47,7 +47,14 @@ export const centre: KindOnServer<'centre'> = {
 				const existing = r.state.lookups.centresByProteinLabel.get(
 					centreLabelKey(resolved.proteinEntryId, d.label)
 				);
-				if (existing) r.warn('label', d.label, `already in the registry as ${existing.accession}`);
+				if (existing)
+					r.warn(
+						'duplicate',
+						'label',
+						d.label,
+						`already in the registry as ${existing.accession}`,
+						{ accession: existing.accession }
+					);
 			}
 			if (resolved.newProtein) {
 				// The protein is created by the first valid row that names it.

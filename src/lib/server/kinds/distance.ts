@@ -51,7 +51,14 @@ export const distance: KindOnServer<'distance'> = {
 			const key = distanceKey(d.centreAAccession, d.centreBAccession, d.structureId);
 			if (!firstInFile(r, key, 'edgeToEdgeA')) return false;
 			const existing = r.state.lookups.distanceKeys.get(key);
-			if (existing) r.warn('structureId', d.structureId, `already in the registry as ${existing}`);
+			if (existing)
+				r.warn(
+					'duplicate',
+					'structureId',
+					d.structureId,
+					`already in the registry as ${existing}`,
+					{ accession: existing }
+				);
 			return true;
 		}
 	}

@@ -114,7 +114,7 @@ export const potential: KindOnServer<'potential'> = {
 			const value = r.texts.reportedValue ?? '';
 			const range = checkTypicalRange(centre.cofactorKind, d.couple, d.emMvShe);
 			if (range)
-				r.warn('reportedValue', value, `${range.message} (range source: ${range.range.source})`);
+				r.warn('range', 'reportedValue', value, range.message, { source: range.range.source });
 			for (const p of r.state.lookups.potentialsByCentreCouple.get(
 				`${d.centreAccession}|${d.couple}`
 			) ?? []) {
@@ -123,11 +123,20 @@ export const potential: KindOnServer<'potential'> = {
 					p.ph === d.ph &&
 					p.temperatureK === d.temperatureK &&
 					p.method === d.method;
-				if (same) r.warn('reportedValue', value, `already in the registry as ${p.accession}`);
+				if (same)
+					r.warn('duplicate', 'reportedValue', value, `already in the registry as ${p.accession}`, {
+						accession: p.accession
+					});
 				else {
 					const c = potentialConflict(d, p);
 					if (c)
-						r.warn('reportedValue', value, `conflicts with approved ${p.accession}: ${c.message}`);
+						r.warn(
+							'conflict',
+							'reportedValue',
+							value,
+							`conflicts with approved ${p.accession}: ${c.message}`,
+							{ accession: p.accession }
+						);
 				}
 			}
 			return true;

@@ -44,7 +44,13 @@ export const spinRecord: KindOnServer<'spin_record'> = {
 			if (!firstInFile(r, key, 'oxidationLevel')) return false;
 			const existing = r.state.lookups.spinKeys.get(key);
 			if (existing)
-				r.warn('oxidationLevel', d.oxidationLevel, `already in the registry as ${existing}`);
+				r.warn(
+					'duplicate',
+					'oxidationLevel',
+					d.oxidationLevel,
+					`already in the registry as ${existing}`,
+					{ accession: existing }
+				);
 			return true;
 		}
 	}

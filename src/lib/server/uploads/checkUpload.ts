@@ -7,6 +7,7 @@ import { KINDS } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Protein } from '$lib/schemas/protein';
 import { parseEntryInput } from '$lib/schemas/submission';
+import { warningText, type VersionWarning } from '$lib/schemas/versionWarning';
 import type { Database } from '../db/schema';
 import type { Viewer } from '../catalogue/visibility';
 import { uploadRules } from '../kinds';
@@ -31,7 +32,7 @@ export interface UploadIssue {
 export interface PlannedEntry {
 	row: number;
 	entry: EntryData;
-	warnings: string[];
+	warnings: VersionWarning[];
 	/** A centre whose protein is created by this file: the protein's key in `proteins`. */
 	newProteinKey: string | null;
 }
@@ -142,7 +143,7 @@ export async function checkUpload(
 		const values: Record<string, unknown> = {};
 		const texts: Record<string, string> = {};
 		const extras: Record<string, string> = {};
-		const warnings: string[] = [];
+		const warnings: VersionWarning[] = [];
 		columns.forEach(({ header, column }, index) => {
 			if (!column || seen.get(column.name) !== header) return;
 			const text = (cells[index] ?? '').trim();
@@ -161,9 +162,10 @@ export async function checkUpload(
 			values,
 			texts,
 			fail: (column, value, message) => issue(row, headerOf(column), value, message),
-			warn: (column, value, message) => {
-				warnings.push(message);
-				issue(row, headerOf(column), value, message, 'warning');
+			warn: (kind, column, value, message, detail) => {
+				const warning: VersionWarning = { kind, field: column, message, ...detail };
+				warnings.push(warning);
+				issue(row, headerOf(column), value, warningText(warning), 'warning');
 			}
 		};
 		rules.prepare?.(r, extras);

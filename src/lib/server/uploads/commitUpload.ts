@@ -1,12 +1,12 @@
-import { sql, type Kysely } from 'kysely';
+import type { Kysely } from 'kysely';
 import { setImmediate } from 'node:timers/promises';
 import { DomainError } from '$lib/domainError';
-import { formatAccession } from '$lib/schemas/accession';
 import { UPLOAD_KIND_NOUNS } from '$lib/catalogue/uploadColumns';
+import { storeWarnings, type VersionWarning } from '$lib/schemas/versionWarning';
 import type { SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
 import type { Database } from '../db/schema';
-import type { VisibilityChange } from '../catalogue/entries';
+import { allocateEntries, type AllocatedEntry, type VisibilityChange } from '../catalogue/entries';
 import { assertGroupAllowed } from '../curation/submissions';
 import { noticesForNewSubmission } from '../curation/notices';
 import { assertPendingRoom } from '../curation/pending';
@@ -15,8 +15,9 @@ import type { UploadCheck } from './checkUpload';
 
 /*
  * Commits a checked CSV file as one submission awaiting review: every new protein and entry,
- * each with its submitted version, in the caller's transaction — all rows or none. Rows go in
- * as multi-row inserts in chunks, yielding to the event loop between chunks.
+ * each with its submitted version, in the caller's transaction — all rows or none. Entries are
+ * made by `allocateEntries`; versions go in as multi-row inserts in chunks, yielding to the event
+ * loop between chunks.
  */
 export class UploadHasErrorsError extends DomainError {
 	constructor(readonly errorCount: number) {
@@ -68,21 +69,13 @@ export async function commitUpload(
 		.returning('id')
 		.executeTakeFirstOrThrow();
 
-	// Ids are handed out here rather than by SQLite so that accessions (derived from ids) can be
-	// written in the same multi-row insert; the transaction holds the write lock meanwhile.
-	const last = await sql<{
-		seq: number;
-	}>`select coalesce((select seq from sqlite_sequence where name = 'entry'), 0) as seq`.execute(
-		trx
-	);
-	let nextId = (last.rows[0]?.seq ?? 0) + 1;
 	const proteinAccessions = new Map<string, string>();
 	const planned = [
 		...check.proteins.map((p) => ({
 			row: p.row,
 			kind: 'protein' as const,
 			data: p.data as unknown,
-			warnings: [] as string[],
+			warnings: [] as VersionWarning[],
 			proteinKey: p.key,
 			newProteinKey: null as string | null
 		})),
@@ -95,29 +88,20 @@ export async function commitUpload(
 			newProteinKey: e.newProteinKey
 		}))
 	];
-	const ids = planned.map(() => nextId++);
+	// Every entry with its final accession first, so that a centre's version can name the
+	// accession of the protein this file creates.
+	const allocated = await allocateEntries(
+		trx,
+		planned.map((p) => ({ kind: p.kind, createdBy: user.id }))
+	);
+	const ids = allocated.map((e) => e.id);
 	planned.forEach((p, i) => {
-		if (p.proteinKey) proteinAccessions.set(p.proteinKey, formatAccession(ids[i] as number));
+		if (p.proteinKey)
+			proteinAccessions.set(p.proteinKey, (allocated[i] as AllocatedEntry).accession);
 	});
 
 	for (let start = 0; start < planned.length; start += CHUNK_ROWS) {
 		const chunk = planned.slice(start, start + CHUNK_ROWS);
-		await trx
-			.insertInto('entry')
-			.values(
-				chunk.map((p, j) => ({
-					id: ids[start + j] as number,
-					accession: formatAccession(ids[start + j] as number),
-					kind: p.kind,
-					visibility: 'public' as const,
-					group_id: null,
-					embargo_until: null,
-					is_demo: 0,
-					created_by: user.id,
-					merged_into_entry_id: null
-				}))
-			)
-			.execute();
 		await trx
 			.insertInto('entry_version')
 			.values(
@@ -142,7 +126,7 @@ export async function commitUpload(
 						group_id: meta.visibility.groupId,
 						embargo_until: meta.visibility.embargoUntil,
 						row_number: p.row,
-						warnings: p.warnings.length ? JSON.stringify(p.warnings) : null
+						warnings: storeWarnings(p.warnings)
 					};
 				})
 			)

@@ -1,6 +1,7 @@
 import { isAccession } from '$lib/schemas/accession';
 import type { UploadKind } from '$lib/catalogue/uploadColumns';
 import { proteinSchema, type Protein } from '$lib/schemas/protein';
+import type { VersionWarningKind } from '$lib/schemas/versionWarning';
 import { centreLabelKey, type CentreFact, type UploadLookups } from './lookups';
 
 // One row of a CSV upload as the kinds' upload rules (src/lib/server/kinds) see it, and the
@@ -8,6 +9,18 @@ import { centreLabelKey, type CentreFact, type UploadLookups } from './lookups';
 
 /** Reports a problem with one cell: the column (field name), the text, what is wrong. */
 export type Report = (column: string, value: string, message: string) => void;
+
+/**
+ * Reports a warning on one cell: its kind (what queues count), the column (field name), the
+ * text, what to look at, and where the range or rule comes from or which entry it concerns.
+ */
+export type Warn = (
+	kind: VersionWarningKind,
+	column: string,
+	value: string,
+	message: string,
+	detail?: { source?: string; accession?: string }
+) => void;
 
 /** Stands in for the accession of a protein this file creates, until the commit assigns one. */
 export const NEW_PROTEIN_PLACEHOLDER = 'HL000000';
@@ -39,7 +52,7 @@ export interface UploadRow {
 	/** An error: the row is not planned. */
 	fail: Report;
 	/** A warning: kept with the planned version. */
-	warn: Report;
+	warn: Warn;
 }
 
 /**

@@ -1,6 +1,6 @@
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
-import { listOwnSubmissions } from '$lib/server/curation/queue';
+import { listOwnSubmissions } from '$lib/server/curation/submissionLists';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

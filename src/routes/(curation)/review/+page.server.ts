@@ -3,7 +3,7 @@ import { parseSearchParams } from '$lib/schemas/searchParams';
 import { queueQuerySchema } from '$lib/schemas/submission';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
-import { listQueue } from '$lib/server/curation/queue';
+import { listQueue } from '$lib/server/curation/submissionLists';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

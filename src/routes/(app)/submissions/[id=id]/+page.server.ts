@@ -5,7 +5,8 @@ import { db } from '$lib/server/db';
 import { readSubmissionForm } from '$lib/server/curation/form';
 import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefaults';
 import { runCurationAction } from '$lib/server/curation/outbox';
-import { loadSubmissionView, submissionKind } from '$lib/server/curation/queue';
+import { allowedActions } from '$lib/server/curation/transitions';
+import { loadSubmissionView, submissionKind } from '$lib/server/curation/submissionView';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
@@ -20,6 +21,7 @@ export const load: PageServerLoad = async (event) => {
 	const first = view.versions[0];
 	return {
 		view,
+		can: allowedActions(view.submission.status),
 		batch: view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null,
 		groups: await groupsForSharing(db, user),
 		fields: first ? KINDS[first.kind].formFields : [],

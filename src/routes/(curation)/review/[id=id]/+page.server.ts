@@ -4,7 +4,8 @@ import { batchDecisionSchema, reviewDecisionSchema } from '$lib/schemas/submissi
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { runCurationAction } from '$lib/server/curation/outbox';
-import { loadSubmissionView } from '$lib/server/curation/queue';
+import { allowedActions } from '$lib/server/curation/transitions';
+import { loadSubmissionView } from '$lib/server/curation/submissionView';
 import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
@@ -16,7 +17,7 @@ export const load: PageServerLoad = async (event) => {
 	const id = Number(event.params.id);
 	const view = await orNotFound(loadSubmissionView(db, user, id), `no submission ${id}`);
 	const batch = view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null;
-	return { view, batch };
+	return { view, batch, can: allowedActions(view.submission.status) };
 };
 
 // Given the database, a large approval commits in chunks (see curation/reviews.ts): the

@@ -12,7 +12,7 @@ import { apiError } from '$lib/server/api/respond';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
 import { runCurationAction } from '$lib/server/curation/outbox';
-import { loadSubmissionView } from '$lib/server/curation/queue';
+import { loadSubmissionView } from '$lib/server/curation/submissionView';
 import { createDraft, submitForReview } from '$lib/server/curation/submissions';
 import type { RequestHandler } from './$types';
 
