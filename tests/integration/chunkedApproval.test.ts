@@ -11,7 +11,7 @@ import { APPROVAL_CHUNK_ROWS, decideBatch, decideSubmission } from '$lib/server/
 import { withdrawSubmission } from '$lib/server/curation/submissions';
 import { SubmissionInvalidError, SubmissionStateError } from '$lib/server/curation/errors';
 import { addComment } from '$lib/server/curation/reviews';
-import { duringBulkWrite } from '$lib/server/catalogue/revision';
+import { duringBulkWrite } from '$lib/server/db/revision';
 import { PotentialIndex } from '$lib/server/search/potentialIndex';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';

@@ -15,7 +15,7 @@ import { commentMail, outcomeMail } from './notices';
 import type { OutgoingMail } from './outbox';
 import { setSubmissionStatus } from './submissions';
 import { yieldToEventLoop } from '../eventLoop';
-import { duringBulkWrite } from '../catalogue/revision';
+import { duringBulkWrite } from '../db/revision';
 
 /**
  * A curator's side of curation: the decision on a submission and the comment thread. Approval

@@ -3,7 +3,7 @@ import type { FacetCount } from '$lib/catalogue/dto';
 import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
 import { accessionNumber } from '$lib/schemas/accession';
 import type { Database } from '../db/schema';
-import { bulkWriteInProgress, readCatalogueRevision } from '../catalogue/revision';
+import { bulkWriteInProgress, readCatalogueRevision } from '../db/revision';
 import type { Viewer } from '../catalogue/visibility';
 
 /**
