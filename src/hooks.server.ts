@@ -15,7 +15,7 @@ import { limitRequestSize } from '$lib/server/requestLimits';
 import { secureCookiesOnlyOverHttps } from '$lib/server/secureCookies';
 import { httpHardening } from '$lib/server/http';
 import { createReadCache } from '$lib/server/http/readCache';
-import { catalogueValidityReader } from '$lib/server/catalogue/revision';
+import { catalogueValidityReader } from '$lib/server/catalogue/validity';
 import { createLoopTurns } from '$lib/server/http/loopTurns';
 
 export const init: ServerInit = async () => {

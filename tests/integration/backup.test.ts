@@ -25,7 +25,7 @@ import {
 } from '$lib/server/db/backup';
 import { openDatabase } from '$lib/server/db/connect';
 import type { Database as Schema } from '$lib/server/db/schema';
-import { bumpCatalogueRevision, readCatalogueRevision } from '$lib/server/catalogue/revision';
+import { bumpCatalogueRevision, readCatalogueRevision } from '$lib/server/db/revision';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
 

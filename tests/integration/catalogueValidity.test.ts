@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
-import { catalogueValidityReader, nextUtcMidnight } from '$lib/server/catalogue/revision';
+import { catalogueValidityReader, nextUtcMidnight } from '$lib/server/catalogue/validity';
 import { createTempDatabase } from '../support/tempDb';
 
 let t: Awaited<ReturnType<typeof createTempDatabase>>;

@@ -11,8 +11,9 @@ import { APPROVAL_CHUNK_ROWS, decideBatch, decideSubmission } from '$lib/server/
 import { withdrawSubmission } from '$lib/server/curation/submissions';
 import { SubmissionInvalidError, SubmissionStateError } from '$lib/server/curation/errors';
 import { addComment } from '$lib/server/curation/reviews';
-import { duringBulkWrite } from '$lib/server/catalogue/revision';
+import { duringBulkWrite } from '$lib/server/db/revision';
 import { PotentialIndex } from '$lib/server/search/potentialIndex';
+import { potentialRowVisibility } from '$lib/server/catalogue/visibility';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
 import { insertSessionUser } from '../support/users';
@@ -253,7 +254,7 @@ describe('the potential search index while a large approval runs', () => {
 		let clock = 0;
 		const index = new PotentialIndex(() => clock);
 		await index.ensureCurrent(db);
-		const total = () => index.facets(null).total;
+		const total = () => index.facets(potentialRowVisibility(null)).total;
 		const before = total();
 		const approveThree = async (tag: number) => {
 			const id = await largeBatch(3, tag);

@@ -1,13 +1,30 @@
 import fc from 'fast-check';
-import { sql, type Kysely } from 'kysely';
+import { sql, type Kysely, type RawBuilder } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Database } from '$lib/server/db/schema';
 import { listPotentials } from '$lib/server/catalogue/potentials';
-import { COFACTOR_KINDS, POTENTIAL_METHODS } from '$lib/schemas/vocabulary';
-import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
+import {
+	potentialIsVisible,
+	potentialRowVisibility,
+	type Viewer
+} from '$lib/server/catalogue/visibility';
+import {
+	COFACTOR_KINDS,
+	COUPLES_BY_KIND,
+	POTENTIAL_METHODS,
+	type CofactorKind,
+	type PotentialMethod,
+	type Visibility
+} from '$lib/schemas/vocabulary';
+import {
+	POTENTIAL_SORTS,
+	type PotentialFilter,
+	type PotentialSort
+} from '$lib/schemas/catalogueQuery';
 import { loadDemoScenario } from '$seed/load';
 import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/entries';
 import { normalisePotential, potentialInputSchema } from '$lib/schemas/potential';
+import { PotentialIndex, loadColumns } from '$lib/server/search/potentialIndex';
 import { createTempDatabase } from '../support/tempDb';
 
 // The in-memory columns must answer exactly as SQL over the same read-model table would.
@@ -127,5 +144,527 @@ describe('in-memory potential columns', () => {
 		expect(known).toEqual([...known].sort((a, b) => b - a));
 		expect(known.length).toBeLessThan(ph.length);
 		expect(ph.slice(known.length).every((v) => v === null)).toBe(true);
+	});
+});
+
+// Random catalogues built through the approval path (so public_from and group_id are computed as
+// in production), random readers (signed out, or members of some groups) and every sort key: the
+// in-memory index with `potentialRowVisibility` must answer exactly as SQL with
+// `potentialIsVisible` — the two halves of the visibility rule in catalogue/visibility.ts —
+// and plain SQL filters and ORDER BY clauses written out here.
+
+type VisibilitySpec =
+	| { visibility: 'public' }
+	| { visibility: 'group'; group: number }
+	| { visibility: 'embargoed'; ended: boolean; group: number | null };
+
+interface CatalogueSpec {
+	groups: number;
+	proteins: { name: string; organism: string; vis: VisibilitySpec }[];
+	centres: { protein: number; label: string; kind: CofactorKind; vis: VisibilitySpec }[];
+	potentials: {
+		centre: number;
+		/** Index into the couples the centre's kind allows (any of COUPLES for 'other'). */
+		couple: number;
+		mv: number;
+		ph: number | null;
+		t: number | null;
+		method: PotentialMethod;
+		vis: VisibilitySpec;
+	}[];
+}
+
+// Text with the characters a concatenating reader would trip on: separators, quotes, commas.
+const ORGANISMS = [
+	'Thermus aquaticus',
+	'Pyro\u001fcoccus',
+	'Aqui,fex; "ae"',
+	'Ünïcode ß',
+	'Zz\u001ezz'
+];
+const NAMES = ['ferredoxin', 'Ferredoxin', 'cytochrome c', 'hydrogenase "large"', 'aa\u001fbb'];
+const LABELS = ['FS0', 'FS1', 'heme A', 'Cu_A', 'fs1'];
+const COUPLES = ['ox/red', 'A,b;"c"\u001f'];
+/** Kinds with several couples, one with one, and 'other', which takes any. */
+const KINDS: CofactorKind[] = ['fe4s4', 'fmn', 'ubiquinone', 'heme_c', 'other'];
+const GROUPS = 3;
+
+const visibilityArb: fc.Arbitrary<VisibilitySpec> = fc.oneof(
+	{ weight: 6, arbitrary: fc.constant({ visibility: 'public' as const }) },
+	fc.record({
+		visibility: fc.constant('group' as const),
+		group: fc.integer({ min: 0, max: GROUPS - 1 })
+	}),
+	fc.record({
+		visibility: fc.constant('embargoed' as const),
+		ended: fc.boolean(),
+		group: fc.option(fc.integer({ min: 0, max: GROUPS - 1 }), { nil: null })
+	})
+);
+
+const catalogueArb: fc.Arbitrary<CatalogueSpec> = fc
+	.record({
+		proteins: fc.array(
+			fc.record({
+				name: fc.constantFrom(...NAMES),
+				organism: fc.constantFrom(...ORGANISMS),
+				vis: visibilityArb
+			}),
+			{ minLength: 1, maxLength: 4 }
+		),
+		centres: fc.array(
+			fc.record({
+				protein: fc.nat(),
+				label: fc.constantFrom(...LABELS),
+				kind: fc.constantFrom(...KINDS),
+				vis: visibilityArb
+			}),
+			{ minLength: 1, maxLength: 6 }
+		),
+		potentials: fc.array(
+			fc.record({
+				centre: fc.nat(),
+				couple: fc.nat(),
+				// Few distinct values, so that ties (broken by accession) are common.
+				mv: fc.integer({ min: -4, max: 4 }).map((v) => v * 50),
+				ph: fc.option(fc.constantFrom(6, 7, 7.5, 8), { nil: null }),
+				t: fc.option(fc.constantFrom(277, 298.15, 310), { nil: null }),
+				method: fc.constantFrom(...POTENTIAL_METHODS.slice(0, 3)),
+				vis: visibilityArb
+			}),
+			{ minLength: 3, maxLength: 30, size: 'large' }
+		)
+	})
+	.map((c) => ({ groups: GROUPS, ...c }));
+
+interface Built {
+	db: Kysely<Database>;
+	remove: () => Promise<void>;
+	groupIds: number[];
+	proteins: { id: number; accession: string }[];
+	centres: { id: number; accession: string }[];
+	potentials: { id: number; accession: string }[];
+}
+
+async function buildCatalogue(spec: CatalogueSpec): Promise<Built> {
+	const { db, remove } = await createTempDatabase();
+	const groupIds: number[] = [];
+	for (let g = 0; g < spec.groups; g++) {
+		const { id } = await db
+			.insertInto('research_group')
+			.values({ slug: `group-${g}`, name: `Group ${g}` })
+			.returning('id')
+			.executeTakeFirstOrThrow();
+		groupIds.push(id);
+	}
+	const visibility = (v: VisibilitySpec) => ({
+		visibility: v.visibility as Visibility,
+		groupId: v.visibility === 'public' || v.group === null ? null : groupIds[v.group]!,
+		embargoUntil:
+			v.visibility === 'embargoed'
+				? v.ended
+					? '2020-03-01T00:00:00.000Z'
+					: '2099-03-01T00:00:00.000Z'
+				: null
+	});
+	return db.transaction().execute(async (trx) => {
+		const add = async (
+			kind: 'protein' | 'centre' | 'potential',
+			data: unknown,
+			vis: VisibilitySpec
+		) => {
+			const entry = await createEntry(trx, { kind, ...visibility(vis) });
+			await approveVersion(trx, await addVersion(trx, entry.id, data, { status: 'submitted' }));
+			return entry;
+		};
+		const proteins = [];
+		for (const p of spec.proteins)
+			proteins.push(await add('protein', { name: p.name, organism: p.organism }, p.vis));
+		const centres = [];
+		for (const c of spec.centres) {
+			const protein = proteins[c.protein % proteins.length]!;
+			centres.push(
+				await add(
+					'centre',
+					{ proteinAccession: protein.accession, label: c.label, cofactorKind: c.kind },
+					c.vis
+				)
+			);
+		}
+		const potentials = [];
+		for (const p of spec.potentials) {
+			const centre = centres[p.centre % centres.length]!;
+			const allowed = COUPLES_BY_KIND[spec.centres[p.centre % centres.length]!.kind];
+			const couples = allowed.length > 0 ? allowed : COUPLES;
+			const data = normalisePotential(
+				potentialInputSchema.parse({
+					centreAccession: centre.accession,
+					couple: couples[p.couple % couples.length],
+					reportedValue: p.mv,
+					reportedUnit: 'mV',
+					referenceElectrode: 'SHE',
+					ph: p.ph,
+					temperatureK: p.t,
+					method: p.method
+				})
+			);
+			potentials.push(await add('potential', data, p.vis));
+		}
+		return { db, remove, groupIds, proteins, centres, potentials };
+	});
+}
+
+interface QuerySpec {
+	/** Indices into the catalogue's groups (3 = a group that holds nothing); null = signed out. */
+	viewer: number[] | null;
+	kind?: CofactorKind[];
+	method?: PotentialMethod[];
+	organism?: string[];
+	protein?: number;
+	centre?: number;
+	accession?: number;
+	emMin?: number;
+	emMax?: number;
+	phMin?: number;
+	phMax?: number;
+	tMin?: number;
+	tMax?: number;
+	sort: PotentialSort;
+	order: 'asc' | 'desc';
+	/** For relevance: a ranking of centres (indices), as the text index would give. */
+	ranked?: number[];
+	offset: number;
+	limit: number;
+}
+
+/** A filter present in about one query of five, so that most queries still find rows. */
+const sometimes = <T>(arb: fc.Arbitrary<T>) =>
+	fc.oneof({ weight: 4, arbitrary: fc.constant(undefined) }, { weight: 1, arbitrary: arb });
+
+const queryArb: fc.Arbitrary<QuerySpec> = fc.record({
+	viewer: fc.option(fc.uniqueArray(fc.integer({ min: 0, max: GROUPS }), { maxLength: 3 }), {
+		nil: null
+	}),
+	kind: sometimes(fc.subarray([...KINDS], { minLength: 1, maxLength: 3 })),
+	method: sometimes(
+		fc.subarray([...POTENTIAL_METHODS.slice(0, 4)], { minLength: 1, maxLength: 2 })
+	),
+	organism: sometimes(
+		fc.subarray([...ORGANISMS, 'Unknown organism'], { minLength: 1, maxLength: 3 })
+	),
+	protein: sometimes(fc.nat()),
+	centre: sometimes(fc.nat()),
+	accession: sometimes(fc.nat()),
+	emMin: sometimes(fc.integer({ min: -250, max: 150 })),
+	emMax: sometimes(fc.integer({ min: -150, max: 250 })),
+	phMin: sometimes(fc.constantFrom(6, 7, 7.5)),
+	phMax: sometimes(fc.constantFrom(7, 7.5, 8)),
+	tMin: sometimes(fc.constantFrom(277, 298.15)),
+	tMax: sometimes(fc.constantFrom(298.15, 310)),
+	sort: fc.constantFrom(...POTENTIAL_SORTS),
+	order: fc.constantFrom<'asc' | 'desc'>('asc', 'desc'),
+	ranked: fc.option(fc.uniqueArray(fc.nat({ max: 5 }), { maxLength: 6 }), {
+		nil: undefined,
+		freq: 4
+	}),
+	offset: fc.nat({ max: 10 }),
+	limit: fc.integer({ min: 1, max: 30 })
+});
+
+/** The query in the index's terms and the same query answered by SQLite. */
+function resolveQuery(built: Built, q: QuerySpec) {
+	const pick = <T>(list: T[], i: number | undefined) =>
+		i === undefined || list.length === 0 ? undefined : list[i % list.length];
+	const viewer: Viewer | null =
+		q.viewer === null ? null : { groupIds: q.viewer.map((g) => built.groupIds[g] ?? 9999) };
+	const everything = [...built.potentials, ...built.centres, ...built.proteins];
+	const filter: PotentialFilter = {
+		kind: q.kind,
+		method: q.method,
+		organism: q.organism,
+		protein: pick(built.proteins, q.protein)?.accession,
+		centre: pick(built.centres, q.centre)?.accession,
+		emMin: q.emMin,
+		emMax: q.emMax,
+		phMin: q.phMin,
+		phMax: q.phMax,
+		tMin: q.tMin,
+		tMax: q.tMax
+	};
+	const accession = pick(everything, q.accession)?.id;
+	const rankedCentres =
+		q.sort === 'relevance' && q.ranked
+			? [...new Set(q.ranked.map((i) => pick(built.centres, i)!.id))]
+			: undefined;
+	return { viewer, filter, accession, rankedCentres };
+}
+
+async function sqlAnswer(
+	db: Kysely<Database>,
+	q: QuerySpec,
+	r: ReturnType<typeof resolveQuery>
+): Promise<number[]> {
+	const { filter: f, viewer } = r;
+	let query = db
+		.selectFrom('potential as p')
+		.select('p.entry_id')
+		.where((eb) => potentialIsVisible(eb, 'p', viewer));
+	if (f.kind) query = query.where('p.cofactor_kind', 'in', f.kind);
+	if (f.method) query = query.where('p.method', 'in', f.method);
+	if (f.organism) query = query.where('p.organism', 'in', f.organism);
+	if (f.protein) query = query.where('p.protein_accession', '=', f.protein);
+	if (f.centre) query = query.where('p.centre_accession', '=', f.centre);
+	if (f.emMin !== undefined) query = query.where('p.em_mv_she', '>=', f.emMin);
+	if (f.emMax !== undefined) query = query.where('p.em_mv_she', '<=', f.emMax);
+	if (f.phMin !== undefined) query = query.where('p.ph', '>=', f.phMin);
+	if (f.phMax !== undefined) query = query.where('p.ph', '<=', f.phMax);
+	if (f.tMin !== undefined) query = query.where('p.temperature_k', '>=', f.tMin);
+	if (f.tMax !== undefined) query = query.where('p.temperature_k', '<=', f.tMax);
+	if (r.accession !== undefined) {
+		const a = r.accession;
+		query = query.where((eb) =>
+			eb.or([
+				eb('p.entry_id', '=', a),
+				eb('p.centre_entry_id', '=', a),
+				eb('p.protein_entry_id', '=', a)
+			])
+		);
+	}
+	const dir = q.order === 'asc' ? sql`asc` : sql`desc`;
+	const by = (...columns: string[]) =>
+		sql.join(
+			columns.map((c) => sql`${sql.ref(c)} ${dir}`),
+			sql`, `
+		);
+	let order: RawBuilder<unknown>;
+	if (r.rankedCentres) {
+		const ranked = r.rankedCentres;
+		if (ranked.length === 0) return [];
+		query = query.where('p.centre_entry_id', 'in', ranked);
+		const rank = sql`case ${sql.join(
+			ranked.map((id, i) => sql`when p.centre_entry_id = ${id} then ${i}`),
+			sql` `
+		)} end`;
+		// Centres in the ranking's order (reversed for desc); a centre's rows by accession.
+		order = sql`${rank} ${dir}, p.entry_id asc`;
+	} else {
+		const sort = q.sort === 'relevance' ? 'protein' : q.sort;
+		const numeric = {
+			accession: 'entry_id',
+			em: 'em_mv_she',
+			ph: 'ph',
+			temperature: 'temperature_k'
+		}[sort as 'em'];
+		if (numeric) {
+			order = sql`${sql.ref(`p.${numeric}`)} is null, ${by(`p.${numeric}`, 'p.entry_id')}`;
+		} else {
+			const text: Record<string, string[]> = {
+				protein: ['protein_name', 'centre_label', 'couple', 'entry_id'],
+				centre: ['centre_label', 'protein_name', 'entry_id'],
+				kind: ['cofactor_kind', 'protein_name', 'centre_label', 'entry_id'],
+				couple: ['couple', 'entry_id'],
+				method: ['method', 'entry_id']
+			};
+			order = by(...text[sort]!.map((c) => `p.${c}`));
+		}
+	}
+	const rows = await query.orderBy(order).execute();
+	return rows.map((row) => row.entry_id);
+}
+
+/** Facet counts as SQLite gives them for the reader: value → count, per column. */
+async function sqlFacets(db: Kysely<Database>, viewer: Viewer | null) {
+	const counts = async (column: 'cofactor_kind' | 'organism' | 'method') => {
+		const rows = await db
+			.selectFrom('potential as p')
+			.where((eb) => potentialIsVisible(eb, 'p', viewer))
+			.select([`p.${column} as value`, (eb) => eb.fn.countAll<number>().as('count')])
+			.groupBy(`p.${column}`)
+			.execute();
+		return Object.fromEntries(rows.map((r) => [r.value, Number(r.count)]));
+	};
+	return {
+		kinds: await counts('cofactor_kind'),
+		organisms: await counts('organism'),
+		methods: await counts('method')
+	};
+}
+
+describe('in-memory potential columns on random catalogues and readers', () => {
+	it('see, filter, count, facet and order exactly as SQL does, for every sort key', async () => {
+		await fc.assert(
+			fc.asyncProperty(
+				catalogueArb,
+				fc.array(queryArb, { minLength: 1, maxLength: 12 }),
+				async (spec, queries) => {
+					const built = await buildCatalogue(spec);
+					try {
+						const index = new PotentialIndex();
+						await index.ensureCurrent(built.db);
+						for (const q of queries) {
+							const r = resolveQuery(built, q);
+							const expected = await sqlAnswer(built.db, q, r);
+							const visible = potentialRowVisibility(r.viewer);
+							const all = index.query(
+								{
+									filter: r.filter,
+									accession: r.accession,
+									rankedCentres: r.rankedCentres,
+									sort: q.sort,
+									order: q.order,
+									offset: 0,
+									limit: 1000
+								},
+								visible
+							);
+							expect(all.page).toEqual(expected);
+							expect(all.total).toBe(expected.length);
+							const page = index.query(
+								{
+									filter: r.filter,
+									accession: r.accession,
+									rankedCentres: r.rankedCentres,
+									sort: q.sort,
+									order: q.order,
+									offset: q.offset,
+									limit: q.limit
+								},
+								visible
+							);
+							expect(page.page).toEqual(expected.slice(q.offset, q.offset + q.limit));
+							expect(page.total).toBe(expected.length);
+
+							const facets = index.facets(visible);
+							const oracle = await sqlFacets(built.db, r.viewer);
+							const asObject = (list: { value: string; count: number }[]) =>
+								Object.fromEntries(list.map((f) => [f.value, f.count]));
+							expect(asObject(facets.kinds)).toEqual(oracle.kinds);
+							expect(asObject(facets.organisms)).toEqual(oracle.organisms);
+							expect(asObject(facets.methods)).toEqual(oracle.methods);
+							expect(facets.total).toBe(Object.values(oracle.kinds).reduce((a, b) => a + b, 0));
+						}
+					} finally {
+						await built.remove();
+					}
+				}
+			),
+			{ numRuns: 60 }
+		);
+	});
+
+	it('readers see group rows of their own groups only, and embargoed rows once the date passed', async () => {
+		// A fixed catalogue beside the random ones, so that each case is certainly drawn.
+		const built = await buildCatalogue({
+			groups: GROUPS,
+			proteins: [
+				{ name: 'ferredoxin', organism: 'Thermus aquaticus', vis: { visibility: 'public' } }
+			],
+			centres: [{ protein: 0, label: 'FS1', kind: 'other', vis: { visibility: 'public' } }],
+			potentials: [
+				{ visibility: 'public' as const },
+				{ visibility: 'group' as const, group: 0 },
+				{ visibility: 'group' as const, group: 1 },
+				{ visibility: 'embargoed' as const, ended: false, group: 0 },
+				{ visibility: 'embargoed' as const, ended: true, group: 1 },
+				{ visibility: 'embargoed' as const, ended: false, group: null }
+			].map((vis) => ({
+				centre: 0,
+				couple: 0,
+				mv: -100,
+				ph: 7,
+				t: 298.15,
+				method: 'epr_titration',
+				vis
+			}))
+		});
+		try {
+			const index = new PotentialIndex();
+			await index.ensureCurrent(built.db);
+			const ids = built.potentials.map((p) => p.id);
+			const seen = (viewer: Viewer | null) =>
+				index.query(
+					{ filter: {}, sort: 'accession', order: 'asc', offset: 0, limit: 100 },
+					potentialRowVisibility(viewer)
+				).page;
+			expect(seen(null)).toEqual([ids[0], ids[4]]);
+			expect(seen({ groupIds: [built.groupIds[0]!] })).toEqual([ids[0], ids[1], ids[3], ids[4]]);
+			expect(seen({ groupIds: [built.groupIds[1]!] })).toEqual([ids[0], ids[2], ids[4]]);
+			expect(seen({ groupIds: built.groupIds })).toEqual([ids[0], ids[1], ids[2], ids[3], ids[4]]);
+		} finally {
+			await built.remove();
+		}
+	});
+});
+
+describe('loading the columns', () => {
+	it('keeps the values of each potential together, whatever characters its text holds', async () => {
+		// Separate concatenations per column, or a separator inside an organism's name, would
+		// shift one column against the others; each row is checked against SQLite here.
+		const built = await buildCatalogue({
+			groups: GROUPS,
+			proteins: ORGANISMS.map((organism, i) => ({
+				name: NAMES[i % NAMES.length]!,
+				organism,
+				vis:
+					i === 2 ? { visibility: 'group' as const, group: 1 } : { visibility: 'public' as const }
+			})),
+			centres: ORGANISMS.map((_, i) => ({
+				protein: ORGANISMS.length - 1 - i,
+				label: LABELS[i % LABELS.length]!,
+				kind: COFACTOR_KINDS[i]!,
+				vis: { visibility: 'public' as const }
+			})),
+			potentials: Array.from({ length: 20 }, (_, i) => ({
+				centre: (i * 3) % ORGANISMS.length,
+				couple: i,
+				mv: -300 + i * 17,
+				ph: i % 3 === 0 ? null : 6 + i / 10,
+				t: i % 4 === 0 ? null : 280 + i,
+				method: POTENTIAL_METHODS[i % 3]!,
+				vis:
+					i % 5 === 0
+						? { visibility: 'embargoed' as const, ended: i % 10 === 0, group: i % 2 }
+						: { visibility: 'public' as const }
+			}))
+		});
+		try {
+			const c = await loadColumns(built.db);
+			const rows = await built.db
+				.selectFrom('potential')
+				.select([
+					'entry_id',
+					'centre_entry_id',
+					'protein_entry_id',
+					'em_mv_she',
+					'ph',
+					'temperature_k',
+					'cofactor_kind',
+					'method',
+					'organism',
+					'public_from',
+					'group_id'
+				])
+				.orderBy('entry_id')
+				.execute();
+			expect(c.n).toBe(20);
+			expect(rows).toHaveLength(20);
+			const loaded = Array.from({ length: c.n }, (_, i) => ({
+				entry_id: c.entryId[i],
+				centre_entry_id: c.centreId[i],
+				protein_entry_id: c.proteinId[i],
+				em_mv_she: c.em[i],
+				ph: Number.isNaN(c.ph[i]) ? null : c.ph[i],
+				temperature_k: Number.isNaN(c.temperature[i]) ? null : c.temperature[i],
+				cofactor_kind: c.kinds[c.kind[i]!],
+				method: c.methods[c.method[i]!],
+				organism: c.organisms[c.organism[i]!],
+				public_from: c.publicFrom[i] === Infinity ? null : new Date(c.publicFrom[i]!).toISOString(),
+				group_id: c.group[i] === 0 ? null : c.group[i]
+			}));
+			expect(new Set(rows.map((r) => r.organism))).toEqual(new Set(ORGANISMS));
+			expect(loaded).toEqual(rows);
+		} finally {
+			await built.remove();
+		}
 	});
 });

@@ -2,7 +2,7 @@ import { sql, type Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openDatabase } from '$lib/server/db/connect';
 import type { Database } from '$lib/server/db/schema';
-import { bumpCatalogueRevision, readCatalogueRevision } from '$lib/server/catalogue/revision';
+import { bumpCatalogueRevision, readCatalogueRevision } from '$lib/server/db/revision';
 import { createTempDatabase } from '../support/tempDb';
 
 // The two-connection dialect (src/lib/server/db/dialect.ts): reads outside transactions never

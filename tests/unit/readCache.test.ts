@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { hasSessionCookie } from '$lib/server/auth/sessionCookie';
-import { nextUtcMidnight } from '$lib/server/catalogue/revision';
+import { nextUtcMidnight } from '$lib/server/catalogue/validity';
 import { createReadCache, etagMatches, isSignedOutRead } from '$lib/server/http/readCache';
 
 const event = (

@@ -7,7 +7,7 @@ import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
 import { InvalidEntryDataError, VersionStateError } from './errors';
 import { refreshPotentialRows } from './potentialRows';
-import { bumpCatalogueRevision } from './revision';
+import { bumpCatalogueRevision } from '../db/revision';
 import { projectApprovedVersion } from './projection';
 import { writeAudit } from '../audit/log';
 import { setImmediate } from 'node:timers/promises';

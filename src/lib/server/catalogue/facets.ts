@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { CatalogueFacets } from '$lib/catalogue/dto';
 import type { Database } from '../db/schema';
 import { potentialIndex } from '../search/potentialIndex';
-import { entryIsVisible, type Viewer } from './visibility';
+import { entryIsVisible, potentialRowVisibility, type Viewer } from './visibility';
 
 /** Counts of visible potentials per cofactor kind, organism and method, and overall totals. */
 export async function catalogueFacets(
@@ -10,7 +10,7 @@ export async function catalogueFacets(
 	viewer: Viewer | null
 ): Promise<CatalogueFacets> {
 	await potentialIndex.ensureCurrent(db);
-	const potentials = potentialIndex.facets(viewer);
+	const potentials = potentialIndex.facets(potentialRowVisibility(viewer));
 	const proteins = await db
 		.selectFrom('protein as pr')
 		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')

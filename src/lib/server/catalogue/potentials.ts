@@ -7,7 +7,12 @@ import { toPotentialDto } from './mappers';
 import { accessionNumber } from '$lib/schemas/accession';
 import { potentialIndex } from '../search/potentialIndex';
 import { resolveTextQuery } from './textMatch';
-import { entryIsVisible, potentialIsVisible, type Viewer } from './visibility';
+import {
+	entryIsVisible,
+	potentialIsVisible,
+	potentialRowVisibility,
+	type Viewer
+} from './visibility';
 
 export interface ListOptions<S extends string> {
 	sort?: S;
@@ -51,7 +56,7 @@ export async function listPotentials(
 			offset: options.offset,
 			limit: options.limit
 		},
-		viewer
+		potentialRowVisibility(viewer)
 	);
 	const rows =
 		page.length === 0

@@ -3,7 +3,7 @@ import { KINDS } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
-import { bumpCatalogueRevision } from './revision';
+import { bumpCatalogueRevision } from '../db/revision';
 import { resolveReference } from './references';
 
 /**

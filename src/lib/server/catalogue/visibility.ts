@@ -20,7 +20,8 @@ export const ALWAYS_PUBLIC = '1970-01-01T00:00:00.000Z';
  * The one rule for whether an entry may be shown: it is public; or embargoed and its date has
  * passed; or the viewer belongs to its group (members see their group's group-only and
  * embargoed entries). Every read path (pages, search, API, export, citations) applies it, in
- * SQL through `entryIsVisible`/`potentialIsVisible` or in memory through `entryRowIsVisible`.
+ * SQL through `entryIsVisible`/`potentialIsVisible` or in memory through `entryRowIsVisible`/
+ * `potentialRowVisibility`.
  */
 export function entryRowIsVisible(
 	entry: EntryVisibility,
@@ -85,6 +86,24 @@ export function potentialIsVisible<DB extends Database, TB extends keyof DB & st
 		eb(sql.ref(`${alias}.public_from`), '<=', new Date().toISOString()),
 		...(groups.length > 0 ? [eb(sql.ref(`${alias}.group_id`), 'in', [...groups])] : [])
 	]);
+}
+
+/**
+ * The same rule as `potentialIsVisible`, in memory, for the search index's columns
+ * (search/potentialIndex.ts): a row is visible once its `public_from` has passed, or to members
+ * of its group. `publicFromMs` is `public_from` as epoch milliseconds (+Infinity when the row has
+ * none: it waits on a group-only entry); stored dates are ISO 8601 in UTC, so comparing
+ * milliseconds orders them as SQL compares the strings. The property test in
+ * tests/integration/potentialIndex.test.ts holds the two rules together.
+ */
+export function potentialRowVisibility(
+	viewer: Viewer | null,
+	now: Date = new Date()
+): (publicFromMs: number, groupId: number | null) => boolean {
+	const nowMs = now.getTime();
+	const groups = new Set(viewer?.groupIds ?? []);
+	return (publicFromMs, groupId) =>
+		publicFromMs <= nowMs || (groupId !== null && groups.has(groupId));
 }
 
 /** The viewer a signed-in user reads as: their groups, whatever their role. */

@@ -16,7 +16,7 @@ import type { OutgoingMail } from './outbox';
 import { setSubmissionStatus } from './submissions';
 import { setImmediate } from 'node:timers/promises';
 import { nextStatus, type SubmissionAction } from './transitions';
-import { duringBulkWrite } from '../catalogue/revision';
+import { duringBulkWrite } from '../db/revision';
 
 /*
  * A curator's side of curation: the decision on a submission and the comment thread. Approval

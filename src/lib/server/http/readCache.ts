@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import type { Handle, RequestEvent } from '@sveltejs/kit';
 import { LRUCache } from 'lru-cache';
 import { hasSessionCookie } from '../auth/sessionCookie';
-import type { CatalogueValidity } from '../catalogue/revision';
+import type { CatalogueValidity } from '../catalogue/validity';
 import {
 	compress,
 	encodedEtag,
@@ -56,7 +56,7 @@ interface KeptAnswer {
 }
 
 export interface ReadCacheOptions {
-	/** The catalogue's current validity (revision/revision.ts). */
+	/** The catalogue's current validity (catalogue/validity.ts). */
 	validity: () => Promise<CatalogueValidity>;
 	maxBytes: number;
 	maxEntryBytes: number;

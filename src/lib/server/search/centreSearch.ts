@@ -2,7 +2,7 @@ import MiniSearch, { type SearchOptions } from 'minisearch';
 import type { Kysely } from 'kysely';
 import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
-import { readCatalogueRevision } from '../catalogue/revision';
+import { readCatalogueRevision } from '../db/revision';
 
 /*
  * Full-text search that finds centres. Text describing a protein (name, organism, accession)

@@ -3,8 +3,7 @@ import type { FacetCount } from '$lib/catalogue/dto';
 import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
 import { accessionNumber } from '$lib/schemas/accession';
 import type { Database } from '../db/schema';
-import { bulkWriteInProgress, readCatalogueRevision } from '../catalogue/revision';
-import type { Viewer } from '../catalogue/visibility';
+import { bulkWriteInProgress, readCatalogueRevision } from '../db/revision';
 
 /*
  * The potential read model held as columns in memory, for searching: filters, counts, facet
@@ -21,7 +20,17 @@ import type { Viewer } from '../catalogue/visibility';
  * Semantics match SQL on the same columns: a missing pH or temperature fails any bound on it;
  * sorts put missing values last in either direction; ties follow the accession, in the
  * direction of the sort.
+ *
+ * Who may see a row is not decided here: callers pass the reader's test
+ * (`potentialRowVisibility` in catalogue/visibility.ts, beside its SQL twin), so this folder
+ * knows nothing of viewers and never imports the catalogue, which imports it.
  */
+
+/**
+ * Whether the reader may see a row, given its denormalised visibility columns: `public_from`
+ * as epoch milliseconds (+Infinity while it has none) and `group_id` (null when it has none).
+ */
+export type RowVisibility = (publicFromMs: number, groupId: number | null) => boolean;
 
 type OrderKey = Exclude<PotentialSort, 'relevance'>;
 
@@ -35,7 +44,7 @@ const TEXT_ORDER_SQL: Record<(typeof TEXT_ORDERS)[number], string> = {
 	method: 'method, entry_id'
 };
 
-interface Columns {
+export interface Columns {
 	n: number;
 	entryId: Int32Array;
 	centreId: Int32Array;
@@ -77,7 +86,23 @@ function codeOf(values: string[], codes: Map<string, number>, value: string): nu
 	return code;
 }
 
-const SEPARATOR = '\u001f';
+/**
+ * One potential as the rebuild reads it: entry, centre and protein ids, Em (mV vs SHE), pH,
+ * temperature (K), cofactor kind, method, organism, public_from and group_id.
+ */
+type LoadedRow = [
+	number,
+	number,
+	number,
+	number,
+	number | null,
+	number | null,
+	string,
+	string,
+	string,
+	string | null,
+	number | null
+];
 
 /** Numeric column values in ascending order, missing values (NaN) last, ties by accession. */
 function numericOrder(n: number, values: Float64Array | Int32Array, entryId: Int32Array) {
@@ -95,57 +120,64 @@ function numericOrder(n: number, values: Float64Array | Int32Array, entryId: Int
 	return { rows, nonNull };
 }
 
-async function loadColumns(db: Kysely<Database>): Promise<Columns> {
-	// One row of aggregates instead of 100 000 row objects keeps rebuilds quick. All aggregates
-	// of one query consume the rows in the same sequence, so the lists line up; NULLs become ''
-	// because group_concat would skip them.
-	const { rows } = await sql<Record<string, string | null>>`select
-		group_concat(entry_id) as entry_id,
-		group_concat(centre_entry_id) as centre_id,
-		group_concat(protein_entry_id) as protein_id,
-		group_concat(em_mv_she) as em,
-		group_concat(coalesce(ph, '')) as ph,
-		group_concat(coalesce(temperature_k, '')) as temperature,
-		group_concat(cofactor_kind, ${SEPARATOR}) as kind,
-		group_concat(method, ${SEPARATOR}) as method,
-		group_concat(organism, ${SEPARATOR}) as organism,
-		group_concat(coalesce(public_from, ''), ${SEPARATOR}) as public_from,
-		group_concat(coalesce(group_id, 0)) as group_id
+/** Reads the `potential` table into columns; exported for the test that checks them row by row. */
+export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
+	// One aggregate value instead of 100 000 row objects keeps rebuilds quick. Each potential is
+	// one JSON array inside it, so its columns cannot drift apart (separate aggregates per column
+	// only line up as long as SQLite feeds them the same sequence, and a separator inside a text
+	// value — an organism may hold any character — would shift every later value). JSON also
+	// keeps NULLs and every digit of the numbers. The order is explicit: by entry id.
+	const { rows } = await sql<{ potentials: string | null }>`select json_group_array(
+		json_array(entry_id, centre_entry_id, protein_entry_id, em_mv_she, ph, temperature_k,
+			cofactor_kind, method, organism, public_from, group_id)
+		order by entry_id) as potentials
 		from potential`.execute(db);
-	const row = rows[0] ?? {};
-	const list = (name: string, separator = ',') =>
-		row[name] ? (row[name] as string).split(separator) : [];
-	const numbers = (name: string) => list(name).map((v) => (v === '' ? Number.NaN : Number(v)));
-	const entryIds = numbers('entry_id');
-	const n = entryIds.length;
+	const loaded = JSON.parse(rows[0]?.potentials ?? '[]') as LoadedRow[];
+	const n = loaded.length;
 	const c: Columns = {
 		n,
-		entryId: Int32Array.from(entryIds),
-		centreId: Int32Array.from(numbers('centre_id')),
-		proteinId: Int32Array.from(numbers('protein_id')),
-		em: Float64Array.from(numbers('em')),
-		ph: Float64Array.from(numbers('ph')),
-		temperature: Float64Array.from(numbers('temperature')),
+		entryId: new Int32Array(n),
+		centreId: new Int32Array(n),
+		proteinId: new Int32Array(n),
+		em: new Float64Array(n),
+		ph: new Float64Array(n),
+		temperature: new Float64Array(n),
 		kind: new Int32Array(n),
 		method: new Int32Array(n),
 		organism: new Int32Array(n),
-		publicFrom: Float64Array.from(list('public_from', SEPARATOR), (v) =>
-			v === '' ? Number.POSITIVE_INFINITY : Date.parse(v)
-		),
-		group: Int32Array.from(numbers('group_id')),
+		publicFrom: new Float64Array(n),
+		group: new Int32Array(n),
 		kinds: [],
 		methods: [],
 		organisms: [],
 		rowsOfCentre: new Map(),
 		orders: new Map()
 	};
-	const encode = (target: Int32Array, values: string[], name: string) => {
-		const codes = new Map<string, number>();
-		list(name, SEPARATOR).forEach((v, i) => (target[i] = codeOf(values, codes, v)));
-	};
-	encode(c.kind, c.kinds, 'kind');
-	encode(c.method, c.methods, 'method');
-	encode(c.organism, c.organisms, 'organism');
+	const kindCodes = new Map<string, number>();
+	const methodCodes = new Map<string, number>();
+	const organismCodes = new Map<string, number>();
+	const dates = new Map<string, number>();
+	for (let i = 0; i < n; i++) {
+		const [entry, centre, protein, em, ph, t, kind, method, organism, publicFrom, group] =
+			loaded[i]!;
+		c.entryId[i] = entry;
+		c.centreId[i] = centre;
+		c.proteinId[i] = protein;
+		c.em[i] = em;
+		c.ph[i] = ph ?? Number.NaN;
+		c.temperature[i] = t ?? Number.NaN;
+		c.kind[i] = codeOf(c.kinds, kindCodes, kind);
+		c.method[i] = codeOf(c.methods, methodCodes, method);
+		c.organism[i] = codeOf(c.organisms, organismCodes, organism);
+		if (publicFrom === null) {
+			c.publicFrom[i] = Number.POSITIVE_INFINITY;
+		} else {
+			let ms = dates.get(publicFrom);
+			if (ms === undefined) dates.set(publicFrom, (ms = Date.parse(publicFrom)));
+			c.publicFrom[i] = ms;
+		}
+		c.group[i] = group ?? 0;
+	}
 	const rowOfEntry = new Map<number, number>();
 	for (let i = 0; i < n; i++) {
 		rowOfEntry.set(c.entryId[i]!, i);
@@ -223,15 +255,13 @@ export class PotentialIndex {
 		return this.columns;
 	}
 
-	/** A test of one row against the viewer's visibility and every filter. */
+	/** A test of one row against the reader's visibility and every filter. */
 	private predicate(
 		query: Pick<IndexQuery, 'filter' | 'accession'>,
-		viewer: Viewer | null
+		visible: RowVisibility
 	): (r: number) => boolean {
 		const c = this.data;
 		const f = query.filter;
-		const now = Date.now();
-		const groups = new Set(viewer?.groupIds ?? []);
 		const codes = (values: string[], wanted: readonly string[] | undefined) =>
 			wanted?.length ? new Set(wanted.map((w) => values.indexOf(w))) : null;
 		const kinds = codes(c.kinds, f.kind);
@@ -246,7 +276,7 @@ export class PotentialIndex {
 		const hasPh = f.phMin !== undefined || f.phMax !== undefined;
 		const hasT = f.tMin !== undefined || f.tMax !== undefined;
 		return (r) =>
-			(c.publicFrom[r]! <= now || (c.group[r] !== 0 && groups.has(c.group[r]!))) &&
+			visible(c.publicFrom[r]!, c.group[r] === 0 ? null : c.group[r]!) &&
 			(kinds === null || kinds.has(c.kind[r]!)) &&
 			(methods === null || methods.has(c.method[r]!)) &&
 			(organisms === null || organisms.has(c.organism[r]!)) &&
@@ -262,9 +292,9 @@ export class PotentialIndex {
 	}
 
 	/** Total matches and the entry ids of one page. Call ensureCurrent() first. */
-	query(query: IndexQuery, viewer: Viewer | null): IndexResult {
+	query(query: IndexQuery, visible: RowVisibility): IndexResult {
 		const c = this.data;
-		const test = this.predicate(query, viewer);
+		const test = this.predicate(query, visible);
 		const page: number[] = [];
 		let total = 0;
 		const take = (r: number) => {
@@ -291,14 +321,14 @@ export class PotentialIndex {
 	}
 
 	/** Visible potentials per cofactor kind, organism and method, most first. */
-	facets(viewer: Viewer | null): {
+	facets(visible: RowVisibility): {
 		kinds: FacetCount[];
 		organisms: FacetCount[];
 		methods: FacetCount[];
 		total: number;
 	} {
 		const c = this.data;
-		const test = this.predicate({ filter: {} }, viewer);
+		const test = this.predicate({ filter: {} }, visible);
 		const kinds = new Array<number>(c.kinds.length).fill(0);
 		const methods = new Array<number>(c.methods.length).fill(0);
 		const organisms = new Array<number>(c.organisms.length).fill(0);
@@ -324,5 +354,5 @@ export class PotentialIndex {
 	}
 }
 
-/** One per server process; it holds catalogue data only, filtered per viewer at query time. */
+/** One per server process; it holds catalogue data only, filtered per reader at query time. */
 export const potentialIndex = new PotentialIndex();
