@@ -123,6 +123,56 @@ describe('checking a CSV file', () => {
 			/^already in the registry as HL\d{6}$/
 		);
 	});
+	it('warns of spin records and distances already approved, in either centre order', async () => {
+		const spin = await db
+			.selectFrom('spin_record as r')
+			.innerJoin('entry as e', 'e.id', 'r.entry_id')
+			.innerJoin('entry as ce', 'ce.id', 'r.centre_entry_id')
+			.select([
+				'e.accession',
+				'ce.accession as centre',
+				'r.oxidation_level',
+				'r.spin_s',
+				'r.method',
+				'r.temperature_k'
+			])
+			.where('e.visibility', '=', 'public')
+			.executeTakeFirstOrThrow();
+		const spins = await checkUpload(
+			db,
+			`centreAccession,oxidationLevel,spinS,method,temperatureK\n${spin.centre},${spin.oxidation_level},${spin.spin_s},${spin.method},${spin.temperature_k ?? ''}\n`,
+			'spin_record',
+			options
+		);
+		expect(spins.issues).toMatchObject([
+			{ row: 2, severity: 'warning', message: `already in the registry as ${spin.accession}` }
+		]);
+		const distance = await db
+			.selectFrom('distance as d')
+			.innerJoin('entry as e', 'e.id', 'd.entry_id')
+			.innerJoin('entry as a', 'a.id', 'd.centre_a_entry_id')
+			.innerJoin('entry as b', 'b.id', 'd.centre_b_entry_id')
+			.select([
+				'e.accession',
+				'a.accession as a',
+				'b.accession as b',
+				'd.edge_to_edge_a',
+				'd.structure_id',
+				'd.method'
+			])
+			.where('e.visibility', '=', 'public')
+			.executeTakeFirstOrThrow();
+		// The same pair named B first, and the structure in other letter case: still the same distance.
+		const distances = await checkUpload(
+			db,
+			`centreAAccession,centreBAccession,edgeToEdgeA,structureId,method\n${distance.b},${distance.a},${distance.edge_to_edge_a},${distance.structure_id.toLowerCase()},${distance.method}\n`,
+			'distance',
+			options
+		);
+		expect(distances.issues).toMatchObject([
+			{ row: 2, severity: 'warning', message: `already in the registry as ${distance.accession}` }
+		]);
+	});
 	it('reports a missing required column once, and refuses files over the row limit', async () => {
 		const check = await checkUpload(
 			db,

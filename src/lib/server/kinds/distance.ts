@@ -1,6 +1,11 @@
-import { distanceKey } from '../uploads/lookups';
 import { findCentre, firstInFile } from '../uploads/rows';
-import { upsertReadModel, type KindOnServer } from './kind';
+import { entryIsVisible } from '../catalogue/visibility';
+import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
+import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
+
+/** What makes two distances the same: the pair in either order, and the structure. */
+const distanceKey = (a: string, b: string, structure: string) =>
+	`${a < b ? a : b}|${a < b ? b : a}|${structure.toLowerCase()}`;
 
 export const distance: KindOnServer<'distance'> = {
 	async project(trx, { entryId, version, data: d, refs }) {
@@ -39,7 +44,39 @@ export const distance: KindOnServer<'distance'> = {
 		return d ? `Distance ${d.a} – ${d.b}` : 'Distance';
 	},
 	potentialRowsColumn: null,
-	upload: {
+	upload: defineUpload({
+		async loadExisting(db, viewer, shared) {
+			const accessionOf = centreAccessionsById(shared);
+			const existing = new Map<string, string>();
+			await paged(
+				(after) =>
+					db
+						.selectFrom('distance')
+						.innerJoin('entry', 'entry.id', 'distance.entry_id')
+						.select([
+							'distance.entry_id',
+							'entry.accession',
+							'distance.centre_a_entry_id',
+							'distance.centre_b_entry_id',
+							'distance.structure_id'
+						])
+						.where('distance.entry_id', '>', after)
+						.where((eb) => entryIsVisible(eb, 'entry', viewer))
+						.orderBy('distance.entry_id')
+						.limit(PAGE)
+						.execute(),
+				(row) =>
+					existing.set(
+						distanceKey(
+							accessionOf.get(row.centre_a_entry_id) ?? '',
+							accessionOf.get(row.centre_b_entry_id) ?? '',
+							row.structure_id
+						),
+						row.accession
+					)
+			);
+			return existing;
+		},
 		resolve(r) {
 			const a = findCentre(r.state, r.values, r.texts, 'centreAAccession', 'centreALabel', r.fail);
 			const b = findCentre(r.state, r.values, r.texts, 'centreBAccession', 'centreBLabel', r.fail);
@@ -47,10 +84,10 @@ export const distance: KindOnServer<'distance'> = {
 				? { centres: [a, b], newProtein: null, proteinEntryId: a.proteinEntryId }
 				: null;
 		},
-		check(r, d) {
+		check(r, d, _resolved, registry) {
 			const key = distanceKey(d.centreAAccession, d.centreBAccession, d.structureId);
 			if (!firstInFile(r, key, 'edgeToEdgeA')) return false;
-			const existing = r.state.lookups.distanceKeys.get(key);
+			const existing = registry.get(key);
 			if (existing)
 				r.warn(
 					'duplicate',
@@ -61,5 +98,5 @@ export const distance: KindOnServer<'distance'> = {
 				);
 			return true;
 		}
-	}
+	})
 };

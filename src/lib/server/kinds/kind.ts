@@ -3,6 +3,8 @@ import type { EntryDataByKind } from '$lib/kinds';
 import type { UploadKind } from '$lib/catalogue/uploadKinds';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
+import type { Viewer } from '../catalogue/visibility';
+import type { UploadLookups } from '../uploads/lookups';
 import type { Resolved, UploadRow } from '../uploads/rows';
 
 // What the server knows about one kind of entry, beside what it shares with the browser
@@ -29,8 +31,21 @@ export interface Dependency {
 /** Which rows of the potential read model copy columns from an entry of this kind. */
 export type PotentialRowsColumn = 'entry_id' | 'centre_entry_id' | 'protein_entry_id';
 
-/** How rows of a CSV upload of this kind are checked, beside the kind's schema. */
-export interface UploadRules<K extends EntryKind> {
+/**
+ * How rows of a CSV upload of this kind are checked, beside the kind's schema. `Existing` is
+ * what the kind reads of the registry once per file to find duplicates and conflicts.
+ */
+export interface UploadRules<K extends EntryKind, Existing = unknown> {
+	/**
+	 * The approved entries of this kind that a row could repeat or contradict, among those the
+	 * uploader may see (a message naming a hidden value, or a count including one, would give it
+	 * away), read once per file.
+	 */
+	loadExisting?(
+		db: Kysely<Database>,
+		viewer: Viewer | null,
+		shared: UploadLookups
+	): Promise<Existing>;
 	/**
 	 * Fills fields the row left empty from what its cells carried besides their value (a
 	 * potential's unit and electrode written in the value's cell or header).
@@ -42,8 +57,13 @@ export interface UploadRules<K extends EntryKind> {
 	 * The kind's checks of a valid row against what it names, the rows before it and the
 	 * registry (duplicates, conflicts, typical ranges); false when the row has an error.
 	 */
-	check(r: UploadRow, data: EntryDataByKind[K], resolved: Resolved): boolean;
+	check(r: UploadRow, data: EntryDataByKind[K], resolved: Resolved, existing: Existing): boolean;
 }
+
+/** Declares a kind's upload rules with what `loadExisting` reads typed through to `check`. */
+export const defineUpload = <K extends EntryKind, Existing = undefined>(
+	rules: UploadRules<K, Existing>
+): UploadRules<K, Existing> => rules;
 
 export interface ServerKindModule<K extends EntryKind> {
 	/**

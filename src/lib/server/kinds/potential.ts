@@ -6,10 +6,22 @@ import { potentialContext } from '../catalogue/potentialRows';
 import { potentialConflict } from '$lib/catalogue/conflicts';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
 import { UPLOAD_COLUMNS } from '$lib/catalogue/uploadColumns';
-import type { CentreFact } from '../uploads/lookups';
+import { potentialIsVisible } from '../catalogue/visibility';
+import { PAGE, paged, type CentreFact } from '../uploads/lookups';
 import { matchOption } from '../uploads/cells';
 import { findCentre, firstInFile } from '../uploads/rows';
-import { upsertReadModel, type KindOnServer } from './kind';
+import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
+
+/** An approved potential a row could repeat or contradict. */
+interface ApprovedPotential {
+	accession: string;
+	couple: string;
+	emMvShe: number;
+	uncertaintyMv: number | null;
+	ph: number | null;
+	temperatureK: number | null;
+	method: string;
+}
 
 const ELECTRODE_OPTIONS =
 	UPLOAD_COLUMNS.potential.find((c) => c.name === 'referenceElectrode')?.options ?? [];
@@ -79,7 +91,46 @@ export const potential: KindOnServer<'potential'> = {
 		if (refs.centreAccession !== undefined)
 			await assertCoupleFitsCentre(db, refs.centreAccession, data.couple);
 	},
-	upload: {
+	upload: defineUpload({
+		async loadExisting(db, viewer) {
+			const byCentreCouple = new Map<string, ApprovedPotential[]>();
+			await paged(
+				(after) =>
+					db
+						.selectFrom('potential')
+						.select([
+							'entry_id',
+							'accession',
+							'centre_accession',
+							'couple',
+							'em_mv_she',
+							'uncertainty_mv',
+							'ph',
+							'temperature_k',
+							'method'
+						])
+						.where('entry_id', '>', after)
+						.where((eb) => potentialIsVisible(eb, 'potential', viewer))
+						.orderBy('entry_id')
+						.limit(PAGE)
+						.execute(),
+				(p) => {
+					const key = `${p.centre_accession}|${p.couple}`;
+					const list = byCentreCouple.get(key) ?? [];
+					list.push({
+						accession: p.accession,
+						couple: p.couple,
+						emMvShe: p.em_mv_she,
+						uncertaintyMv: p.uncertainty_mv,
+						ph: p.ph,
+						temperatureK: p.temperature_k,
+						method: p.method
+					});
+					byCentreCouple.set(key, list);
+				}
+			);
+			return byCentreCouple;
+		},
 		prepare(r, extras) {
 			if (extras.reportedUnit && r.values.reportedUnit === undefined)
 				r.values.reportedUnit = extras.reportedUnit;
@@ -98,7 +149,7 @@ export const potential: KindOnServer<'potential'> = {
 			const c = findCentre(r.state, r.values, r.texts, 'centreAccession', 'centreLabel', r.fail);
 			return c ? { centres: [c], newProtein: null, proteinEntryId: c.proteinEntryId } : null;
 		},
-		check(r, d, resolved) {
+		check(r, d, resolved, existing) {
 			const centre = resolved.centres[0] as CentreFact;
 			const allowed = COUPLES_BY_KIND[centre.cofactorKind];
 			if (allowed.length > 0 && !allowed.includes(d.couple)) {
@@ -115,9 +166,7 @@ export const potential: KindOnServer<'potential'> = {
 			const range = checkTypicalRange(centre.cofactorKind, d.couple, d.emMvShe);
 			if (range)
 				r.warn('range', 'reportedValue', value, range.message, { source: range.range.source });
-			for (const p of r.state.lookups.potentialsByCentreCouple.get(
-				`${d.centreAccession}|${d.couple}`
-			) ?? []) {
+			for (const p of existing.get(`${d.centreAccession}|${d.couple}`) ?? []) {
 				const same =
 					Math.abs(p.emMvShe - d.emMvShe) < 0.05 &&
 					p.ph === d.ph &&
@@ -141,5 +190,5 @@ export const potential: KindOnServer<'potential'> = {
 			}
 			return true;
 		}
-	}
+	})
 };

@@ -1,6 +1,11 @@
-import { spinKey } from '../uploads/lookups';
 import { findCentre, firstInFile } from '../uploads/rows';
-import { upsertReadModel, type KindOnServer } from './kind';
+import { entryIsVisible } from '../catalogue/visibility';
+import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
+import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
+
+/** What makes two spin records the same measurement. */
+const spinKey = (centre: string, level: string, method: string, t: number | null) =>
+	`${centre}|${level}|${method}|${t ?? ''}`;
 
 export const spinRecord: KindOnServer<'spin_record'> = {
 	async project(trx, { entryId, version, data: d, refs }) {
@@ -34,15 +39,49 @@ export const spinRecord: KindOnServer<'spin_record'> = {
 		return r ? `Spin state of ${r.oxidation_level}, centre ${r.label}` : 'Spin record';
 	},
 	potentialRowsColumn: null,
-	upload: {
+	upload: defineUpload({
+		async loadExisting(db, viewer, shared) {
+			const accessionOf = centreAccessionsById(shared);
+			const existing = new Map<string, string>();
+			await paged(
+				(after) =>
+					db
+						.selectFrom('spin_record')
+						.innerJoin('entry', 'entry.id', 'spin_record.entry_id')
+						.select([
+							'spin_record.entry_id',
+							'entry.accession',
+							'spin_record.centre_entry_id',
+							'spin_record.oxidation_level',
+							'spin_record.method',
+							'spin_record.temperature_k'
+						])
+						.where('spin_record.entry_id', '>', after)
+						.where((eb) => entryIsVisible(eb, 'entry', viewer))
+						.orderBy('spin_record.entry_id')
+						.limit(PAGE)
+						.execute(),
+				(row) =>
+					existing.set(
+						spinKey(
+							accessionOf.get(row.centre_entry_id) ?? '',
+							row.oxidation_level,
+							row.method,
+							row.temperature_k
+						),
+						row.accession
+					)
+			);
+			return existing;
+		},
 		resolve(r) {
 			const c = findCentre(r.state, r.values, r.texts, 'centreAccession', 'centreLabel', r.fail);
 			return c ? { centres: [c], newProtein: null, proteinEntryId: c.proteinEntryId } : null;
 		},
-		check(r, d) {
+		check(r, d, _resolved, registry) {
 			const key = spinKey(d.centreAccession, d.oxidationLevel, d.method, d.temperatureK);
 			if (!firstInFile(r, key, 'oxidationLevel')) return false;
-			const existing = r.state.lookups.spinKeys.get(key);
+			const existing = registry.get(key);
 			if (existing)
 				r.warn(
 					'duplicate',
@@ -53,5 +92,5 @@ export const spinRecord: KindOnServer<'spin_record'> = {
 				);
 			return true;
 		}
-	}
+	})
 };

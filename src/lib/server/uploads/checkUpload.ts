@@ -82,6 +82,8 @@ export async function checkUpload(
 	const sha256 = createHash('sha256').update(text).digest('hex');
 	const table = await readCsv(text, options.limits);
 	const lookups = await loadUploadLookups(db, options.viewer);
+	const rules = uploadRules(kind);
+	const existing = await rules.loadExisting?.(db, options.viewer, lookups);
 	const issues: UploadIssue[] = table.problems.map((p) => ({
 		row: p.row,
 		column: '',
@@ -132,7 +134,6 @@ export async function checkUpload(
 		headerUnit: headerUnit(header)
 	});
 	const state: RowState = { kind, lookups, newProteins: new Map(), inFile: new Map() };
-	const rules = uploadRules(kind);
 	const entries: PlannedEntry[] = [];
 	const proteins: PlannedProtein[] = [];
 
@@ -191,7 +192,7 @@ export async function checkUpload(
 		if (hasIssueSince(issues, before, (x) => x.severity === 'error')) continue;
 		if (!parsed.ok || !resolved) continue;
 
-		if (!rules.check(r, parsed.entry.data, resolved)) continue;
+		if (!rules.check(r, parsed.entry.data, resolved, existing)) continue;
 		if (resolved.newProtein && !state.newProteins.get(resolved.newProtein.key)?.planned) {
 			const p = state.newProteins.get(resolved.newProtein.key);
 			if (p) {
