@@ -5,6 +5,7 @@ import {
 	type VersionWarning,
 	type VersionWarningKind
 } from '$lib/schemas/versionWarning';
+import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 
 /*
@@ -103,7 +104,7 @@ export async function loadBatchRows(
 			accession: r.accession,
 			kind: r.kind,
 			status: r.status,
-			data: JSON.parse(r.data) as Record<string, unknown>,
+			data: readJson(r.data),
 			warnings: parseStoredWarnings(r.warnings),
 			comments: comments.filter((c) => c.entry_version_id === r.id).map((c) => c.body)
 		}))

@@ -2,6 +2,7 @@ import type { Kysely } from 'kysely';
 import { parseEntryData } from '$lib/schemas/entryData';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 import type { SessionUser } from '../auth/roles';
+import { readJson } from '../db/json';
 import type { Database, SubmissionStatus } from '../db/schema';
 import { viewerOf } from '../catalogue/visibility';
 import { batchFlagCounts } from './batchRows';
@@ -75,7 +76,7 @@ async function summarise(
 		let rangeWarnings = 0;
 		let conflicts = 0;
 		for (const v of versions) {
-			const warnings = await warningsForVersion(db, parseEntryData(v.kind, JSON.parse(v.data)), {
+			const warnings = await warningsForVersion(db, parseEntryData(v.kind, readJson(v.data)), {
 				entryId: v.entryId,
 				audience
 			});

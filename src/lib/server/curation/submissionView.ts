@@ -3,6 +3,7 @@ import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
 import { parseEntryData } from '$lib/schemas/entryData';
 import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
+import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { viewerOf } from '../catalogue/visibility';
 import { warningsForVersion, type VersionWarning, type WarningAudience } from './checks';
@@ -101,7 +102,7 @@ export async function loadSubmissionView(
 	const rows = submission.channel === 'csv' ? [] : await formVersionRows(db, submissionId);
 	const versions: VersionView[] = [];
 	for (const r of rows) {
-		const entry = parseEntryData(r.kind, JSON.parse(r.data));
+		const entry = parseEntryData(r.kind, readJson(r.data));
 		const current = await db
 			.selectFrom('entry_version')
 			.select(['version', 'data'])
@@ -110,7 +111,7 @@ export async function loadSubmissionView(
 			.where('id', '!=', r.id)
 			.orderBy('version', 'desc')
 			.executeTakeFirst();
-		const currentData = current ? (JSON.parse(current.data) as Record<string, unknown>) : null;
+		const currentData = current ? readJson(current.data) : null;
 		const data = entry.data as unknown as Record<string, unknown>;
 		versions.push({
 			versionId: r.id,

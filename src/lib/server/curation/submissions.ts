@@ -4,6 +4,7 @@ import { KINDS, type KindModule } from '$lib/kinds';
 import { ENTRY_KIND_LABELS } from '$lib/schemas/vocabulary';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
+import { readJson } from '../db/json';
 import type { Database, SubmissionStatus } from '../db/schema';
 import {
 	addVersion,
@@ -202,7 +203,7 @@ export async function updateDraft(
 		action: 'submission.edit',
 		entryId: version.entryId,
 		submissionId,
-		before: { data: JSON.parse(version.data), visibility: version.visibility },
+		before: { data: readJson(version.data), visibility: version.visibility },
 		after: { data: input.entry.data, visibility: input.visibility }
 	});
 }
@@ -242,7 +243,7 @@ export async function submitForReview(
 	for (const v of await formVersion(trx, submissionId)) {
 		const errors = await checkEntryReferences(
 			trx,
-			parseEntryData(v.kind, JSON.parse(v.data)),
+			parseEntryData(v.kind, readJson(v.data)),
 			viewerOf(user)
 		);
 		if (Object.keys(errors).length > 0) throw new SubmissionInvalidError(errors);
