@@ -14,7 +14,9 @@ import {
 	InvalidEntryDataError,
 	VersionStateError
 } from '$lib/server/catalogue/errors';
-import { listCentres, listDistances, listSpinRecords } from '$lib/server/catalogue/lists';
+import { listCentres } from '$lib/server/kinds/centre';
+import { listDistances } from '$lib/server/kinds/distance';
+import { listSpinRecords } from '$lib/server/kinds/spinRecord';
 import { listPotentials } from '$lib/server/catalogue/potentials';
 import { decodeCursor } from '$lib/schemas/pagination';
 import { loadDemoScenario } from '$seed/load';

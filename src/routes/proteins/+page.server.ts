@@ -1,4 +1,4 @@
-import { listProteins } from '$lib/server/catalogue/lists';
+import { listProteins } from '$lib/server/kinds/protein';
 import { db } from '$lib/server/db';
 import type { PageServerLoad } from './$types';
 

@@ -2,7 +2,8 @@ import { sql, type Kysely } from 'kysely';
 import type { ListedPotential } from '$lib/catalogue/conflicts';
 import type { LadderCentre, LadderDistance } from '$lib/catalogue/ladder';
 import type { Database } from '../db/schema';
-import { listCentres, listDistances } from './lists';
+import { listCentres } from '../kinds/centre';
+import { listDistances } from '../kinds/distance';
 import { COMPARABLE_COLUMNS, toComparable } from './comparablePotential';
 import { potentialIsVisible, type Viewer } from './visibility';
 

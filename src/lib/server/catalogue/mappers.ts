@@ -1,20 +1,11 @@
-import type {
-	CentreRef,
-	DistanceDto,
-	PotentialDto,
-	ProteinRef,
-	SourceRef,
-	SpinRecordDto
-} from '$lib/catalogue/dto';
-import type { Selectable } from 'kysely';
-import type { CofactorKind } from '$lib/schemas/vocabulary';
+import type { CentreRef, PotentialDto, ProteinRef, SourceRef } from '$lib/catalogue/dto';
 import { readJson } from '../db/json';
-import type { Database } from '../db/schema';
+import type { Row } from '../db/schema';
 
-/* Row → DTO, one mapper per entity. Column aliases here are the ones the queries select. */
-
-/** The selected columns of one table, as Kysely reads them. */
-type Row<T extends keyof Database> = Selectable<Database[T]>;
+/*
+ * Row → DTO for the references every list carries (protein, centre, source) and for potentials;
+ * the lists of other kinds map their rows in their own modules (src/lib/server/kinds).
+ */
 
 export interface CentreRefColumns {
 	centre_accession: string;
@@ -102,70 +93,6 @@ export function toPotentialDto(r: PotentialRowColumns): PotentialDto {
 		method: r.method,
 		nElectrons: r.n_electrons,
 		uncertaintyMv: r.uncertainty_mv,
-		source: toSourceRef(r),
-		isDemo: r.is_demo === 1
-	};
-}
-
-export type SpinRecordRowColumns = CentreRefColumns &
-	ProteinRefColumns &
-	SourceRefColumns &
-	Pick<
-		Row<'spin_record'>,
-		'version' | 'oxidation_level' | 'spin_s' | 'g_values' | 'temperature_k' | 'method'
-	> &
-	Pick<Row<'entry'>, 'accession' | 'is_demo'>;
-
-export function toSpinRecordDto(r: SpinRecordRowColumns): SpinRecordDto {
-	return {
-		accession: r.accession,
-		version: r.version,
-		centre: toCentreRef(r),
-		protein: toProteinRef(r),
-		oxidationLevel: r.oxidation_level,
-		spinS: r.spin_s,
-		gValues: readJson(r.g_values),
-		temperatureK: r.temperature_k,
-		method: r.method,
-		source: toSourceRef(r),
-		isDemo: r.is_demo === 1
-	};
-}
-
-export type DistanceRowColumns = ProteinRefColumns &
-	SourceRefColumns &
-	Pick<
-		Row<'distance'>,
-		'version' | 'edge_to_edge_a' | 'centre_to_centre_a' | 'structure_id' | 'method'
-	> &
-	Pick<Row<'entry'>, 'accession' | 'is_demo'> & {
-		a_accession: string;
-		a_label: string;
-		a_kind: CofactorKind;
-		b_accession: string;
-		b_label: string;
-		b_kind: CofactorKind;
-	};
-
-export function toDistanceDto(r: DistanceRowColumns): DistanceDto {
-	return {
-		accession: r.accession,
-		version: r.version,
-		centreA: toCentreRef({
-			centre_accession: r.a_accession,
-			centre_label: r.a_label,
-			cofactor_kind: r.a_kind
-		}),
-		centreB: toCentreRef({
-			centre_accession: r.b_accession,
-			centre_label: r.b_label,
-			cofactor_kind: r.b_kind
-		}),
-		protein: toProteinRef(r),
-		edgeToEdgeA: r.edge_to_edge_a,
-		centreToCentreA: r.centre_to_centre_a,
-		structureId: r.structure_id,
-		method: r.method,
 		source: toSourceRef(r),
 		isDemo: r.is_demo === 1
 	};

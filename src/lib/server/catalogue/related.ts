@@ -3,7 +3,9 @@ import type { CentreDto, DistanceDto, PotentialDto, SpinRecordDto } from '$lib/c
 import { RELATED_PAGE_SIZE, type RelatedPages } from '$lib/schemas/relatedPages';
 import type { EntryKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
-import { listCentres, listDistances, listSpinRecords } from './lists';
+import { listCentres } from '../kinds/centre';
+import { listDistances } from '../kinds/distance';
+import { listSpinRecords } from '../kinds/spinRecord';
 import { listPotentials } from './potentials';
 import type { Viewer } from './visibility';
 

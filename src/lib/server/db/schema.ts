@@ -5,6 +5,9 @@ import type { Generated, Selectable } from 'kysely';
  * Row types elsewhere derive from this with Selectable<…>; never write a parallel row type.
  * Auth.js's four tables keep the names and camelCase columns its adapter requires.
  */
+/** A row of one table as Kysely reads it (what a query selecting its columns returns). */
+export type Row<T extends keyof Database> = Selectable<Database[T]>;
+
 export interface Database {
 	User: UserTable;
 	Account: AccountTable;

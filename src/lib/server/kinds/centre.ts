@@ -1,3 +1,15 @@
+import { sql, type Kysely } from 'kysely';
+import type { CentreDto, Page } from '$lib/catalogue/dto';
+import type { CentreApiQuery } from '$lib/schemas/catalogueQuery';
+
+import { readJson } from '../db/json';
+import type { Database } from '../db/schema';
+import { pageOf } from '../catalogue/lists';
+import { toProteinRef } from '../catalogue/mappers';
+import type { ListOptions } from '../catalogue/potentials';
+import { nullsLast } from '../catalogue/sortOrder';
+import { resolveTextQuery } from '../catalogue/textMatch';
+import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { COFACTOR_KIND_LABELS } from '$lib/schemas/vocabulary';
 import { refreshPotentialRows } from '../catalogue/potentialRows';
 import { centreLabelKey } from '../uploads/lookups';
@@ -65,3 +77,69 @@ export const centre: KindOnServer<'centre'> = {
 		}
 	}
 };
+
+/** The centres a reader may see, filtered, sorted and paged, for pages and the API. */
+export async function listCentres(
+	db: Kysely<Database>,
+	filter: Pick<CentreApiQuery, 'q' | 'kind' | 'organism' | 'protein'>,
+	options: ListOptions<'accession' | 'protein' | 'label' | 'kind'>,
+	viewer: Viewer | null
+): Promise<Page<CentreDto>> {
+	const text = await resolveTextQuery(db, filter.q);
+	let query = db
+		.selectFrom('centre as c')
+		.innerJoin('entry as ce', 'ce.id', 'c.entry_id')
+		.innerJoin('protein as pr', 'pr.entry_id', 'c.protein_entry_id')
+		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')
+		.where((eb) => eb.and([entryIsVisible(eb, 'ce', viewer), entryIsVisible(eb, 'pe', viewer)]));
+	if (text.kind === 'accession') {
+		const a = text.accession;
+		query = query.where((eb) => eb.or([eb('ce.accession', '=', a), eb('pe.accession', '=', a)]));
+	}
+	if (text.kind === 'centres')
+		query = query.where('c.entry_id', 'in', text.ids.length > 0 ? text.ids : [-1]);
+	if (filter.kind?.length) query = query.where('c.cofactor_kind', 'in', filter.kind);
+	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
+	if (filter.protein) query = query.where('pe.accession', '=', filter.protein);
+	const { n } = await query
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.executeTakeFirstOrThrow();
+	const columns = {
+		accession: ['ce.accession'],
+		protein: ['pr.name', 'c.entry_id'],
+		label: ['c.label'],
+		kind: ['c.cofactor_kind', 'pr.name']
+	}[options.sort ?? 'protein'];
+	let ordered = query.select([
+		'ce.accession',
+		'c.version',
+		'c.label',
+		'c.cofactor_kind',
+		'c.ligation',
+		'c.chain_id',
+		'c.residues',
+		'ce.is_demo',
+		'pe.accession as protein_accession',
+		'pr.name as protein_name',
+		'pr.organism'
+	]);
+	for (const column of columns)
+		ordered = ordered.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'));
+	const rows = await ordered
+		.orderBy('c.entry_id')
+		.limit(options.limit)
+		.offset(options.offset)
+		.execute();
+	const items = rows.map((r): CentreDto => ({
+		accession: r.accession,
+		version: r.version,
+		label: r.label,
+		cofactorKind: r.cofactor_kind,
+		protein: toProteinRef(r),
+		ligation: r.ligation,
+		chainId: r.chain_id,
+		residues: readJson(r.residues),
+		isDemo: r.is_demo === 1
+	}));
+	return pageOf(items, Number(n), options.offset);
+}

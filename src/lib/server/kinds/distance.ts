@@ -1,5 +1,22 @@
+import { sql, type Kysely } from 'kysely';
+import type { DistanceDto, Page } from '$lib/catalogue/dto';
+import type { DistanceApiQuery } from '$lib/schemas/catalogueQuery';
+import type { CofactorKind } from '$lib/schemas/vocabulary';
+
+import type { Database, Row } from '../db/schema';
+import { pageOf } from '../catalogue/lists';
+import {
+	toCentreRef,
+	toProteinRef,
+	toSourceRef,
+	type ProteinRefColumns,
+	type SourceRefColumns
+} from '../catalogue/mappers';
+import type { ListOptions } from '../catalogue/potentials';
+import { nullsLast } from '../catalogue/sortOrder';
+
+import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { findCentre, firstInFile } from '../uploads/rows';
-import { entryIsVisible } from '../catalogue/visibility';
 import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
 
@@ -100,3 +117,120 @@ export const distance: KindOnServer<'distance'> = {
 		}
 	})
 };
+
+export type DistanceRowColumns = ProteinRefColumns &
+	SourceRefColumns &
+	Pick<
+		Row<'distance'>,
+		'version' | 'edge_to_edge_a' | 'centre_to_centre_a' | 'structure_id' | 'method'
+	> &
+	Pick<Row<'entry'>, 'accession' | 'is_demo'> & {
+		a_accession: string;
+		a_label: string;
+		a_kind: CofactorKind;
+		b_accession: string;
+		b_label: string;
+		b_kind: CofactorKind;
+	};
+
+export function toDistanceDto(r: DistanceRowColumns): DistanceDto {
+	return {
+		accession: r.accession,
+		version: r.version,
+		centreA: toCentreRef({
+			centre_accession: r.a_accession,
+			centre_label: r.a_label,
+			cofactor_kind: r.a_kind
+		}),
+		centreB: toCentreRef({
+			centre_accession: r.b_accession,
+			centre_label: r.b_label,
+			cofactor_kind: r.b_kind
+		}),
+		protein: toProteinRef(r),
+		edgeToEdgeA: r.edge_to_edge_a,
+		centreToCentreA: r.centre_to_centre_a,
+		structureId: r.structure_id,
+		method: r.method,
+		source: toSourceRef(r),
+		isDemo: r.is_demo === 1
+	};
+}
+
+/** The distances a reader may see, filtered, sorted and paged, for pages and the API. */
+export async function listDistances(
+	db: Kysely<Database>,
+	filter: Pick<
+		DistanceApiQuery,
+		'organism' | 'protein' | 'centre' | 'method' | 'edgeMin' | 'edgeMax'
+	>,
+	options: ListOptions<'accession' | 'edge' | 'centre'>,
+	viewer: Viewer | null
+): Promise<Page<DistanceDto>> {
+	let query = db
+		.selectFrom('distance as d')
+		.innerJoin('entry as e', 'e.id', 'd.entry_id')
+		.innerJoin('centre as a', 'a.entry_id', 'd.centre_a_entry_id')
+		.innerJoin('entry as ae', 'ae.id', 'a.entry_id')
+		.innerJoin('centre as b', 'b.entry_id', 'd.centre_b_entry_id')
+		.innerJoin('entry as be', 'be.id', 'b.entry_id')
+		.innerJoin('protein as pr', 'pr.entry_id', 'a.protein_entry_id')
+		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')
+		.where((eb) =>
+			eb.and([
+				entryIsVisible(eb, 'e', viewer),
+				entryIsVisible(eb, 'ae', viewer),
+				entryIsVisible(eb, 'be', viewer),
+				entryIsVisible(eb, 'pe', viewer)
+			])
+		);
+	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
+	if (filter.protein) query = query.where('pe.accession', '=', filter.protein);
+	if (filter.centre) {
+		const c = filter.centre;
+		query = query.where((eb) => eb.or([eb('ae.accession', '=', c), eb('be.accession', '=', c)]));
+	}
+	if (filter.method?.length) query = query.where('d.method', 'in', filter.method);
+	if (filter.edgeMin !== undefined) query = query.where('d.edge_to_edge_a', '>=', filter.edgeMin);
+	if (filter.edgeMax !== undefined) query = query.where('d.edge_to_edge_a', '<=', filter.edgeMax);
+	const { n } = await query
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.executeTakeFirstOrThrow();
+	const column = { accession: 'e.accession', edge: 'd.edge_to_edge_a', centre: 'a.label' }[
+		options.sort ?? 'accession'
+	];
+	const rows = await query
+		.leftJoin('entry as se', (join) =>
+			// A source the reader may not see is left out: its DOI and authors would leak.
+			join.onRef('se.id', '=', 'd.source_entry_id').on((eb) => entryIsVisible(eb, 'se', viewer))
+		)
+		.leftJoin('source as s', 's.entry_id', 'se.id')
+		.select([
+			'e.accession',
+			'd.version',
+			'd.edge_to_edge_a',
+			'd.centre_to_centre_a',
+			'd.structure_id',
+			'd.method',
+			'e.is_demo',
+			'ae.accession as a_accession',
+			'a.label as a_label',
+			'a.cofactor_kind as a_kind',
+			'be.accession as b_accession',
+			'b.label as b_label',
+			'b.cofactor_kind as b_kind',
+			'pe.accession as protein_accession',
+			'pr.name as protein_name',
+			'pr.organism',
+			'se.accession as source_accession',
+			's.doi as source_doi',
+			's.year as source_year',
+			's.authors as source_authors'
+		])
+		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
+		.orderBy('d.entry_id')
+		.limit(options.limit)
+		.offset(options.offset)
+		.execute();
+	return pageOf(rows.map(toDistanceDto), Number(n), options.offset);
+}

@@ -1,5 +1,23 @@
+import { sql, type Kysely } from 'kysely';
+import type { Page, SpinRecordDto } from '$lib/catalogue/dto';
+import type { SpinRecordApiQuery } from '$lib/schemas/catalogueQuery';
+
+import { readJson } from '../db/json';
+import type { Database, Row } from '../db/schema';
+import { pageOf } from '../catalogue/lists';
+import {
+	toCentreRef,
+	toProteinRef,
+	toSourceRef,
+	type CentreRefColumns,
+	type ProteinRefColumns,
+	type SourceRefColumns
+} from '../catalogue/mappers';
+import type { ListOptions } from '../catalogue/potentials';
+import { nullsLast } from '../catalogue/sortOrder';
+
+import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { findCentre, firstInFile } from '../uploads/rows';
-import { entryIsVisible } from '../catalogue/visibility';
 import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
 
@@ -94,3 +112,98 @@ export const spinRecord: KindOnServer<'spin_record'> = {
 		}
 	})
 };
+
+export type SpinRecordRowColumns = CentreRefColumns &
+	ProteinRefColumns &
+	SourceRefColumns &
+	Pick<
+		Row<'spin_record'>,
+		'version' | 'oxidation_level' | 'spin_s' | 'g_values' | 'temperature_k' | 'method'
+	> &
+	Pick<Row<'entry'>, 'accession' | 'is_demo'>;
+
+export function toSpinRecordDto(r: SpinRecordRowColumns): SpinRecordDto {
+	return {
+		accession: r.accession,
+		version: r.version,
+		centre: toCentreRef(r),
+		protein: toProteinRef(r),
+		oxidationLevel: r.oxidation_level,
+		spinS: r.spin_s,
+		gValues: readJson(r.g_values),
+		temperatureK: r.temperature_k,
+		method: r.method,
+		source: toSourceRef(r),
+		isDemo: r.is_demo === 1
+	};
+}
+
+/** The spin records a reader may see, filtered, sorted and paged, for pages and the API. */
+export async function listSpinRecords(
+	db: Kysely<Database>,
+	filter: Pick<SpinRecordApiQuery, 'kind' | 'organism' | 'protein' | 'centre' | 'method' | 'spin'>,
+	options: ListOptions<'accession' | 'centre' | 'spin' | 'temperature'>,
+	viewer: Viewer | null
+): Promise<Page<SpinRecordDto>> {
+	let query = db
+		.selectFrom('spin_record as r')
+		.innerJoin('entry as e', 'e.id', 'r.entry_id')
+		.innerJoin('centre as c', 'c.entry_id', 'r.centre_entry_id')
+		.innerJoin('entry as ce', 'ce.id', 'c.entry_id')
+		.innerJoin('protein as pr', 'pr.entry_id', 'c.protein_entry_id')
+		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')
+		.where((eb) =>
+			eb.and([
+				entryIsVisible(eb, 'e', viewer),
+				entryIsVisible(eb, 'ce', viewer),
+				entryIsVisible(eb, 'pe', viewer)
+			])
+		);
+	if (filter.kind?.length) query = query.where('c.cofactor_kind', 'in', filter.kind);
+	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
+	if (filter.protein) query = query.where('pe.accession', '=', filter.protein);
+	if (filter.centre) query = query.where('ce.accession', '=', filter.centre);
+	if (filter.method?.length) query = query.where('r.method', 'in', filter.method);
+	if (filter.spin !== undefined) query = query.where('r.spin_s', '=', filter.spin);
+	const { n } = await query
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.executeTakeFirstOrThrow();
+	const column = {
+		accession: 'e.accession',
+		centre: 'c.label',
+		spin: 'r.spin_s',
+		temperature: 'r.temperature_k'
+	}[options.sort ?? 'accession'];
+	const rows = await query
+		.leftJoin('entry as se', (join) =>
+			// A source the reader may not see is left out: its DOI and authors would leak.
+			join.onRef('se.id', '=', 'r.source_entry_id').on((eb) => entryIsVisible(eb, 'se', viewer))
+		)
+		.leftJoin('source as s', 's.entry_id', 'se.id')
+		.select([
+			'e.accession',
+			'r.version',
+			'r.oxidation_level',
+			'r.spin_s',
+			'r.g_values',
+			'r.temperature_k',
+			'r.method',
+			'e.is_demo',
+			'ce.accession as centre_accession',
+			'c.label as centre_label',
+			'c.cofactor_kind',
+			'pe.accession as protein_accession',
+			'pr.name as protein_name',
+			'pr.organism',
+			'se.accession as source_accession',
+			's.doi as source_doi',
+			's.year as source_year',
+			's.authors as source_authors'
+		])
+		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
+		.orderBy('r.entry_id')
+		.limit(options.limit)
+		.offset(options.offset)
+		.execute();
+	return pageOf(rows.map(toSpinRecordDto), Number(n), options.offset);
+}

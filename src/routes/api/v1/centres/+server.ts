@@ -2,7 +2,7 @@ import { centreCsvRow } from '$lib/catalogue/csvRows';
 import { centreApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
 import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
-import { listCentres } from '$lib/server/catalogue/lists';
+import { listCentres } from '$lib/server/kinds/centre';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
 

@@ -2,7 +2,7 @@ import { distanceCsvRow } from '$lib/catalogue/csvRows';
 import { distanceApiQuery } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
 import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
-import { listDistances } from '$lib/server/catalogue/lists';
+import { listDistances } from '$lib/server/kinds/distance';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
 

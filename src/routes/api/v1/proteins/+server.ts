@@ -2,7 +2,7 @@ import { proteinCsvRow } from '$lib/catalogue/csvRows';
 import { proteinApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
 import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
-import { listProteins } from '$lib/server/catalogue/lists';
+import { listProteins } from '$lib/server/kinds/protein';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
 

@@ -2,7 +2,7 @@ import { spinRecordCsvRow } from '$lib/catalogue/csvRows';
 import { spinRecordApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
 import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
-import { listSpinRecords } from '$lib/server/catalogue/lists';
+import { listSpinRecords } from '$lib/server/kinds/spinRecord';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
 
