@@ -16,7 +16,7 @@ import type { ListOptions } from '../catalogue/potentials';
 import { nullsLast } from '../catalogue/sortOrder';
 
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
-import { findCentre, firstInFile } from '../uploads/rows';
+import { checkDuplicateKey, findCentre } from '../uploads/rows';
 import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
 
@@ -101,20 +101,17 @@ export const distance: KindOnServer<'distance'> = {
 				? { centres: [a, b], newProtein: null, proteinEntryId: a.proteinEntryId }
 				: null;
 		},
-		check(r, d, _resolved, registry) {
-			const key = distanceKey(d.centreAAccession, d.centreBAccession, d.structureId);
-			if (!firstInFile(r, key, 'edgeToEdgeA')) return false;
-			const existing = registry.get(key);
-			if (existing)
-				r.warn(
-					'duplicate',
-					'structureId',
-					d.structureId,
-					`already in the registry as ${existing}`,
-					{ accession: existing }
-				);
-			return true;
-		}
+		check: (r, d, _resolved, approved) =>
+			checkDuplicateKey(
+				r,
+				distanceKey(d.centreAAccession, d.centreBAccession, d.structureId),
+				approved,
+				{
+					inFile: 'edgeToEdgeA',
+					warn: 'structureId',
+					value: d.structureId
+				}
+			)
 	})
 };
 

@@ -17,7 +17,7 @@ import type { ListOptions } from '../catalogue/potentials';
 import { nullsLast } from '../catalogue/sortOrder';
 
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
-import { findCentre, firstInFile } from '../uploads/rows';
+import { checkDuplicateKey, findCentre } from '../uploads/rows';
 import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
 
@@ -96,20 +96,13 @@ export const spinRecord: KindOnServer<'spin_record'> = {
 			const c = findCentre(r.state, r.values, r.texts, 'centreAccession', 'centreLabel', r.fail);
 			return c ? { centres: [c], newProtein: null, proteinEntryId: c.proteinEntryId } : null;
 		},
-		check(r, d, _resolved, registry) {
-			const key = spinKey(d.centreAccession, d.oxidationLevel, d.method, d.temperatureK);
-			if (!firstInFile(r, key, 'oxidationLevel')) return false;
-			const existing = registry.get(key);
-			if (existing)
-				r.warn(
-					'duplicate',
-					'oxidationLevel',
-					d.oxidationLevel,
-					`already in the registry as ${existing}`,
-					{ accession: existing }
-				);
-			return true;
-		}
+		check: (r, d, _resolved, approved) =>
+			checkDuplicateKey(
+				r,
+				spinKey(d.centreAccession, d.oxidationLevel, d.method, d.temperatureK),
+				approved,
+				{ inFile: 'oxidationLevel', warn: 'oxidationLevel', value: d.oxidationLevel }
+			)
 	})
 };
 

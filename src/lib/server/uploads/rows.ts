@@ -197,3 +197,23 @@ export function resolveCentreProtein(
 	values.proteinAccession = NEW_PROTEIN_PLACEHOLDER;
 	return { centres: [], newProtein: { key }, proteinEntryId: null };
 }
+
+/**
+ * A row identified by `key` (what makes two entries of its kind the same): an error when an
+ * earlier row of the file had the key, a warning naming the approved entry that has it.
+ * False when the row has an error.
+ */
+export function checkDuplicateKey(
+	r: UploadRow,
+	key: string,
+	approved: ReadonlyMap<string, string>,
+	columns: { inFile: string; warn: string; value: string }
+): boolean {
+	if (!firstInFile(r, key, columns.inFile)) return false;
+	const accession = approved.get(key);
+	if (accession)
+		r.warn('duplicate', columns.warn, columns.value, `already in the registry as ${accession}`, {
+			accession
+		});
+	return true;
+}
