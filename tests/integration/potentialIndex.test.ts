@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Database } from '$lib/server/db/schema';
 import { listPotentials } from '$lib/server/catalogue/potentials';
 import {
+	entryRowIsVisible,
 	potentialIsVisible,
 	potentialRowVisibility,
 	type Viewer
@@ -501,9 +502,30 @@ describe('in-memory potential columns on random catalogues and readers', () => {
 					try {
 						const index = new PotentialIndex();
 						await index.ensureCurrent(built.db);
+						const entries = new Map(
+							(
+								await built.db
+									.selectFrom('entry')
+									.select(['id', 'visibility', 'embargo_until', 'group_id'])
+									.execute()
+							).map((e) => [e.id, e])
+						);
+						const chains = new Map(
+							(
+								await built.db
+									.selectFrom('potential')
+									.select(['entry_id', 'centre_entry_id', 'protein_entry_id'])
+									.execute()
+							).map((p) => [p.entry_id, [p.entry_id, p.centre_entry_id, p.protein_entry_id]])
+						);
 						for (const q of queries) {
 							const r = resolveQuery(built, q);
 							const expected = await sqlAnswer(built.db, q, r);
+							// The row rule never shows more than the entries' own rule allows: a row
+							// is seen only when its potential, centre and protein all are.
+							for (const id of expected)
+								for (const entryId of chains.get(id)!)
+									expect(entryRowIsVisible(entries.get(entryId)!, r.viewer)).toBe(true);
 							const visible = potentialRowVisibility(r.viewer);
 							const all = index.query(
 								{

@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { Database, PotentialTable } from '../db/schema';
-import { owningGroup, publicFrom } from './visibility';
+import { earlyGroup, publicFrom } from './visibility';
 
 /*
  * The columns a potential's read-model row copies from its centre, protein and entries, so that
@@ -70,7 +70,7 @@ export async function potentialContext(
 		organism: row.organism,
 		is_demo: row.is_demo,
 		public_from: publicFrom(chain),
-		group_id: owningGroup(chain)
+		group_id: earlyGroup(chain)
 	};
 }
 

@@ -70,9 +70,35 @@ export function publicFrom(entries: readonly EntryVisibility[]): string | null {
 	return from;
 }
 
-/** The group whose members see a dependent row early: the first entry's group that has one. */
-export function owningGroup(entries: readonly EntryVisibility[]): number | null {
-	return entries.find((e) => e.group_id !== null)?.group_id ?? null;
+/**
+ * The group whose members may see a row that depends on several entries (a potential, its
+ * centre and its protein) before its `public_from`: the one group every entry still hidden
+ * from outsiders carries, else none. The row is visible only when all its entries are, and the
+ * read model keeps a single group per row, so this is conservative:
+ * - public entries are ignored, whatever `group_id` they carry (they hide nothing), and so are
+ *   embargoed entries whose date has passed at `now` (time only moves forward, and a changed
+ *   embargo refreshes the row through `setEntryVisibility`);
+ * - when the hidden entries carry different groups (a group-1 potential on a group-2 protein),
+ *   or one of them carries none (an embargo with no group), no group sees the row early:
+ *   members of both groups wait for `public_from` like everyone else (forever while an entry
+ *   is group-only). Safe, never wider than the rule; a reader who could see every entry may
+ *   still see each of them on its own page.
+ */
+export function earlyGroup(
+	entries: readonly EntryVisibility[],
+	now: Date = new Date()
+): number | null {
+	const nowIso = now.toISOString();
+	let group: number | null = null;
+	for (const e of entries) {
+		if (e.visibility === 'public') continue;
+		if (e.visibility === 'embargoed' && e.embargo_until !== null && e.embargo_until <= nowIso)
+			continue;
+		if (e.group_id === null) return null;
+		if (group !== null && group !== e.group_id) return null;
+		group = e.group_id;
+	}
+	return group;
 }
 
 /** Visibility of rows of the denormalised potential read model (see migration 0001). */

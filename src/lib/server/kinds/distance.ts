@@ -173,12 +173,15 @@ export async function listDistances(
 		.innerJoin('entry as be', 'be.id', 'b.entry_id')
 		.innerJoin('protein as pr', 'pr.entry_id', 'a.protein_entry_id')
 		.innerJoin('entry as pe', 'pe.id', 'pr.entry_id')
+		// Centre B may sit on another protein (a distance across subunits): it counts too.
+		.innerJoin('entry as pbe', 'pbe.id', 'b.protein_entry_id')
 		.where((eb) =>
 			eb.and([
 				entryIsVisible(eb, 'e', viewer),
 				entryIsVisible(eb, 'ae', viewer),
 				entryIsVisible(eb, 'be', viewer),
-				entryIsVisible(eb, 'pe', viewer)
+				entryIsVisible(eb, 'pe', viewer),
+				entryIsVisible(eb, 'pbe', viewer)
 			])
 		);
 	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
