@@ -5,6 +5,7 @@ import * as m0003 from './0003_add_upload_batches';
 import * as m0004 from './0004_add_session_revocation';
 import * as m0005 from './0005_create_backup_log';
 import * as m0006 from './0006_structure_version_warnings';
+import * as m0007 from './0007_recompute_potential_groups';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -17,5 +18,6 @@ export const migrations: Record<string, Migration> = {
 	'0003_add_upload_batches': m0003,
 	'0004_add_session_revocation': m0004,
 	'0005_create_backup_log': m0005,
-	'0006_structure_version_warnings': m0006
+	'0006_structure_version_warnings': m0006,
+	'0007_recompute_potential_groups': m0007
 };

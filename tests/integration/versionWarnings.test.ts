@@ -131,7 +131,7 @@ describe('migration 0006: warnings as structured JSON', () => {
 	it('classifies each stored sentence, keeping its message, and the queue counts stay', async () => {
 		before = await oldCounts(batchId);
 		expect(before).toEqual({ rangeWarnings: 3, conflicts: 2 });
-		expect(await migrateToLatest(db)).toEqual(['0006_structure_version_warnings']);
+		expect(await migrateToLatest(db)).toContain('0006_structure_version_warnings');
 
 		expect(await storedWarnings('range')).toEqual([
 			{
