@@ -8,9 +8,9 @@ let browser: Browser;
 let visitor: Page;
 let admin: Page;
 
-/** The newest link to `path` in mail to `to`, read from the demo mailbox as an admin would. */
+/** The link to `path` in the newest mail to `to` that has one, read as an admin would. */
 async function linkFromMail(to: string, path: string): Promise<string> {
-	return linkIn(await readDemoMail(admin, to), `${base}${path}`);
+	return linkIn(await readDemoMail(admin, to, `${base}${path}`), `${base}${path}`);
 }
 
 beforeAll(async () => {
