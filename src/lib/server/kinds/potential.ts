@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import { COUPLES_BY_KIND } from '$lib/schemas/vocabulary';
+import { COUPLES_BY_KIND, type CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { InvalidEntryDataError } from '../catalogue/errors';
 import { potentialContext } from '../catalogue/potentialRows';
@@ -37,13 +37,16 @@ async function assertCoupleFitsCentre(
 		.select('cofactor_kind')
 		.where('entry_id', '=', centreEntryId)
 		.executeTakeFirstOrThrow();
-	const allowed = COUPLES_BY_KIND[centre.cofactor_kind];
-	if (allowed.length > 0 && !allowed.includes(couple)) {
-		throw new InvalidEntryDataError(
-			'couple',
-			`"${couple}" is not a couple of a ${centre.cofactor_kind} centre; expected one of ${allowed.join(', ')}`
-		);
-	}
+	const misfit = coupleMisfit(centre.cofactor_kind, couple);
+	if (misfit) throw new InvalidEntryDataError('couple', misfit);
+}
+
+/** Why a couple cannot be one of a centre of this cofactor kind ('other' takes any), or null. */
+function coupleMisfit(kind: CofactorKind, couple: string): string | null {
+	const allowed = COUPLES_BY_KIND[kind];
+	return allowed.length > 0 && !allowed.includes(couple)
+		? `"${couple}" is not a couple of a ${kind} centre; expected one of ${allowed.join(', ')}`
+		: null;
 }
 
 export const potential: KindOnServer<'potential'> = {
@@ -151,13 +154,9 @@ export const potential: KindOnServer<'potential'> = {
 		},
 		check(r, d, resolved, existing) {
 			const centre = resolved.centres[0] as CentreFact;
-			const allowed = COUPLES_BY_KIND[centre.cofactorKind];
-			if (allowed.length > 0 && !allowed.includes(d.couple)) {
-				r.fail(
-					'couple',
-					d.couple,
-					`"${d.couple}" is not a couple of a ${centre.cofactorKind} centre; expected one of ${allowed.join(', ')}`
-				);
+			const misfit = coupleMisfit(centre.cofactorKind, d.couple);
+			if (misfit) {
+				r.fail('couple', d.couple, misfit);
 				return false;
 			}
 			const key = `${d.centreAccession}|${d.couple}|${d.emMvShe}|${d.ph}|${d.temperatureK}|${d.method}`;
