@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import { normalisePotential, potentialInputSchema } from '../src/lib/schemas/potential';
-import type { EntryKind } from '../src/lib/schemas/vocabulary';
+import type { EntryKind } from '../src/lib/kinds';
 import type { Database } from '../src/lib/server/db/schema';
 import { addVersion, approveVersion, createEntry } from '../src/lib/server/catalogue/entries';
 import {

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import { createPasswordUser } from '$lib/server/auth/users';
 import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/entries';
 import { listPotentials } from '$lib/server/catalogue/potentials';

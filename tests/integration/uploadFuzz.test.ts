@@ -3,7 +3,8 @@ import type { Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import '../support/fast-check';
 import type { Database } from '$lib/server/db/schema';
-import { UPLOAD_COLUMNS, UPLOAD_KINDS } from '$lib/catalogue/uploadColumns';
+import { UPLOAD_COLUMNS } from '$lib/catalogue/uploadColumns';
+import { UPLOAD_KINDS } from '$lib/kinds';
 import { checkUpload, type UploadCheck } from '$lib/server/uploads/checkUpload';
 import {
 	commitUpload,

@@ -1,5 +1,5 @@
 import { sql, type Kysely } from 'kysely';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import { createPasswordUser } from '$lib/server/auth/users';
 import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/entries';
 import type { Database } from '$lib/server/db/schema';

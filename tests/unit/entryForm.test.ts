@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { entryFormValues, readEntryForm } from '$lib/catalogue/entryForm';
-import { KINDS, type KindModule } from '$lib/kinds';
+import { KINDS, type KindModule, ENTRY_KINDS } from '$lib/kinds';
 import { parseEntryInput } from '$lib/schemas/submission';
-import { ENTRY_KINDS } from '$lib/schemas/vocabulary';
 
 describe('entry forms', () => {
 	it('lists, for each kind, only fields its schema knows', () => {

@@ -2,7 +2,8 @@
  * The shapes the catalogue hands to pages and API clients (camelCase, units in the names).
  * Built from database rows by one mapper per entity in src/lib/server/catalogue/mappers.ts.
  */
-import type { CofactorKind, EntryKind, Visibility } from '$lib/schemas/vocabulary';
+import type { CofactorKind, Visibility } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 
 export interface EntryRef {
 	accession: string;

@@ -1,6 +1,5 @@
 import { ZERO_CELSIUS_K } from '$lib/science/constants';
-import { KINDS } from '$lib/kinds';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import { KINDS, type EntryKind } from '$lib/kinds';
 
 /*
  * How the strings of an entry form (laid out by the kind's module, src/lib/kinds) become the

@@ -14,7 +14,11 @@ import {
 
 type Method = PotentialMethod | SpinMethod | DistanceMethod;
 
-/* How each field of an entry's data is named and shown, with its unit. */
+/*
+ * How the fields of entries' data are named and shown, with their units: the names several
+ * kinds share. A kind may name a field of its own in its form fields (src/lib/kinds);
+ * `fieldLabel` and `formatKindField` in src/lib/kinds look there first.
+ */
 
 export const FIELD_LABELS: Record<string, string> = {
 	name: 'Name',
@@ -61,12 +65,11 @@ export const FIELD_LABELS: Record<string, string> = {
 	year: 'Year'
 };
 
-export function fieldLabel(field: string): string {
-	return FIELD_LABELS[field] ?? field;
-}
-
-/** A field's value as text with its unit; null/empty shows as an em dash. */
-export function formatField(field: string, value: unknown): string {
+/**
+ * A field's value as text with its unit (`unit` for a field this module does not know);
+ * null/empty shows as an em dash.
+ */
+export function formatField(field: string, value: unknown, unit?: string): string {
 	if (value === null || value === undefined || (Array.isArray(value) && value.length === 0))
 		return '—';
 	switch (field) {
@@ -96,6 +99,6 @@ export function formatField(field: string, value: unknown): string {
 		case 'method':
 			return METHOD_LABELS[value as Method] ?? String(value);
 	}
-	if (Array.isArray(value)) return value.join(field === 'authors' ? '; ' : ', ');
-	return String(value);
+	const text = Array.isArray(value) ? value.join(field === 'authors' ? '; ' : ', ') : String(value);
+	return unit ? `${text} ${unit}` : text;
 }

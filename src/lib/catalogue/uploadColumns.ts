@@ -1,16 +1,9 @@
 import Papa from 'papaparse';
-import { KINDS } from '$lib/kinds';
+import { KINDS, UPLOAD_KINDS, type UploadKind } from '$lib/kinds';
 import type { UploadColumn } from '$lib/kinds/csvColumns';
-import { UPLOAD_KINDS, matchHeader, type HeaderNames, type UploadKind } from './uploadKinds';
+import { matchHeader, type HeaderNames } from './headerMatch';
 
 export type { UploadColumn } from '$lib/kinds/csvColumns';
-
-export {
-	UPLOAD_KINDS,
-	UPLOAD_KIND_LABELS,
-	UPLOAD_KIND_NOUNS,
-	type UploadKind
-} from './uploadKinds';
 
 /** The columns of each kind of CSV upload, as the kinds' modules list them (src/lib/kinds). */
 export const UPLOAD_COLUMNS = Object.fromEntries(

@@ -19,10 +19,14 @@ const FIELDS = [
 ];
 
 export const centre = defineKind({
+	label: 'Centre',
 	schema: centreSchema,
 	formFields: FIELDS,
 	references: { proteinAccession: 'protein' },
+	listFields: ['proteinAccession', 'label', 'cofactorKind', 'ligation'],
 	upload: {
+		label: 'Centres and proteins',
+		noun: 'centres',
 		columns: [
 			...withAlternative(columnsFromFields(FIELDS), 'proteinAccession', 'proteinName + organism'),
 			by(

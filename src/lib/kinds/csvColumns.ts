@@ -1,4 +1,4 @@
-import type { HeaderNames } from '$lib/catalogue/uploadKinds';
+import type { HeaderNames } from '$lib/catalogue/headerMatch';
 import type { FormField } from './formFields';
 
 // The columns of a CSV upload are the kind's form fields (and so its schema's) plus columns

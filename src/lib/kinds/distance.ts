@@ -19,10 +19,14 @@ const FIELDS = [
 ];
 
 export const distance = defineKind({
+	label: 'Distance',
 	schema: distanceSchema,
 	formFields: FIELDS,
 	references: { centreAAccession: 'centre', centreBAccession: 'centre', sourceAccession: 'source' },
+	listFields: ['centreAAccession', 'centreBAccession', 'edgeToEdgeA', 'structureId'],
 	upload: {
+		label: 'Distances',
+		noun: 'distances',
 		columns: [
 			...withAlternative(
 				withAlternative(

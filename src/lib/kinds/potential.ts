@@ -42,6 +42,7 @@ const FIELDS = [
 ];
 
 export const potential = defineKind({
+	label: 'Potential',
 	schema: potentialSchema,
 	// Sent as reported (value, unit, reference electrode); stored with the value vs SHE as well.
 	input: {
@@ -62,7 +63,11 @@ export const potential = defineKind({
 	},
 	formFields: FIELDS,
 	references: { centreAccession: 'centre', sourceAccession: 'source' },
+	listFields: ['centreAccession', 'couple', 'emMvShe', 'ph', 'temperatureK', 'method'],
 	upload: {
+		label: 'Potentials',
+		noun: 'potentials',
+		derivedFields: { reportedValue: 'emMvShe' },
 		columns: [
 			// The unit and the electrode may instead ride in the value's header or cell: "(mV vs SCE)".
 			...withAlternative(

@@ -3,6 +3,7 @@ import { defineKind } from './kind';
 import { field } from './formFields';
 
 export const protein = defineKind({
+	label: 'Protein',
 	schema: proteinSchema,
 	formFields: [
 		field('name', 'text', { required: true }),
@@ -12,5 +13,6 @@ export const protein = defineKind({
 		field('description', 'textarea')
 	],
 	references: {},
+	listFields: ['name', 'organism'],
 	submissionTitle: (d) => `${d.name} (${d.organism})`
 });

@@ -4,6 +4,7 @@ import { defineKind } from './kind';
 import { field, options } from './formFields';
 
 export const source = defineKind({
+	label: 'Source',
 	schema: sourceSchema,
 	formFields: [
 		field('sourceKind', 'select', {
@@ -22,5 +23,6 @@ export const source = defineKind({
 		field('note', 'textarea')
 	],
 	references: {},
+	listFields: ['title', 'year', 'doi'],
 	submissionTitle: (d) => (d.title.length > 80 ? `${d.title.slice(0, 77)}…` : d.title)
 });

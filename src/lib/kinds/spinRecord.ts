@@ -19,10 +19,14 @@ const FIELDS = [
 ];
 
 export const spinRecord = defineKind({
+	label: 'Spin record',
 	schema: spinRecordSchema,
 	formFields: FIELDS,
 	references: { centreAccession: 'centre', sourceAccession: 'source' },
+	listFields: ['centreAccession', 'oxidationLevel', 'spinS', 'gValues', 'method'],
 	upload: {
+		label: 'Spin records',
+		noun: 'spin records',
 		columns: [
 			...withAlternative(
 				columnsFromFields(FIELDS, {

@@ -1,5 +1,4 @@
-import { KINDS, type EntryDataByKind } from '$lib/kinds';
-import type { EntryKind } from './vocabulary';
+import { KINDS, type EntryDataByKind, type EntryKind } from '$lib/kinds';
 
 export type { EntryDataByKind } from '$lib/kinds';
 

@@ -1,10 +1,10 @@
 import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
-import { KINDS, type KindModule } from '$lib/kinds';
+import { KINDS, type KindModule, ENTRY_KINDS, type EntryKind } from '$lib/kinds';
 import type { EntryData } from './entryData';
 import { fieldErrors } from './fieldErrors';
 import type { FieldErrors } from './searchParams';
-import { ENTRY_KINDS, VISIBILITIES, type EntryKind } from './vocabulary';
+import { VISIBILITIES } from './vocabulary';
 
 /*
  * What a contributor sends: entry data in each kind's input schema (for potentials, the value as

@@ -157,22 +157,3 @@ export type SourceKind = (typeof SOURCE_KINDS)[number];
 
 export const VISIBILITIES = ['public', 'group', 'embargoed'] as const;
 export type Visibility = (typeof VISIBILITIES)[number];
-
-export const ENTRY_KINDS = [
-	'protein',
-	'centre',
-	'potential',
-	'spin_record',
-	'distance',
-	'source'
-] as const;
-export type EntryKind = (typeof ENTRY_KINDS)[number];
-
-export const ENTRY_KIND_LABELS: Record<EntryKind, string> = {
-	protein: 'Protein',
-	centre: 'Centre',
-	potential: 'Potential',
-	spin_record: 'Spin record',
-	distance: 'Distance',
-	source: 'Source'
-};

@@ -1,6 +1,6 @@
 import type { Selectable } from 'kysely';
 import type { ListedPotential } from '$lib/catalogue/conflicts';
-import type { PotentialTable } from '../db/schema';
+import type { Database } from '../db/schema';
 
 /*
  * The columns of the potential read model that comparing values needs (conflict flags, the
@@ -17,7 +17,7 @@ export const COMPARABLE_COLUMNS = [
 ] as const;
 
 type ComparableRow = Pick<
-	Selectable<PotentialTable>,
+	Selectable<Database['potential']>,
 	| 'accession'
 	| 'centre_accession'
 	| 'couple'

@@ -1,7 +1,8 @@
 import { sql, type Kysely } from 'kysely';
 import { formatAccession } from '$lib/schemas/accession';
 import { parseEntryData } from '$lib/schemas/entryData';
-import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
+import type { Visibility } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { EntryView } from '$lib/catalogue/dto';
 import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
 import { readJson } from '../db/json';
-import type { Database } from '../db/schema';
+import type { Database, EntryKind } from '../db/schema';
 import { serverKind } from '../kinds';
 import { EntryNotFoundError } from './errors';
 import type { Viewer } from './visibility';
@@ -109,11 +109,16 @@ export async function compareVersions(
 	from: number,
 	to: number,
 	viewer: Viewer | null
-): Promise<{ changes: FieldChange[]; from: number; to: number }> {
+): Promise<{ kind: EntryKind; changes: FieldChange[]; from: number; to: number }> {
 	const entry = await findEntryOrThrow(db, accession, viewer);
 	const a = await approvedVersion(db, entry.id, from);
 	const b = await approvedVersion(db, entry.id, to);
 	if (!a) throw new EntryNotFoundError(accession, from);
 	if (!b) throw new EntryNotFoundError(accession, to);
-	return { changes: diffEntryData(readJson(a.data), readJson(b.data)), from, to };
+	return {
+		kind: entry.kind,
+		changes: diffEntryData(readJson(a.data), readJson(b.data)),
+		from,
+		to
+	};
 }

@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import type { Database, PotentialTable } from '../db/schema';
+import type { Database } from '../db/schema';
 import { earlyGroup, publicFrom } from './visibility';
 
 /*
@@ -7,7 +7,7 @@ import { earlyGroup, publicFrom } from './visibility';
  * searching potentials touches one table. Computed here and nowhere else.
  */
 export type PotentialContext = Pick<
-	PotentialTable,
+	Database['potential'],
 	| 'accession'
 	| 'centre_accession'
 	| 'centre_label'

@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import { KINDS } from '$lib/kinds';
+import { referencesOf } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
@@ -20,7 +20,7 @@ export async function projectApprovedVersion(
 	const revision = await bumpCatalogueRevision(trx);
 	const data = entry.data as unknown as Record<string, unknown>;
 	const refs: Record<string, number | null> = {};
-	for (const [field, kind] of Object.entries(KINDS[entry.kind].references)) {
+	for (const [field, kind] of Object.entries(referencesOf(entry.kind))) {
 		const accession = data[field];
 		refs[field] =
 			typeof accession === 'string' ? await resolveReference(trx, field, accession, kind) : null;

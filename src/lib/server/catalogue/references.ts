@@ -1,6 +1,5 @@
 import type { Kysely } from 'kysely';
-import { KINDS } from '$lib/kinds';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import { referencesOf, type EntryKind } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
@@ -71,7 +70,7 @@ export async function checkEntryReferences(
 	const errors: Record<string, string[]> = {};
 	const data = entry.data as unknown as Record<string, unknown>;
 	const ids: Record<string, number> = {};
-	for (const [field, expected] of Object.entries(KINDS[entry.kind].references)) {
+	for (const [field, expected] of Object.entries(referencesOf(entry.kind))) {
 		const accession = data[field];
 		if (typeof accession !== 'string') continue;
 		try {

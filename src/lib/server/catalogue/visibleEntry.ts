@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
 import { entryRowIsVisible, type Viewer } from './visibility';

@@ -1,5 +1,5 @@
 import { sql, type Kysely } from 'kysely';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import { ENTRY_KIND_LABELS, KINDS, fieldLabel, formatKindField, type EntryKind } from '$lib/kinds';
 import {
 	parseStoredWarnings,
 	type VersionWarning,
@@ -48,10 +48,19 @@ export interface BatchRow {
 	row: number | null;
 	accession: string;
 	kind: EntryKind;
+	kindLabel: string;
 	status: string;
-	data: Record<string, unknown>;
+	/** The kind's list fields (src/lib/kinds) that the row fills, as text. */
+	values: { label: string; text: string }[];
 	warnings: VersionWarning[];
 	comments: string[];
+}
+
+function listValues(kind: EntryKind, data: Record<string, unknown>) {
+	return KINDS[kind].listFields.map((field) => ({
+		label: fieldLabel(kind, field),
+		text: formatKindField(kind, field, data[field])
+	}));
 }
 
 /** One page of a CSV batch's rows in file order; `flagged` keeps rows with warnings. */
@@ -103,8 +112,9 @@ export async function loadBatchRows(
 			row: r.row_number,
 			accession: r.accession,
 			kind: r.kind,
+			kindLabel: ENTRY_KIND_LABELS[r.kind],
 			status: r.status,
-			data: readJson(r.data),
+			values: listValues(r.kind, readJson(r.data)),
 			warnings: parseStoredWarnings(r.warnings),
 			comments: comments.filter((c) => c.entry_version_id === r.id).map((c) => c.body)
 		}))

@@ -8,7 +8,7 @@ import {
 	visibilityFromForm,
 	type VisibilityRequest
 } from '$lib/schemas/submission';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 
 /*
  * Reads an entry form post: the entry data through the kind's zod schema, the visibility it

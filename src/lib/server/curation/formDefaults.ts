@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import { entryFormValues } from '$lib/catalogue/entryForm';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import type { Database } from '../db/schema';
 import { getEntryView } from '../catalogue/entryView';

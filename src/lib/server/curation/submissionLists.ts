@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import { parseEntryData } from '$lib/schemas/entryData';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import type { SessionUser } from '../auth/roles';
 import { readJson } from '../db/json';
 import type { Database, SubmissionStatus } from '../db/schema';

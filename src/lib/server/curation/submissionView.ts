@@ -1,7 +1,8 @@
 import type { Kysely } from 'kysely';
 import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
 import { parseEntryData } from '$lib/schemas/entryData';
-import type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
+import type { Visibility } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';

@@ -1,7 +1,6 @@
 import type { Kysely } from 'kysely';
 import { parseEntryData, type EntryData } from '$lib/schemas/entryData';
-import { KINDS, type KindModule } from '$lib/kinds';
-import { ENTRY_KIND_LABELS } from '$lib/schemas/vocabulary';
+import { KINDS, type KindModule, ENTRY_KIND_LABELS } from '$lib/kinds';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';
 import { readJson } from '../db/json';

@@ -8,7 +8,15 @@ import type { Generated, Selectable } from 'kysely';
 /** A row of one table as Kysely reads it (what a query selecting its columns returns). */
 export type Row<T extends keyof Database> = Selectable<Database[T]>;
 
-export interface Database {
+/**
+ * The read-model tables of the entry kinds, one each, named by the kind: each kind's server
+ * module (src/lib/server/kinds/<kind>.ts) declares its own here, beside the code that writes
+ * and reads it, so that a new kind adds its table without editing this file.
+ */
+// eslint-disable-next-line @typescript-eslint/no-empty-object-type -- filled by declaration merging
+export interface KindTables {}
+
+export interface Database extends KindTables {
 	User: UserTable;
 	Account: AccountTable;
 	Session: SessionTable;
@@ -31,31 +39,17 @@ export interface Database {
 	saved_search: SavedSearchTable;
 	api_token: ApiTokenTable;
 	catalogue_state: CatalogueStateTable;
-	source: SourceTable;
-	protein: ProteinTable;
-	centre: CentreTable;
-	potential: PotentialTable;
-	spin_record: SpinRecordTable;
-	distance: DistanceTable;
 	backup_log: BackupLogTable;
 }
 
 export type { Role } from '$lib/roles';
 import type { Role } from '$lib/roles';
-import type { PotentialUnit } from '$lib/science/units';
-import type { ReferenceElectrode } from '$lib/science/referenceElectrodes';
-import type {
-	CofactorKind,
-	DistanceMethod,
-	EntryKind,
-	PotentialMethod,
-	SourceKind,
-	SpinMethod,
-	Visibility
-} from '$lib/schemas/vocabulary';
+import type { Visibility } from '$lib/schemas/vocabulary';
+import type { EntryKind } from '$lib/kinds';
 import type { JsonColumn } from './json';
 
-export type { EntryKind, Visibility } from '$lib/schemas/vocabulary';
+export type { Visibility } from '$lib/schemas/vocabulary';
+export type { EntryKind } from '$lib/kinds';
 export type VersionStatus =
 	'draft' | 'submitted' | 'returned' | 'approved' | 'rejected' | 'withdrawn';
 export type SubmissionStatus =
@@ -290,99 +284,6 @@ export interface ApiTokenTable {
 export interface CatalogueStateTable {
 	id: number;
 	revision: number;
-}
-
-export interface SourceTable {
-	entry_id: number;
-	version: number;
-	source_kind: SourceKind;
-	doi: string | null;
-	pubmed_id: string | null;
-	title: string;
-	/** JSON array of author names as "Family, Given". */
-	authors: JsonColumn<string[]>;
-	journal: string | null;
-	year: number | null;
-}
-
-export interface ProteinTable {
-	entry_id: number;
-	version: number;
-	name: string;
-	organism: string;
-	uniprot: string | null;
-	/** JSON array of structure identifiers. */
-	structure_ids: JsonColumn<string[]>;
-	revision: number;
-}
-
-export interface CentreTable {
-	entry_id: number;
-	version: number;
-	protein_entry_id: number;
-	label: string;
-	cofactor_kind: CofactorKind;
-	ligation: string | null;
-	chain_id: string | null;
-	/** JSON array of residue numbers. */
-	residues: JsonColumn<number[]>;
-	revision: number;
-}
-
-export interface PotentialTable {
-	entry_id: number;
-	accession: string;
-	version: number;
-	centre_entry_id: number;
-	centre_accession: string;
-	centre_label: string;
-	cofactor_kind: CofactorKind;
-	protein_entry_id: number;
-	protein_accession: string;
-	protein_name: string;
-	organism: string;
-	couple: string;
-	em_mv_she: number;
-	reported_value: number;
-	reported_unit: PotentialUnit;
-	reference_electrode: ReferenceElectrode;
-	ph: number | null;
-	temperature_k: number | null;
-	ionic_strength_m: number | null;
-	buffer: string | null;
-	method: PotentialMethod;
-	n_electrons: number;
-	uncertainty_mv: number | null;
-	source_entry_id: number | null;
-	is_demo: number;
-	/** ISO 8601 time from which everyone may see the row; null while group-only. */
-	public_from: string | null;
-	group_id: number | null;
-}
-
-export interface SpinRecordTable {
-	entry_id: number;
-	version: number;
-	centre_entry_id: number;
-	oxidation_level: string;
-	spin_s: number;
-	/** JSON array of principal g-values, largest first. */
-	g_values: JsonColumn<number[]>;
-	temperature_k: number | null;
-	method: SpinMethod;
-	source_entry_id: number | null;
-}
-
-export interface DistanceTable {
-	entry_id: number;
-	version: number;
-	centre_a_entry_id: number;
-	centre_b_entry_id: number;
-	edge_to_edge_a: number;
-	centre_to_centre_a: number | null;
-	structure_id: string;
-	method: DistanceMethod;
-	source_entry_id: number | null;
 }
 
 /** A backup taken or restored from the command line (migration 0005; see db/backup.ts). */

@@ -15,6 +15,28 @@ import { refreshPotentialRows } from '../catalogue/potentialRows';
 import { centreLabelKey } from '../uploads/lookups';
 import { firstInFile, resolveCentreProtein } from '../uploads/rows';
 import { upsertReadModel, type KindOnServer } from './kind';
+import type { CofactorKind } from '$lib/schemas/vocabulary';
+import type { JsonColumn } from '../db/json';
+
+/** The kind's read-model table (see KindTables in db/schema.ts). */
+export interface CentreTable {
+	entry_id: number;
+	version: number;
+	protein_entry_id: number;
+	label: string;
+	cofactor_kind: CofactorKind;
+	ligation: string | null;
+	chain_id: string | null;
+	/** JSON array of residue numbers. */
+	residues: JsonColumn<number[]>;
+	revision: number;
+}
+
+declare module '../db/schema' {
+	interface KindTables {
+		centre: CentreTable;
+	}
+}
 
 export const centre: KindOnServer<'centre'> = {
 	async project(trx, { entryId, version, revision, data: d, refs }) {

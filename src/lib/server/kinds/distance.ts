@@ -19,6 +19,26 @@ import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { checkDuplicateKey, findCentre } from '../uploads/rows';
 import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
+import type { DistanceMethod } from '$lib/schemas/vocabulary';
+
+/** The kind's read-model table (see KindTables in db/schema.ts). */
+export interface DistanceTable {
+	entry_id: number;
+	version: number;
+	centre_a_entry_id: number;
+	centre_b_entry_id: number;
+	edge_to_edge_a: number;
+	centre_to_centre_a: number | null;
+	structure_id: string;
+	method: DistanceMethod;
+	source_entry_id: number | null;
+}
+
+declare module '../db/schema' {
+	interface KindTables {
+		distance: DistanceTable;
+	}
+}
 
 /** What makes two distances the same: the pair in either order, and the structure. */
 const distanceKey = (a: string, b: string, structure: string) =>

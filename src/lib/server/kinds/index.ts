@@ -1,5 +1,4 @@
-import type { EntryKind } from '$lib/schemas/vocabulary';
-import type { UploadKind } from '$lib/catalogue/uploadKinds';
+import type { EntryKind, UploadKind } from '$lib/kinds';
 import type { KindOnServer, ServerKindModule, UploadRules } from './kind';
 import { centre } from './centre';
 import { distance } from './distance';

@@ -1,7 +1,5 @@
 import type { Insertable, Kysely } from 'kysely';
-import type { EntryDataByKind } from '$lib/kinds';
-import type { UploadKind } from '$lib/catalogue/uploadKinds';
-import type { EntryKind } from '$lib/schemas/vocabulary';
+import type { EntryDataByKind, EntryKind, UploadKind } from '$lib/kinds';
 import type { Database } from '../db/schema';
 import type { Viewer } from '../catalogue/visibility';
 import type { UploadLookups } from '../uploads/lookups';

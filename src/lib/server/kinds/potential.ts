@@ -11,6 +11,47 @@ import { PAGE, paged, type CentreFact } from '../uploads/lookups';
 import { matchOption } from '../uploads/cells';
 import { findCentre, firstInFile } from '../uploads/rows';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
+import type { PotentialUnit } from '$lib/science/units';
+import type { ReferenceElectrode } from '$lib/science/referenceElectrodes';
+import type { PotentialMethod } from '$lib/schemas/vocabulary';
+
+/** The kind's read-model table (see KindTables in db/schema.ts). */
+export interface PotentialTable {
+	entry_id: number;
+	accession: string;
+	version: number;
+	centre_entry_id: number;
+	centre_accession: string;
+	centre_label: string;
+	cofactor_kind: CofactorKind;
+	protein_entry_id: number;
+	protein_accession: string;
+	protein_name: string;
+	organism: string;
+	couple: string;
+	em_mv_she: number;
+	reported_value: number;
+	reported_unit: PotentialUnit;
+	reference_electrode: ReferenceElectrode;
+	ph: number | null;
+	temperature_k: number | null;
+	ionic_strength_m: number | null;
+	buffer: string | null;
+	method: PotentialMethod;
+	n_electrons: number;
+	uncertainty_mv: number | null;
+	source_entry_id: number | null;
+	is_demo: number;
+	/** ISO 8601 time from which everyone may see the row; null while group-only. */
+	public_from: string | null;
+	group_id: number | null;
+}
+
+declare module '../db/schema' {
+	interface KindTables {
+		potential: PotentialTable;
+	}
+}
 
 /** An approved potential a row could repeat or contradict. */
 interface ApprovedPotential {

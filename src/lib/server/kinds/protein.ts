@@ -12,6 +12,25 @@ import { resolveTextQuery } from '../catalogue/textMatch';
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { refreshPotentialRows } from '../catalogue/potentialRows';
 import { upsertReadModel, type KindOnServer } from './kind';
+import type { JsonColumn } from '../db/json';
+
+/** The kind's read-model table (see KindTables in db/schema.ts). */
+export interface ProteinTable {
+	entry_id: number;
+	version: number;
+	name: string;
+	organism: string;
+	uniprot: string | null;
+	/** JSON array of structure identifiers. */
+	structure_ids: JsonColumn<string[]>;
+	revision: number;
+}
+
+declare module '../db/schema' {
+	interface KindTables {
+		protein: ProteinTable;
+	}
+}
 
 export const protein: KindOnServer<'protein'> = {
 	async project(trx, { entryId, version, revision, data: d }) {

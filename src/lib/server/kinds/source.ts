@@ -1,5 +1,27 @@
 import { readJson } from '../db/json';
 import { upsertReadModel, type KindOnServer } from './kind';
+import type { SourceKind } from '$lib/schemas/vocabulary';
+import type { JsonColumn } from '../db/json';
+
+/** The kind's read-model table (see KindTables in db/schema.ts). */
+export interface SourceTable {
+	entry_id: number;
+	version: number;
+	source_kind: SourceKind;
+	doi: string | null;
+	pubmed_id: string | null;
+	title: string;
+	/** JSON array of author names as "Family, Given". */
+	authors: JsonColumn<string[]>;
+	journal: string | null;
+	year: number | null;
+}
+
+declare module '../db/schema' {
+	interface KindTables {
+		source: SourceTable;
+	}
+}
 
 export const source: KindOnServer<'source'> = {
 	async project(trx, { entryId, version, data: d }) {

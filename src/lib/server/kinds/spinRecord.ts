@@ -20,6 +20,28 @@ import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { checkDuplicateKey, findCentre } from '../uploads/rows';
 import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
+import type { SpinMethod } from '$lib/schemas/vocabulary';
+import type { JsonColumn } from '../db/json';
+
+/** The kind's read-model table (see KindTables in db/schema.ts). */
+export interface SpinRecordTable {
+	entry_id: number;
+	version: number;
+	centre_entry_id: number;
+	oxidation_level: string;
+	spin_s: number;
+	/** JSON array of principal g-values, largest first. */
+	g_values: JsonColumn<number[]>;
+	temperature_k: number | null;
+	method: SpinMethod;
+	source_entry_id: number | null;
+}
+
+declare module '../db/schema' {
+	interface KindTables {
+		spin_record: SpinRecordTable;
+	}
+}
 
 /** What makes two spin records the same measurement. */
 const spinKey = (centre: string, level: string, method: string, t: number | null) =>

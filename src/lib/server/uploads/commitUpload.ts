@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
 import { setImmediate } from 'node:timers/promises';
 import { DomainError } from '$lib/domainError';
-import { UPLOAD_KIND_NOUNS } from '$lib/catalogue/uploadColumns';
+import { UPLOAD_KIND_NOUNS } from '$lib/kinds';
 import { storeWarnings, type VersionWarning } from '$lib/schemas/versionWarning';
 import type { SessionUser } from '../auth/roles';
 import { writeAudit } from '../audit/log';

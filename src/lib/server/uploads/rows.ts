@@ -1,5 +1,5 @@
 import { isAccession } from '$lib/schemas/accession';
-import type { UploadKind } from '$lib/catalogue/uploadColumns';
+import type { UploadKind } from '$lib/kinds';
 import { proteinSchema, type Protein } from '$lib/schemas/protein';
 import type { VersionWarningKind } from '$lib/schemas/versionWarning';
 import { centreLabelKey, type CentreFact, type UploadLookups } from './lookups';

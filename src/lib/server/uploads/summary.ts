@@ -1,13 +1,14 @@
-import { UPLOAD_COLUMNS } from '$lib/catalogue/uploadColumns';
-import { formatField } from '$lib/catalogue/fields';
+import { KINDS, formatKindField, type KindUpload } from '$lib/kinds';
 import type { UploadCheck } from './checkUpload';
 
 /** What a page shows of a check: counts, the first issues, and a preview of what would be created. */
 export function summariseCheck(check: UploadCheck, limits: { issues: number; preview: number }) {
-	const fields = UPLOAD_COLUMNS[check.kind]
+	const upload: KindUpload = KINDS[check.kind].upload;
+	const derived = (n: string) => upload.derivedFields?.[n] ?? [];
+	const fields = upload.columns
 		.map((c) => c.name)
-		.filter((n) => check.entries.some((e) => (e.entry.data as Record<string, unknown>)[n] != null));
-	if (check.kind === 'potential') fields.splice(fields.indexOf('reportedValue') + 1, 0, 'emMvShe');
+		.filter((n) => check.entries.some((e) => (e.entry.data as Record<string, unknown>)[n] != null))
+		.flatMap((n) => [n, ...derived(n)]);
 	return {
 		kind: check.kind,
 		sha256: check.sha256,
@@ -26,7 +27,9 @@ export function summariseCheck(check: UploadCheck, limits: { issues: number; pre
 			rows: check.entries.slice(0, limits.preview).map((e) => ({
 				row: e.row,
 				warnings: e.warnings.length,
-				cells: fields.map((f) => formatField(f, (e.entry.data as Record<string, unknown>)[f]))
+				cells: fields.map((f) =>
+					formatKindField(check.kind, f, (e.entry.data as Record<string, unknown>)[f])
+				)
 			}))
 		}
 	};

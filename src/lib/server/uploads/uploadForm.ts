@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { UPLOAD_KINDS, type UploadKind } from '$lib/catalogue/uploadColumns';
+import { UPLOAD_KINDS, type UploadKind } from '$lib/kinds';
 import { addFieldErrors, fieldErrors } from '$lib/schemas/fieldErrors';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import {

@@ -1,6 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { UPLOAD_KINDS, headerNames } from '$lib/catalogue/uploadColumns';
-import type { HeaderNames, UploadKind } from '$lib/catalogue/uploadKinds';
+import { headerNames } from '$lib/catalogue/uploadColumns';
+import type { HeaderNames } from '$lib/catalogue/headerMatch';
+import { UPLOAD_KINDS, UPLOAD_KIND_LABELS, UPLOAD_KIND_NOUNS, type UploadKind } from '$lib/kinds';
 import { requireRole } from '$lib/server/auth/guards';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
@@ -17,7 +18,10 @@ import type { Actions, PageServerLoad, RequestEvent } from './$types';
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'contributor');
 	return {
+		// Names and headers as page data, so that the kinds' schemas do not ship to the browser.
 		kinds: UPLOAD_KINDS,
+		labels: UPLOAD_KIND_LABELS,
+		nouns: UPLOAD_KIND_NOUNS,
 		headerNames: Object.fromEntries(UPLOAD_KINDS.map((k) => [k, headerNames(k)])) as Record<
 			UploadKind,
 			HeaderNames[]

@@ -1,5 +1,6 @@
 import { error } from '@sveltejs/kit';
-import { UPLOAD_KINDS, templateCsv, type UploadKind } from '$lib/catalogue/uploadColumns';
+import { templateCsv } from '$lib/catalogue/uploadColumns';
+import { UPLOAD_KINDS, type UploadKind } from '$lib/kinds';
 import type { RequestHandler } from './$types';
 
 /** GET /csv/templates/{kind}.csv — the header of an upload and one invented example row. */

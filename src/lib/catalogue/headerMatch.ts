@@ -1,24 +1,5 @@
-// The kinds of CSV upload and how headers are matched to columns: what the upload page needs in
-// the browser. The columns themselves (uploadColumns.ts) come from the kinds' schemas and reach
-// the browser as page data.
-
-export const UPLOAD_KINDS = ['potential', 'spin_record', 'distance', 'centre'] as const;
-export type UploadKind = (typeof UPLOAD_KINDS)[number];
-
-export const UPLOAD_KIND_LABELS: Record<UploadKind, string> = {
-	potential: 'Potentials',
-	spin_record: 'Spin records',
-	distance: 'Distances',
-	centre: 'Centres and proteins'
-};
-
-/** What one row of each kind of file is, in the plural, for titles and counts. */
-export const UPLOAD_KIND_NOUNS: Record<UploadKind, string> = {
-	potential: 'potentials',
-	spin_record: 'spin records',
-	distance: 'distances',
-	centre: 'centres'
-};
+// How the headers people write are matched to a CSV upload's columns: in the browser, as a
+// file is chosen, and on the server, as it is checked.
 
 /** What a header is matched against: the column's name, label and aliases. */
 export interface HeaderNames {
