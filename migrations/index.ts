@@ -6,6 +6,7 @@ import * as m0004 from './0004_add_session_revocation';
 import * as m0005 from './0005_create_backup_log';
 import * as m0006 from './0006_structure_version_warnings';
 import * as m0007 from './0007_recompute_potential_groups';
+import * as m0008 from './0008_create_entry_kinds';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -19,5 +20,6 @@ export const migrations: Record<string, Migration> = {
 	'0004_add_session_revocation': m0004,
 	'0005_create_backup_log': m0005,
 	'0006_structure_version_warnings': m0006,
-	'0007_recompute_potential_groups': m0007
+	'0007_recompute_potential_groups': m0007,
+	'0008_create_entry_kinds': m0008
 };

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import '../support/fast-check';
 import { launchChromium, signedInPage } from '../support/browser';
 import { signInCookie } from '../support/session';
+import { UPLOAD_KINDS } from '$lib/kinds';
 
 // The CSV story in Chromium: three errors, the report, the fix, a dry run, the commit, the
 // curator's approval, and the values in search. Plus limits and templates over HTTP.
@@ -168,7 +169,9 @@ describe('limits, templates and the column reference', () => {
 			'contributor@demo.hopline.test',
 			'demo-contributor-pass'
 		);
-		for (const kind of ['potential', 'spin_record', 'distance', 'centre']) {
+		// Every upload kind, a new one included (the table of kinds is the one list of them).
+		expect(UPLOAD_KINDS.length).toBeGreaterThanOrEqual(4);
+		for (const kind of UPLOAD_KINDS) {
 			const res = await fetch(`${base}/csv/templates/${kind}.csv`);
 			expect(res.headers.get('content-type')).toContain('text/csv');
 			const form = new FormData();

@@ -67,9 +67,14 @@ export function fieldLabel(kind: EntryKind, field: string): string {
 	return formField(kind, field)?.label ?? FIELD_LABELS[field] ?? field;
 }
 
-/** A field of a kind's data as text, with the unit its form gives it where none is known. */
+/**
+ * A field of a kind's data as text: a choice by the label its form gives it, and a number the
+ * shared formatter does not know with the unit its form gives it.
+ */
 export function formatKindField(kind: EntryKind, field: string, value: unknown): string {
-	return formatField(field, value, formField(kind, field)?.unit);
+	const form = formField(kind, field);
+	const option = form?.options?.find((o) => o.value === value);
+	return option ? option.label : formatField(field, value, form?.unit);
 }
 
 /** What one version of an entry of kind K stores. */

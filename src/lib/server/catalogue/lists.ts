@@ -1,7 +1,8 @@
-import type { Kysely } from 'kysely';
+import type { Kysely, SelectQueryBuilder } from 'kysely';
 import type { Page } from '$lib/catalogue/dto';
 import { encodeCursor } from '$lib/schemas/pagination';
 import type { Database } from '../db/schema';
+import type { SourceRefColumns } from './mappers';
 import { entryIsVisible, type Viewer } from './visibility';
 
 /*
@@ -30,4 +31,35 @@ export async function listOrganisms(
 		.orderBy('pr.organism')
 		.execute();
 	return rows.map((r) => r.organism);
+}
+
+/**
+ * Adds a listed row's source as the columns `toSourceRef` reads: null where there is none, and
+ * null too where the reader may not see it (its DOI and authors would leak). `sourceEntryId` is
+ * the row's `source_entry_id` column, qualified by its table's alias.
+ */
+export function withVisibleSource<DB, TB extends keyof DB, O>(
+	query: SelectQueryBuilder<DB, TB, O>,
+	sourceEntryId: `${string}.source_entry_id`,
+	viewer: Viewer | null
+): SelectQueryBuilder<DB, TB, O & SourceRefColumns> {
+	// Kysely cannot follow joins added to a query of any tables; the result is typed above.
+	const q = query as unknown as SelectQueryBuilder<
+		Database & { listed: Database['potential'] },
+		'listed',
+		O
+	>;
+	return q
+		.leftJoin('entry as se', (join) =>
+			join
+				.onRef('se.id', '=', sourceEntryId as 'listed.source_entry_id')
+				.on((eb) => entryIsVisible(eb, 'se', viewer))
+		)
+		.leftJoin('source as s', 's.entry_id', 'se.id')
+		.select([
+			'se.accession as source_accession',
+			's.doi as source_doi',
+			's.year as source_year',
+			's.authors as source_authors'
+		]) as unknown as SelectQueryBuilder<DB, TB, O & SourceRefColumns>;
 }

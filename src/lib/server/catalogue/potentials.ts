@@ -3,16 +3,12 @@ import type { Page, PotentialDto } from '$lib/catalogue/dto';
 import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
 import { encodeCursor } from '$lib/schemas/pagination';
 import type { Database } from '../db/schema';
+import { withVisibleSource } from './lists';
 import { toPotentialDto } from './mappers';
 import { accessionNumber } from '$lib/schemas/accession';
 import { potentialIndex } from '../search/potentialIndex';
 import { resolveTextQuery } from './textMatch';
-import {
-	entryIsVisible,
-	potentialIsVisible,
-	potentialRowVisibility,
-	type Viewer
-} from './visibility';
+import { potentialIsVisible, potentialRowVisibility, type Viewer } from './visibility';
 
 export interface ListOptions<S extends string> {
 	sort?: S;
@@ -63,13 +59,7 @@ export async function listPotentials(
 			? []
 			: await db
 					.selectFrom('potential as p')
-					.leftJoin('entry as se', (join) =>
-						// A source the reader may not see is left out: its DOI and authors would leak.
-						join
-							.onRef('se.id', '=', 'p.source_entry_id')
-							.on((eb) => entryIsVisible(eb, 'se', viewer))
-					)
-					.leftJoin('source as s', 's.entry_id', 'se.id')
+					.$call((q) => withVisibleSource(q, 'p.source_entry_id', viewer))
 					.select([
 						'p.entry_id',
 						'p.accession',
@@ -92,11 +82,7 @@ export async function listPotentials(
 						'p.cofactor_kind',
 						'p.protein_accession',
 						'p.protein_name',
-						'p.organism',
-						'se.accession as source_accession',
-						's.doi as source_doi',
-						's.year as source_year',
-						's.authors as source_authors'
+						'p.organism'
 					])
 					.where('p.entry_id', 'in', page)
 					// The index already applied visibility; the rule is applied again where rows leave the database.

@@ -24,6 +24,7 @@ export interface Database extends KindTables {
 	revoked_session: RevokedSessionTable;
 	research_group: ResearchGroupTable;
 	group_member: GroupMemberTable;
+	entry_kind: EntryKindTable;
 	entry: EntryTable;
 	entry_version: EntryVersionTable;
 	submission: SubmissionTable;
@@ -129,6 +130,11 @@ export interface GroupMemberTable {
 	user_id: string;
 	is_manager: Generated<number>;
 	joined_at: Generated<string>;
+}
+
+/** The kinds of entry (migration 0008): each kind's migration inserts its row. */
+export interface EntryKindTable {
+	id: EntryKind;
 }
 
 export interface EntryTable {

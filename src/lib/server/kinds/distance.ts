@@ -4,7 +4,7 @@ import type { DistanceApiQuery } from '$lib/schemas/catalogueQuery';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 
 import type { Database, Row } from '../db/schema';
-import { pageOf } from '../catalogue/lists';
+import { pageOf, withVisibleSource } from '../catalogue/lists';
 import {
 	toCentreRef,
 	toProteinRef,
@@ -220,11 +220,7 @@ export async function listDistances(
 		options.sort ?? 'accession'
 	];
 	const rows = await query
-		.leftJoin('entry as se', (join) =>
-			// A source the reader may not see is left out: its DOI and authors would leak.
-			join.onRef('se.id', '=', 'd.source_entry_id').on((eb) => entryIsVisible(eb, 'se', viewer))
-		)
-		.leftJoin('source as s', 's.entry_id', 'se.id')
+		.$call((q) => withVisibleSource(q, 'd.source_entry_id', viewer))
 		.select([
 			'e.accession',
 			'd.version',
@@ -241,11 +237,7 @@ export async function listDistances(
 			'b.cofactor_kind as b_kind',
 			'pe.accession as protein_accession',
 			'pr.name as protein_name',
-			'pr.organism',
-			'se.accession as source_accession',
-			's.doi as source_doi',
-			's.year as source_year',
-			's.authors as source_authors'
+			'pr.organism'
 		])
 		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
 		.orderBy('d.entry_id')

@@ -4,7 +4,7 @@ import type { SpinRecordApiQuery } from '$lib/schemas/catalogueQuery';
 
 import { readJson } from '../db/json';
 import type { Database, Row } from '../db/schema';
-import { pageOf } from '../catalogue/lists';
+import { pageOf, withVisibleSource } from '../catalogue/lists';
 import {
 	toCentreRef,
 	toProteinRef,
@@ -190,11 +190,7 @@ export async function listSpinRecords(
 		temperature: 'r.temperature_k'
 	}[options.sort ?? 'accession'];
 	const rows = await query
-		.leftJoin('entry as se', (join) =>
-			// A source the reader may not see is left out: its DOI and authors would leak.
-			join.onRef('se.id', '=', 'r.source_entry_id').on((eb) => entryIsVisible(eb, 'se', viewer))
-		)
-		.leftJoin('source as s', 's.entry_id', 'se.id')
+		.$call((q) => withVisibleSource(q, 'r.source_entry_id', viewer))
 		.select([
 			'e.accession',
 			'r.version',
@@ -209,11 +205,7 @@ export async function listSpinRecords(
 			'c.cofactor_kind',
 			'pe.accession as protein_accession',
 			'pr.name as protein_name',
-			'pr.organism',
-			'se.accession as source_accession',
-			's.doi as source_doi',
-			's.year as source_year',
-			's.authors as source_authors'
+			'pr.organism'
 		])
 		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
 		.orderBy('r.entry_id')

@@ -4,11 +4,11 @@ import type { UploadCheck } from './checkUpload';
 /** What a page shows of a check: counts, the first issues, and a preview of what would be created. */
 export function summariseCheck(check: UploadCheck, limits: { issues: number; preview: number }) {
 	const upload: KindUpload = KINDS[check.kind].upload;
-	const derived = (n: string) => upload.derivedFields?.[n] ?? [];
+	const derived = (n: string) => upload.derivedFields?.[n] ?? null;
 	const fields = upload.columns
 		.map((c) => c.name)
 		.filter((n) => check.entries.some((e) => (e.entry.data as Record<string, unknown>)[n] != null))
-		.flatMap((n) => [n, ...derived(n)]);
+		.flatMap((n) => (derived(n) ? [n, derived(n) as string] : [n]));
 	return {
 		kind: check.kind,
 		sha256: check.sha256,
