@@ -70,6 +70,17 @@ describe('pages answer domain failures with their own wording', () => {
 		expect(await res.text()).toContain('no submission 999998 of yours');
 	});
 
+	it('a new entry of a kind that does not exist: 404 naming the kinds, for the page and its actions', async () => {
+		const res = await page('/submissions/new/potentials', contributor);
+		expect(res.status).toBe(404);
+		expect(await res.text()).toContain('no kind of entry "potentials"; expected one of protein');
+		const posted = await action('/submissions/new/potentials?/save', contributor, { note: 'x' });
+		expect(posted).toMatchObject({
+			type: 'error',
+			error: { message: expect.stringContaining('no kind of entry "potentials"') }
+		});
+	});
+
 	it('an unknown submission in review: 404', async () => {
 		const res = await page('/review/999998', curator);
 		expect(res.status).toBe(404);

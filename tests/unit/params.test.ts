@@ -20,8 +20,9 @@ const MATCHERS: Record<string, { match: (param: string) => boolean; yes: string[
 		},
 		kind: {
 			match: kind,
-			yes: ['potential', 'spin_record', 'distance', 'centre', 'protein', 'source'],
-			no: ['spin-record', 'Potential', 'potentials', '']
+			// The shape only: the route answers 404 for a well-formed name that is no kind.
+			yes: ['potential', 'spin_record', 'distance', 'centre', 'protein', 'source', 'potentials'],
+			no: ['spin-record', 'Potential', '_potential', 'x'.repeat(41), '']
 		},
 		version: {
 			match: version,

@@ -26,6 +26,8 @@ export type EntryKind = keyof typeof KINDS;
 
 export const ENTRY_KINDS = Object.keys(KINDS) as [EntryKind, ...EntryKind[]];
 
+export const isEntryKind = (value: string): value is EntryKind => Object.hasOwn(KINDS, value);
+
 export const ENTRY_KIND_LABELS = Object.fromEntries(
 	ENTRY_KINDS.map((kind) => [kind, KINDS[kind].label])
 ) as Record<EntryKind, string>;

@@ -1,5 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { KINDS } from '$lib/kinds';
+import { ENTRY_KINDS, KINDS, isEntryKind, type EntryKind } from '$lib/kinds';
 import { isAccession } from '$lib/schemas/accession';
 import { requireRole } from '$lib/server/auth/guards';
 import { config } from '$lib/server/config';
@@ -12,9 +12,18 @@ import { fillFromDoi } from '$lib/server/http/doiLookup';
 import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad } from './$types';
 
+/** The kind the path names (the route's matcher checks only its shape). */
+function kindOf(param: string): EntryKind {
+	if (!isEntryKind(param))
+		error(404, {
+			message: `no kind of entry "${param}"; expected one of ${ENTRY_KINDS.join(', ')}`
+		});
+	return param;
+}
+
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'contributor');
-	const kind = event.params.kind;
+	const kind = kindOf(event.params.kind);
 	const edit = event.url.searchParams.get('edit');
 	let values: Record<string, string> = {};
 	if (edit !== null) {
@@ -36,7 +45,7 @@ export const load: PageServerLoad = async (event) => {
 /** Both actions create the draft; `submit` also sends it to the curators in the same transaction. */
 async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean) {
 	const user = requireRole(event, 'contributor');
-	const form = readSubmissionForm(event.params.kind, await event.request.formData());
+	const form = readSubmissionForm(kindOf(event.params.kind), await event.request.formData());
 	if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
 	const edit = event.url.searchParams.get('edit');
 	let result;
