@@ -101,21 +101,53 @@ export interface VersionSummary {
 	changeNote: string | null;
 }
 
-/** One entry at one version, as the permalink page and the API show it. */
-export interface EntryView {
+/**
+ * An entry a version names, pinned to the version of it that was approved when the naming
+ * version was (entry_version_reference, migration 0009).
+ */
+export interface PinnedReference {
 	accession: string;
 	kind: EntryKind;
-	visibility: Visibility;
+	/** The referenced entry's version this version was approved against. */
+	version: number;
+	/** The title of that version, from its data and its own pinned references. */
+	title: string;
+}
+
+/**
+ * One approved version as it was approved: none of this changes after approval, whatever is
+ * approved later (a reference the reader may not see is left out: its field reads null).
+ */
+export interface FrozenVersion {
+	accession: string;
+	kind: EntryKind;
 	isDemo: boolean;
 	version: number;
-	latestVersion: number;
 	approvedAt: string;
 	changeNote: string | null;
 	data: Record<string, unknown>;
-	versions: VersionSummary[];
-	/** Names of the entries this version refers to, so pages can show links with labels. */
-	references: Record<string, { accession: string; kind: EntryKind; title: string }>;
+	/** The entries this version names, by field, at their pinned versions. */
+	references: Record<string, PinnedReference>;
+	/** From the version's own data and its pinned references, never from later versions. */
 	title: string;
+}
+
+/** What is true of an entry now rather than of one version: it changes with later approvals. */
+export interface EntryLiveState {
+	latestVersion: number;
+	/** The newest approved versions (at most VERSIONS_LISTED), oldest first. */
+	versions: VersionSummary[];
+	visibility: Visibility;
+	/**
+	 * For references whose entry has a newer approved version than the pinned one: that
+	 * entry's latest version, by field.
+	 */
+	newerReferences: Record<string, number>;
+}
+
+/** One entry at one version, as the permalink page shows it: the frozen version, and now. */
+export interface EntryView extends FrozenVersion {
+	live: EntryLiveState;
 }
 
 export interface FacetCount {

@@ -191,7 +191,7 @@ export async function approveVersion(
 		})
 		.where('id', '=', versionId)
 		.execute();
-	await projectApprovedVersion(trx, row.entry_id, version, entryData);
+	await projectApprovedVersion(trx, { versionId, entryId: row.entry_id, version }, entryData);
 	await writeAudit(trx, {
 		actorId: options.approvedBy ?? null,
 		action: 'version.approve',

@@ -6,28 +6,66 @@ import { serverKind } from '../kinds';
 import { bumpCatalogueRevision } from '../db/revision';
 import { resolveReference } from './references';
 
+/** The approved version being projected: its row and its number. */
+export interface ApprovedVersionId {
+	versionId: number;
+	entryId: number;
+	version: number;
+}
+
+/** The latest approved version of an entry, as the approving transaction sees it. */
+async function latestApproved(trx: Kysely<Database>, entryId: number): Promise<number> {
+	const row = await trx
+		.selectFrom('entry_version')
+		.select((eb) => eb.fn.max('version').as('latest'))
+		.where('entry_id', '=', entryId)
+		.where('status', '=', 'approved')
+		.executeTakeFirstOrThrow();
+	// resolveReference has just found an approved version of this entry.
+	return row.latest as number;
+}
+
 /**
- * Writes the read model (typed columns) for the newly approved version of one entry, and
- * marks what the search index must refresh. Runs inside the approving transaction.
+ * Writes the read model (typed columns) for the newly approved version of one entry, pins the
+ * exact version each of its references resolved to (entry_version_reference, migration 0009:
+ * the version's title and citation are built from those pinned versions, forever), and marks
+ * what the search index must refresh. Runs inside the approving transaction.
  * @throws {InvalidEntryDataError} when a reference does not resolve or does not fit.
  */
 export async function projectApprovedVersion(
 	trx: Kysely<Database>,
-	entryId: number,
-	version: number,
+	approved: ApprovedVersionId,
 	entry: EntryData
 ): Promise<void> {
 	const revision = await bumpCatalogueRevision(trx);
 	const data = entry.data as unknown as Record<string, unknown>;
 	const refs: Record<string, number | null> = {};
+	const pins: { field: string; entryId: number; version: number }[] = [];
 	for (const [field, kind] of Object.entries(referencesOf(entry.kind))) {
 		const accession = data[field];
-		refs[field] =
-			typeof accession === 'string' ? await resolveReference(trx, field, accession, kind) : null;
+		if (typeof accession !== 'string') {
+			refs[field] = null;
+			continue;
+		}
+		const entryId = await resolveReference(trx, field, accession, kind);
+		refs[field] = entryId;
+		pins.push({ field, entryId, version: await latestApproved(trx, entryId) });
 	}
+	if (pins.length > 0)
+		await trx
+			.insertInto('entry_version_reference')
+			.values(
+				pins.map((p) => ({
+					entry_version_id: approved.versionId,
+					field: p.field,
+					referenced_entry_id: p.entryId,
+					referenced_version: p.version
+				}))
+			)
+			.execute();
 	await serverKind(entry.kind).project(trx, {
-		entryId,
-		version,
+		entryId: approved.entryId,
+		version: approved.version,
 		revision,
 		data: entry.data,
 		refs

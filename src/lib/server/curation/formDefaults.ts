@@ -37,7 +37,7 @@ export async function valuesForEditing(
 		.executeTakeFirstOrThrow();
 	return {
 		...entryFormValues(kind, view.data),
-		visibility: view.visibility,
+		visibility: view.live.visibility,
 		groupId: entry.group_id === null ? '' : String(entry.group_id),
 		embargoUntil: day(entry.embargo_until)
 	};

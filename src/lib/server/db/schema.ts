@@ -27,6 +27,7 @@ export interface Database extends KindTables {
 	entry_kind: EntryKindTable;
 	entry: EntryTable;
 	entry_version: EntryVersionTable;
+	entry_version_reference: EntryVersionReferenceTable;
 	submission: SubmissionTable;
 	review: ReviewTable;
 	submission_comment: SubmissionCommentTable;
@@ -174,6 +175,18 @@ export interface EntryVersionTable {
 	 */
 	row_number: number | null;
 	warnings: string | null;
+}
+
+/**
+ * The exact version each reference field of an approved version resolved to when it was
+ * approved (migration 0009; written by catalogue/projection.ts, never changed or deleted).
+ */
+export interface EntryVersionReferenceTable {
+	entry_version_id: number;
+	/** The reference field of the kind (src/lib/kinds), e.g. `proteinAccession`. */
+	field: string;
+	referenced_entry_id: number;
+	referenced_version: number;
 }
 
 export interface SubmissionTable {

@@ -60,16 +60,11 @@ export const centre: KindOnServer<'centre'> = {
 			.executeTakeFirst();
 		return c ? [{ id: c.protein_entry_id, kind: 'protein' }] : [];
 	},
-	async title(db, entryId) {
-		const c = await db
-			.selectFrom('centre')
-			.innerJoin('protein', 'protein.entry_id', 'centre.protein_entry_id')
-			.select(['centre.label', 'centre.cofactor_kind', 'protein.name'])
-			.where('centre.entry_id', '=', entryId)
-			.executeTakeFirst();
-		if (!c) return 'Centre';
-		const kindLabel = COFACTOR_KIND_LABELS[c.cofactor_kind];
-		return `${c.label} (${kindLabel}) · ${c.name}`;
+	title(d, refs) {
+		const kindLabel = COFACTOR_KIND_LABELS[d.cofactorKind];
+		return refs.proteinAccession
+			? `${d.label} (${kindLabel}) · ${refs.proteinAccession.name}`
+			: `${d.label} (${kindLabel})`;
 	},
 	potentialRowsColumn: 'centre_entry_id',
 	upload: {

@@ -70,16 +70,8 @@ export const distance: KindOnServer<'distance'> = {
 				]
 			: [];
 	},
-	async title(db, entryId) {
-		const d = await db
-			.selectFrom('distance')
-			.innerJoin('centre as a', 'a.entry_id', 'distance.centre_a_entry_id')
-			.innerJoin('centre as b', 'b.entry_id', 'distance.centre_b_entry_id')
-			.select(['a.label as a', 'b.label as b'])
-			.where('distance.entry_id', '=', entryId)
-			.executeTakeFirst();
-		return d ? `Distance ${d.a} – ${d.b}` : 'Distance';
-	},
+	title: (_d, refs) =>
+		`Distance ${refs.centreAAccession?.label ?? 'centre'} – ${refs.centreBAccession?.label ?? 'centre'}`,
 	potentialRowsColumn: null,
 	upload: defineUpload({
 		async loadExisting(db, viewer, shared) {

@@ -26,6 +26,19 @@ export function serverKind(kind: EntryKind): ServerKindModule<EntryKind> {
 	return SERVER_KINDS[kind] as unknown as ServerKindModule<EntryKind>;
 }
 
+/**
+ * The title of one version of an entry of `kind` (see ServerKindModule.title): `refs` holds the
+ * data of the versions its reference fields are pinned to, by field.
+ */
+export function versionTitle(
+	kind: EntryKind,
+	data: Record<string, unknown>,
+	refs: Readonly<Record<string, Record<string, unknown>>>
+): string {
+	// As in serverKind: data and pinned references were stored for this kind and its fields.
+	return serverKind(kind).title(data as never, refs as never);
+}
+
 /** The CSV rules of an upload kind. */
 export function uploadRules(kind: UploadKind): UploadRules<EntryKind> {
 	// As in serverKind: the rules are the kind's own.
@@ -35,6 +48,7 @@ export function uploadRules(kind: UploadKind): UploadRules<EntryKind> {
 export type {
 	ApprovedVersion,
 	Dependency,
+	PinnedData,
 	PotentialRowsColumn,
 	ServerKindModule,
 	UploadRules

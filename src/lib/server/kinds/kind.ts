@@ -1,5 +1,5 @@
 import type { Insertable, Kysely } from 'kysely';
-import type { EntryDataByKind, EntryKind, UploadKind } from '$lib/kinds';
+import type { EntryDataByKind, EntryKind, KINDS, UploadKind } from '$lib/kinds';
 import type { Database } from '../db/schema';
 import type { Viewer } from '../catalogue/visibility';
 import type { UploadLookups } from '../uploads/lookups';
@@ -19,6 +19,17 @@ export interface ApprovedVersion<K extends EntryKind> {
 	/** Entry id of each reference field of the kind (src/lib/kinds); null where left blank. */
 	refs: Record<string, number | null>;
 }
+
+/** The reference fields of kind K, each with the kind it names. */
+type ReferencesOf<K extends EntryKind> = (typeof KINDS)[K]['references'];
+
+/**
+ * The data of the versions a version's references are pinned to (entry_version_reference), by
+ * reference field. A field left blank, or naming an entry the reader may not see, is absent.
+ */
+export type PinnedData<K extends EntryKind> = {
+	readonly [F in keyof ReferencesOf<K>]?: EntryDataByKind[ReferencesOf<K>[F] & EntryKind];
+};
 
 /** An entry another one depends on. */
 export interface Dependency {
@@ -72,8 +83,11 @@ export interface ServerKindModule<K extends EntryKind> {
 	project(trx: Kysely<Database>, approved: ApprovedVersion<K>): Promise<void>;
 	/** The entries a reader must be able to see to see this one, one step away. */
 	dependsOn(db: Kysely<Database>, entryId: number): Promise<Dependency[]>;
-	/** A short human title, from the latest read-model row. */
-	title(db: Kysely<Database>, entryId: number): Promise<string>;
+	/**
+	 * A short human title of one version, from its own data and the versions its references
+	 * are pinned to — never from the read model, so that a version's title never changes.
+	 */
+	title(data: EntryDataByKind[K], refs: PinnedData<K>): string;
 	/** The potential rows that copy this entry's columns or visibility, if any. */
 	potentialRowsColumn: PotentialRowsColumn | null;
 	/**

@@ -121,15 +121,10 @@ export const potential: KindOnServer<'potential'> = {
 			.executeTakeFirst();
 		return p ? [{ id: p.centre_entry_id, kind: 'centre' }] : [];
 	},
-	async title(db, entryId) {
-		const p = await db
-			.selectFrom('potential')
-			.innerJoin('centre', 'centre.entry_id', 'potential.centre_entry_id')
-			.select(['potential.couple', 'centre.label'])
-			.where('potential.entry_id', '=', entryId)
-			.executeTakeFirst();
-		return p ? `Em of ${p.couple}, centre ${p.label}` : 'Potential';
-	},
+	title: (d, refs) =>
+		refs.centreAccession
+			? `Em of ${d.couple}, centre ${refs.centreAccession.label}`
+			: `Em of ${d.couple}`,
 	potentialRowsColumn: 'entry_id',
 	async checkReferences(db, data, refs) {
 		if (refs.centreAccession !== undefined)

@@ -51,14 +51,7 @@ export const protein: KindOnServer<'protein'> = {
 		await refreshPotentialRows(trx, { column: 'protein_entry_id', entryId });
 	},
 	dependsOn: async () => [],
-	async title(db: Kysely<Database>, entryId) {
-		const p = await db
-			.selectFrom('protein')
-			.select('name')
-			.where('entry_id', '=', entryId)
-			.executeTakeFirst();
-		return p?.name ?? 'Protein';
-	},
+	title: (d) => d.name,
 	potentialRowsColumn: 'protein_entry_id'
 };
 

@@ -1,4 +1,3 @@
-import { readJson } from '../db/json';
 import { upsertReadModel, type KindOnServer } from './kind';
 import type { SourceKind } from '$lib/schemas/vocabulary';
 import type { JsonColumn } from '../db/json';
@@ -38,16 +37,9 @@ export const source: KindOnServer<'source'> = {
 	},
 	// A source the reader may not see is left out where it is named; it hides nothing else.
 	dependsOn: async () => [],
-	async title(db, entryId) {
-		const s = await db
-			.selectFrom('source')
-			.select(['authors', 'year', 'title'])
-			.where('entry_id', '=', entryId)
-			.executeTakeFirst();
-		if (!s) return 'Source';
-		const authors = readJson(s.authors);
-		const first = (authors[0] ?? '').split(',')[0];
-		return `${first}${authors.length > 1 ? ' et al.' : ''}${s.year ? ` (${s.year})` : ''}: ${s.title}`;
+	title(d) {
+		const first = (d.authors[0] ?? '').split(',')[0];
+		return `${first}${d.authors.length > 1 ? ' et al.' : ''}${d.year ? ` (${d.year})` : ''}: ${d.title}`;
 	},
 	potentialRowsColumn: null
 };

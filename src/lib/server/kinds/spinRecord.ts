@@ -69,15 +69,10 @@ export const spinRecord: KindOnServer<'spin_record'> = {
 			.executeTakeFirst();
 		return r ? [{ id: r.centre_entry_id, kind: 'centre' }] : [];
 	},
-	async title(db, entryId) {
-		const r = await db
-			.selectFrom('spin_record')
-			.innerJoin('centre', 'centre.entry_id', 'spin_record.centre_entry_id')
-			.select(['spin_record.oxidation_level', 'centre.label'])
-			.where('spin_record.entry_id', '=', entryId)
-			.executeTakeFirst();
-		return r ? `Spin state of ${r.oxidation_level}, centre ${r.label}` : 'Spin record';
-	},
+	title: (d, refs) =>
+		refs.centreAccession
+			? `Spin state of ${d.oxidationLevel}, centre ${refs.centreAccession.label}`
+			: `Spin state of ${d.oxidationLevel}`,
 	potentialRowsColumn: null,
 	upload: defineUpload({
 		async loadExisting(db, viewer, shared) {
