@@ -8,7 +8,7 @@ import { ENTRY_KINDS } from '$lib/kinds';
 import { openDatabase } from '$lib/server/db/connect';
 import { migrateToLatest } from '$lib/server/db/migrate';
 import type { Database } from '$lib/server/db/schema';
-import { loadDemoScenario } from '$seed/load';
+import { loadDemoScenarioBeforePins } from '../support/demoBeforePins';
 
 /*
  * Migration 0008 moves the kinds of entry from a CHECK on `entry.kind` into the table
@@ -44,7 +44,7 @@ beforeAll(async () => {
 		'0007_recompute_potential_groups'
 	);
 	if (error) throw error;
-	await loadDemoScenario(db);
+	await loadDemoScenarioBeforePins(db);
 	// An allocation rolled back leaves the counter above the highest id: it must stay there.
 	await sql`update sqlite_sequence set seq = seq + 5 where name = 'entry'`.execute(db);
 	before = await entries();

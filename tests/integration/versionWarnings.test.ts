@@ -17,8 +17,8 @@ import type { Database } from '$lib/server/db/schema';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { commitUpload } from '$lib/server/uploads/commitUpload';
 import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
-import { loadDemoScenario } from '$seed/load';
 import { insertSessionUser } from '../support/users';
+import { loadDemoScenarioBeforePins } from '../support/demoBeforePins';
 
 /**
  * Version warnings are stored as structured JSON and counted by kind. Migration 0006 turns the
@@ -60,7 +60,7 @@ beforeAll(async () => {
 	db = openDatabase(join(dir, 'test.sqlite'));
 	const { error } = await new Migrator({ db, provider }).migrateTo('0005_create_backup_log');
 	if (error) throw error;
-	await loadDemoScenario(db);
+	await loadDemoScenarioBeforePins(db);
 	contributor = await insertSessionUser(db, 'contributor', 'c@lab.test');
 
 	// A CSV batch committed before 0006: one submission, rows with old-style warnings.
