@@ -41,6 +41,7 @@ export interface Database extends KindTables {
 	api_token: ApiTokenTable;
 	catalogue_state: CatalogueStateTable;
 	backup_log: BackupLogTable;
+	version_credit: VersionCreditTable;
 }
 
 export type { Role } from '$lib/roles';
@@ -71,6 +72,8 @@ export interface UserTable {
 	lastDigestAt: string | null;
 	/** Raised to end every session of the user; each session cookie carries the one it began under. */
 	sessionGeneration: Generated<number>;
+	/** The person's ORCID iD (canonical hyphenated form), named in citations (migration 0010). */
+	orcid: string | null;
 }
 
 /** A signed-out session, refused until its cookie would have expired anyway. */
@@ -305,6 +308,21 @@ export interface BackupLogTable {
 	row_count: number;
 	last_migration: string | null;
 	seconds: number;
+}
+
+/**
+ * A person an approved version's citation names, copied at approval with the name and ORCID iD
+ * they had then (migration 0010; written by catalogue/credit.ts, never changed).
+ */
+export interface VersionCreditTable {
+	entry_version_id: number;
+	/** Contributors of the versions up to this one are authors; the approving curator, editor. */
+	role: 'author' | 'editor';
+	/** Order within the role, from 0 (authors in the order they first contributed). */
+	position: number;
+	user_id: string | null;
+	name: string;
+	orcid: string | null;
 }
 
 export type EntryRow = Selectable<EntryTable>;
