@@ -86,6 +86,7 @@ export const CITATION_FILES = {
 } as const satisfies Record<string, { format: CitationFormat; mediaType: string; label: string }>;
 
 export type CitationFileExtension = keyof typeof CITATION_FILES;
+export const CITATION_FILE_EXTENSIONS: readonly CitationFileExtension[] = ['bib', 'ris', 'json'];
 
 export function isCitationFileExtension(value: string): value is CitationFileExtension {
 	return Object.hasOwn(CITATION_FILES, value);
@@ -175,10 +176,15 @@ function bibEntry(type: string, key: string, fields: [string, string | null][]):
 	return `@${type}{${key},\n${lines.join(',\n')}\n}`;
 }
 
+/** The people who gave an ORCID iD, with it. */
+function withOrcid(people: CitedPerson[]): { name: string; orcid: string }[] {
+	return people.flatMap((p) => (p.orcid ? [{ name: p.name, orcid: p.orcid }] : []));
+}
+
 function orcidNote(people: CitedPerson[]): string | null {
-	const named = people.filter((p) => p.orcid);
+	const named = withOrcid(people);
 	if (named.length === 0) return null;
-	return `ORCID iDs: ${named.map((p) => `${toLatex(p.name)} \\url{${orcidUrl(p.orcid as string)}}`).join(', ')}`;
+	return `ORCID iDs: ${named.map((p) => `${toLatex(p.name)} \\url{${orcidUrl(p.orcid)}}`).join(', ')}`;
 }
 
 function bibtexOf(record: CitableRecord, accessed: CalendarDate | null): string {
@@ -267,7 +273,7 @@ function risRecord(lines: [string, string | null][]): string {
 
 function risOf(record: CitableRecord, accessed: CalendarDate | null): string {
 	const approved = approvalDate(record);
-	const orcids = [...record.authors, ...record.editors].filter((p) => p.orcid);
+	const orcids = withOrcid([...record.authors, ...record.editors]);
 	const records = [
 		risRecord([
 			['TY', 'DATA'],
@@ -287,7 +293,7 @@ function risOf(record: CitableRecord, accessed: CalendarDate | null): string {
 			[
 				'N1',
 				orcids.length > 0
-					? `ORCID iDs: ${orcids.map((p) => `${p.name} ${orcidUrl(p.orcid as string)}`).join(', ')}`
+					? `ORCID iDs: ${orcids.map((p) => `${p.name} ${orcidUrl(p.orcid)}`).join(', ')}`
 					: null
 			]
 		])
