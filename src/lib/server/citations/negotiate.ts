@@ -18,8 +18,8 @@ import { entryApiPath } from '$lib/catalogue/entryMetadata';
  * asked.
  */
 
-/** What a permalink answers with: the page, a citation file, or the entry's JSON. */
-export type EntryRepresentation = 'html' | 'json' | CitationFileExtension;
+/** What a permalink answers with: the page, the entry's JSON, or a citation file (by extension). */
+export type EntryRepresentation = 'html' | 'entry-json' | CitationFileExtension;
 
 const HTML_TYPES = ['text/html', 'application/xhtml+xml'];
 const OFFERED = [
@@ -36,7 +36,7 @@ export function preferredRepresentation(accept: string | null): EntryRepresentat
 	if (!accept) return 'html';
 	const chosen = new Negotiator({ headers: { accept } }).mediaType(OFFERED);
 	if (chosen === undefined || HTML_TYPES.includes(chosen)) return 'html';
-	if (chosen === 'application/json') return 'json';
+	if (chosen === 'application/json') return 'entry-json';
 	return CITATION_FILE_EXTENSIONS.find((e) => CITATION_FILES[e].mediaType === chosen) ?? 'html';
 }
 
@@ -60,7 +60,7 @@ export function negotiateEntryRepresentation(
 	if (wanted === 'html') return;
 	redirect(
 		303,
-		wanted === 'json'
+		wanted === 'entry-json'
 			? entryApiPath(version.accession, version.version)
 			: citationFilePath(version.accession, version.version, wanted)
 	);
