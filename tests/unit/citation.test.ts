@@ -59,7 +59,7 @@ describe('BibTeX', () => {
 		const paper = bibFields(c.bibtex, 'Muller2020_HL000003');
 		expect(paper.author).toBe('M{\\"{u}}ller, J{\\"{u}}rgen and Nguy{\\~{\\^{e}}}n, Th{\\d{i}}');
 		expect(paper.title).toBe(
-			'{Redox titration of $\\alpha$-subunit Fe\\textsubscript{4}S\\textsubscript{4}\\textsuperscript{2+} clusters at 25 $^{\\circ}$C}'
+			'{Redox titration of $\\alpha$-subunit Fe\\textsubscript{4}S\\textsubscript{4}\\textsuperscript{2+} clusters at 25 \\textdegree{}C}'
 		);
 		expect(paper.doi).toBe('10.5555/demo_1');
 		expect(paper.url).toBe('https://doi.org/10.5555/demo_1');
@@ -172,8 +172,11 @@ describe('LaTeX text', () => {
 		['Em of [4Fe-4S]2+/1+ in RoxA–H', 'Em of [4Fe-4S]2+/1+ in RoxA--H'],
 		['α-helix, β-sheet, Δ, Ω', '$\\alpha$-helix, $\\beta$-sheet, $\\Delta$, $\\Omega$'],
 		['Fe₂S₂²⁺', 'Fe\\textsubscript{2}S\\textsubscript{2}\\textsuperscript{2+}'],
-		['5 Å, 25 °C, ± 3 µM', '5 {\\AA}, 25 $^{\\circ}$C, $\\pm$ 3 $\\mu$M'],
-		['Müller, Ångström, Gödel', 'M{\\"{u}}ller, {\\AA}ngstr{\\"{o}}m, G{\\"{o}}del'],
+		[
+			'5 Å, 25 °C, ± 3 µM, a → b',
+			'5 {\\r{A}}, 25 \\textdegree{}C, \\textpm{} 3 \\textmu{}M, a \\textrightarrow{} b'
+		],
+		['Müller, Ångström, Gödel', 'M{\\"{u}}ller, {\\r{A}}ngstr{\\"{o}}m, G{\\"{o}}del'],
 		['Nguyễn Thị, Çelik, Łukasz', 'Nguy{\\~{\\^{e}}}n Th{\\d{i}}, {\\c{C}}elik, {\\L}ukasz'],
 		[
 			'{a} \\ 50% & #1 $x_1 ~^',

@@ -1,12 +1,13 @@
 /*
  * Text for BibTeX files that pdflatex typesets without stopping, whatever the document's font
  * encoding (OT1, LaTeX's default, or T1) and without extra packages: every character written is
- * ASCII. LaTeX's own specials are escaped; Greek letters, sub- and superscripts, dashes, quotes
- * and common symbols become the LaTeX commands of the kernel; accented Latin letters become
- * accent commands over their base letter (from the Unicode canonical decomposition). A character
- * none of this covers (a Chinese or Arabic name, say) becomes "?": a clean fallback rather than
- * an "Unicode character … not set up for use with LaTeX" error. CSL-JSON and RIS keep the text
- * as it is.
+ * ASCII. LaTeX's own specials are escaped. Greek letters, sub- and superscripts, dashes, quotes
+ * and common symbols become commands of the LaTeX kernel: text commands such as \textpm and
+ * \textdegree where the kernel has one (citation-js reads those back too), math mode otherwise.
+ * Accented Latin letters become accent commands over their base letter (from the Unicode
+ * canonical decomposition; "Å" is \r{A}, which is what \AA draws). A character none of this
+ * covers (a Chinese or Arabic name, say) becomes "?": a clean fallback rather than an "Unicode
+ * character … not set up for use with LaTeX" error. CSL-JSON and RIS keep the text as it is.
  */
 
 const GREEK_LOWER = [
@@ -83,28 +84,28 @@ const SYMBOLS: Record<string, string> = {
 	'>': '\\textgreater{}',
 	'|': '\\textbar{}',
 	'\u00a0': '~',
-	'\u2009': '\\,',
-	'\u202f': '\\,',
+	'\u2009': ' ',
+	'\u202f': ' ',
 	'\u2013': '--',
 	'\u2014': '---',
 	'\u2010': '-',
 	'\u2011': '-',
-	'\u2212': '$-$',
+	'\u2212': '\\textminus{}',
 	'\u2018': '`',
 	'\u2019': "'",
 	'\u201c': '``',
 	'\u201d': "''",
-	'\u2026': '\\ldots{}',
-	'\u00b7': '$\\cdot$',
-	'\u22c5': '$\\cdot$',
-	'\u00d7': '$\\times$',
-	'\u00b1': '$\\pm$',
+	'\u2026': '\\textellipsis{}',
+	'\u00b7': '\\textperiodcentered{}',
+	'\u22c5': '\\textperiodcentered{}',
+	'\u00d7': '\\texttimes{}',
+	'\u00b1': '\\textpm{}',
 	'\u2213': '$\\mp$',
-	'\u00b0': '$^{\\circ}$',
+	'\u00b0': '\\textdegree{}',
 	'\u2032': "$'$",
 	'\u2033': "$''$",
-	'\u2192': '$\\rightarrow$',
-	'\u2190': '$\\leftarrow$',
+	'\u2192': '\\textrightarrow{}',
+	'\u2190': '\\textleftarrow{}',
 	'\u2194': '$\\leftrightarrow$',
 	'\u21cc': '$\\rightleftharpoons$',
 	'\u2264': '$\\leq$',
@@ -112,7 +113,7 @@ const SYMBOLS: Record<string, string> = {
 	'\u2248': '$\\approx$',
 	'\u223c': '$\\sim$',
 	'\u221e': '$\\infty$',
-	'\u00b5': '$\\mu$',
+	'\u00b5': '\\textmu{}',
 	'\u00df': '{\\ss}',
 	'\u00e6': '{\\ae}',
 	'\u00c6': '{\\AE}',
@@ -125,7 +126,7 @@ const SYMBOLS: Record<string, string> = {
 	'\u0131': '{\\i}',
 	'\u00a7': '{\\S}',
 	'\u00b6': '{\\P}',
-	'\u00a9': '{\\copyright}',
+	'\u00a9': '\\textcopyright{}',
 	'\u2044': '/',
 	'\u03c2': '$\\varsigma$',
 	'\u03d1': '$\\vartheta$',
@@ -204,8 +205,6 @@ const COMBINING = /[\u0300-\u036f]/;
 
 /** One letter with its combining marks, e.g. "e\u0301" → "{\'{e}}"; unknown marks are dropped. */
 function accented(base: string, marks: string[]): string {
-	if (marks.length === 1 && marks[0] === '\u030a' && (base === 'A' || base === 'a'))
-		return base === 'A' ? '{\\AA}' : '{\\aa}';
 	// A dotless i or j under accents above the letter; accents below keep the dot.
 	const above = marks.some((m) => !BELOW.has(m));
 	let out = above && base === 'i' ? '\\i' : above && base === 'j' ? '\\j' : base;
