@@ -1,64 +1,66 @@
 import { sql, type Kysely } from 'kysely';
 
 /**
- * Who a version's citation names, frozen with the version:
+ * What citations name people with, kept so that a version's citation never changes:
  * - `User.orcid`: the ORCID iD a person records on /account (canonical hyphenated form; the
- *   check character is verified by the form, the column checks the shape);
- * - `version_credit`: for each approved version, the people its citation names, copied when the
- *   version is approved — the contributors of every approved version up to it (authors, in the
- *   order they first contributed) and the curator who approved it (editor) — with the name and
- *   ORCID iD they had then. A later change of name or iD never alters an older citation.
- *   Only people with a name are listed; rows are never changed or deleted (triggers).
+ *   form checks the check character, the column the shape);
+ * - `user_credit_history`: every name and iD a person has had, and from when. Triggers on `User`
+ *   add a row whenever an account is created or its name or iD changes, whoever changes it
+ *   (the account page, an admin, sign-up, Auth.js); rows are never changed or deleted. A
+ *   version's citation names its contributors and approving curator as they were when it was
+ *   approved (src/lib/server/catalogue/credit.ts), so the approval itself writes nothing more.
  *
- * Versions approved before this migration are credited from today's names, by the same rule
- * (`recordVersionCredit` in src/lib/server/catalogue/credit.ts applies it at approval).
+ * Accounts that exist already get one row dated 1970-01-01: their name as it is now stands for
+ * every version approved before this migration.
  */
 export async function up(db: Kysely<any>): Promise<void> {
 	await sql`alter table "User" add column "orcid" text check ("orcid" is null or "orcid" glob '[0-9][0-9][0-9][0-9]-[0-9][0-9][0-9][0-9]-[0-9][0-9][0-9][0-9]-[0-9][0-9][0-9][0-9X]')`.execute(
 		db
 	);
 	await db.schema
-		.createTable('version_credit')
-		.addColumn('entry_version_id', 'integer', (c) => c.notNull().references('entry_version.id'))
-		.addColumn('role', 'text', (c) => c.notNull().check(sql`role in ('author', 'editor')`))
-		.addColumn('position', 'integer', (c) => c.notNull())
-		.addColumn('user_id', 'text', (c) => c.references('User.id'))
-		.addColumn('name', 'text', (c) => c.notNull())
+		.createTable('user_credit_history')
+		.addColumn('id', 'integer', (c) => c.primaryKey().autoIncrement())
+		// No foreign key: the history outlives anything that happens to the account.
+		.addColumn('user_id', 'text', (c) => c.notNull())
+		.addColumn('name', 'text')
 		.addColumn('orcid', 'text')
-		.addPrimaryKeyConstraint('version_credit_pk', ['entry_version_id', 'role', 'position'])
+		.addColumn('changed_at', 'text', (c) => c.notNull())
 		.execute();
-	await sql`create trigger version_credit_is_immutable
-		before update on version_credit
+	await db.schema
+		.createIndex('user_credit_history_by_user')
+		.on('user_credit_history')
+		.columns(['user_id', 'changed_at'])
+		.execute();
+	// The same ISO 8601 form as approved_at (JavaScript's toISOString), so that they compare.
+	const now = sql`strftime('%Y-%m-%dT%H:%M:%fZ', 'now')`;
+	await sql`create trigger user_credit_on_insert after insert on "User"
 		begin
-			select raise(abort, 'the credit of an approved version is immutable');
+			insert into user_credit_history (user_id, name, orcid, changed_at)
+			values (new.id, new.name, new.orcid, ${now});
 		end`.execute(db);
-	await sql`create trigger version_credit_is_permanent
-		before delete on version_credit
+	await sql`create trigger user_credit_on_update after update of name, orcid on "User"
+		when old.name is not new.name or old.orcid is not new.orcid
 		begin
-			select raise(abort, 'the credit of an approved version cannot be deleted');
+			insert into user_credit_history (user_id, name, orcid, changed_at)
+			values (new.id, new.name, new.orcid, ${now});
 		end`.execute(db);
-
-	await sql`insert into version_credit (entry_version_id, role, position, user_id, name, orcid)
-		select v.id, 'author',
-			row_number() over (partition by v.id order by c.first_version, c.user_id) - 1,
-			c.user_id, trim(u.name), u.orcid
-		from entry_version v
-		join (
-			select entry_id, created_by as user_id, min(version) as first_version
-			from entry_version
-			where status = 'approved' and created_by is not null
-			group by entry_id, created_by
-		) c on c.entry_id = v.entry_id and c.first_version <= v.version
-		join "User" u on u.id = c.user_id and trim(coalesce(u.name, '')) <> ''
-		where v.status = 'approved'`.execute(db);
-	await sql`insert into version_credit (entry_version_id, role, position, user_id, name, orcid)
-		select v.id, 'editor', 0, v.approved_by, trim(u.name), u.orcid
-		from entry_version v
-		join "User" u on u.id = v.approved_by and trim(coalesce(u.name, '')) <> ''
-		where v.status = 'approved'`.execute(db);
+	await sql`create trigger user_credit_history_is_immutable
+		before update on user_credit_history
+		begin
+			select raise(abort, 'the credit history is immutable');
+		end`.execute(db);
+	await sql`create trigger user_credit_history_is_permanent
+		before delete on user_credit_history
+		begin
+			select raise(abort, 'the credit history cannot be deleted');
+		end`.execute(db);
+	await sql`insert into user_credit_history (user_id, name, orcid, changed_at)
+		select id, name, orcid, '1970-01-01T00:00:00.000Z' from "User"`.execute(db);
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
-	await db.schema.dropTable('version_credit').execute();
+	for (const trigger of ['user_credit_on_insert', 'user_credit_on_update'])
+		await sql`drop trigger if exists ${sql.ref(trigger)}`.execute(db);
+	await db.schema.dropTable('user_credit_history').execute();
 	await db.schema.alterTable('User').dropColumn('orcid').execute();
 }

@@ -1,14 +1,15 @@
-import { sql, type Kysely } from 'kysely';
+import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 
 /*
- * The people a version's citation names (table `version_credit`, migration 0010): the
- * contributors of every approved version of the entry up to this one, as authors in the order
- * they first contributed, and the curator who approved it, as editor. Copied when the version is
- * approved, with the name and ORCID iD each person had then, so that a citation never changes
- * afterwards. People without a name are not listed (nothing else of theirs — their e-mail
- * address least of all — is fit to print); a version crediting nobody is cited as by the
- * registry's contributors. Migration 0010 applied the same rule to versions approved before it.
+ * The people a version's citation names: the contributors of every approved version of the
+ * entry up to this one, as authors in the order they first contributed, and the curator who
+ * approved it, as editor — each with the name and ORCID iD they had when the version was
+ * approved (`user_credit_history`, kept by triggers since migration 0010), so that a citation
+ * never changes afterwards. Everything read is frozen: approved versions (their authors,
+ * approver and approval time) and the history rows. People without a name are not listed
+ * (nothing else of theirs — their e-mail address least of all — is fit to print); a version
+ * crediting nobody is cited as by the registry's contributors.
  */
 
 /** One person named in a citation. */
@@ -22,29 +23,23 @@ export interface VersionCredit {
 	editors: CreditedPerson[];
 }
 
+type HistoryRow = {
+	user_id: string;
+	name: string | null;
+	orcid: string | null;
+	changed_at: string;
+};
+
 /**
- * Records the credit of a version just approved (numbered, status approved), in the approving
- * transaction.
+ * The name and iD a person had at `at`: the newest history row from before then, or — for a
+ * version dated before the account's first row (the demo scenario, imported histories) — the
+ * first row there is.
  */
-export async function recordVersionCredit(trx: Kysely<Database>, versionId: number): Promise<void> {
-	await sql`insert into version_credit (entry_version_id, role, position, user_id, name, orcid)
-		select v.id, 'author',
-			row_number() over (order by c.first_version, c.user_id) - 1,
-			c.user_id, trim(u.name), u.orcid
-		from entry_version v
-		join (
-			select entry_id, created_by as user_id, min(version) as first_version
-			from entry_version
-			where status = 'approved' and created_by is not null
-			group by entry_id, created_by
-		) c on c.entry_id = v.entry_id and c.first_version <= v.version
-		join "User" u on u.id = c.user_id and trim(coalesce(u.name, '')) <> ''
-		where v.id = ${versionId} and v.status = 'approved'`.execute(trx);
-	await sql`insert into version_credit (entry_version_id, role, position, user_id, name, orcid)
-		select v.id, 'editor', 0, v.approved_by, trim(u.name), u.orcid
-		from entry_version v
-		join "User" u on u.id = v.approved_by and trim(coalesce(u.name, '')) <> ''
-		where v.id = ${versionId} and v.status = 'approved'`.execute(trx);
+function asOf(rows: HistoryRow[], at: string): CreditedPerson | null {
+	let chosen = rows[0];
+	for (const row of rows) if (row.changed_at < at) chosen = row;
+	const name = chosen?.name?.trim();
+	return chosen && name ? { name, orcid: chosen.orcid } : null;
 }
 
 /** Who the citation of an approved version names (empty lists when nobody is credited). */
@@ -53,19 +48,42 @@ export async function versionCredit(
 	entryId: number,
 	version: number
 ): Promise<VersionCredit> {
-	const rows = await db
-		.selectFrom('version_credit')
-		.innerJoin('entry_version', 'entry_version.id', 'version_credit.entry_version_id')
-		.select(['version_credit.role', 'version_credit.name', 'version_credit.orcid'])
-		.where('entry_version.entry_id', '=', entryId)
-		.where('entry_version.version', '=', version)
-		.where('entry_version.status', '=', 'approved')
-		.orderBy('version_credit.role')
-		.orderBy('version_credit.position')
+	const row = await db
+		.selectFrom('entry_version')
+		.select(['approved_at', 'approved_by'])
+		.where('entry_id', '=', entryId)
+		.where('version', '=', version)
+		.where('status', '=', 'approved')
+		.executeTakeFirst();
+	if (!row?.approved_at) return { authors: [], editors: [] };
+	const contributors = await db
+		.selectFrom('entry_version')
+		.select((eb) => ['created_by', eb.fn.min('version').as('first')])
+		.where('entry_id', '=', entryId)
+		.where('status', '=', 'approved')
+		.where('version', '<=', version)
+		.where('created_by', 'is not', null)
+		.groupBy('created_by')
+		.orderBy('first')
+		.orderBy('created_by')
 		.execute();
-	const person = (r: (typeof rows)[number]): CreditedPerson => ({ name: r.name, orcid: r.orcid });
+	const authorIds = contributors.flatMap((c) => (c.created_by ? [c.created_by] : []));
+	const ids = [...new Set([...authorIds, ...(row.approved_by ? [row.approved_by] : [])])];
+	if (ids.length === 0) return { authors: [], editors: [] };
+
+	const history = new Map<string, HistoryRow[]>();
+	const rows = await db
+		.selectFrom('user_credit_history')
+		.select(['user_id', 'name', 'orcid', 'changed_at'])
+		.where('user_id', 'in', ids)
+		.orderBy('changed_at')
+		.orderBy('id')
+		.execute();
+	for (const r of rows) history.set(r.user_id, [...(history.get(r.user_id) ?? []), r]);
+	const at = row.approved_at;
+	const credited = (id: string) => asOf(history.get(id) ?? [], at);
 	return {
-		authors: rows.filter((r) => r.role === 'author').map(person),
-		editors: rows.filter((r) => r.role === 'editor').map(person)
+		authors: authorIds.flatMap((id) => credited(id) ?? []),
+		editors: row.approved_by ? [credited(row.approved_by)].flatMap((p) => p ?? []) : []
 	};
 }

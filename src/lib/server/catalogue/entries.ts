@@ -10,7 +10,6 @@ import { InvalidEntryDataError, VersionStateError } from './errors';
 import { refreshPotentialRows } from './potentialRows';
 import { bumpCatalogueRevision } from '../db/revision';
 import { projectApprovedVersion } from './projection';
-import { recordVersionCredit } from './credit';
 import { writeAudit } from '../audit/log';
 import { setImmediate } from 'node:timers/promises';
 
@@ -192,7 +191,6 @@ export async function approveVersion(
 		})
 		.where('id', '=', versionId)
 		.execute();
-	await recordVersionCredit(trx, versionId);
 	await projectApprovedVersion(trx, row.entry_id, version, entryData);
 	await writeAudit(trx, {
 		actorId: options.approvedBy ?? null,

@@ -41,7 +41,7 @@ export interface Database extends KindTables {
 	api_token: ApiTokenTable;
 	catalogue_state: CatalogueStateTable;
 	backup_log: BackupLogTable;
-	version_credit: VersionCreditTable;
+	user_credit_history: UserCreditHistoryTable;
 }
 
 export type { Role } from '$lib/roles';
@@ -311,18 +311,17 @@ export interface BackupLogTable {
 }
 
 /**
- * A person an approved version's citation names, copied at approval with the name and ORCID iD
- * they had then (migration 0010; written by catalogue/credit.ts, never changed).
+ * Every name and ORCID iD a person has had, from when (migration 0010: triggers on `User` add a
+ * row on each change; rows are never changed). Citations name people as they were when the
+ * version was approved (catalogue/credit.ts).
  */
-export interface VersionCreditTable {
-	entry_version_id: number;
-	/** Contributors of the versions up to this one are authors; the approving curator, editor. */
-	role: 'author' | 'editor';
-	/** Order within the role, from 0 (authors in the order they first contributed). */
-	position: number;
-	user_id: string | null;
-	name: string;
+export interface UserCreditHistoryTable {
+	id: Generated<number>;
+	user_id: string;
+	name: string | null;
 	orcid: string | null;
+	/** ISO 8601, comparable with entry_version.approved_at. */
+	changed_at: string;
 }
 
 export type EntryRow = Selectable<EntryTable>;
