@@ -28,12 +28,14 @@ declare module 'citeproc' {
 		retrieveLocale(lang: string): string;
 		retrieveItem(id: string): unknown;
 	}
-	class Engine {
-		constructor(sys: Sys, style: string, lang?: string, forceLang?: boolean);
+	interface Engine {
 		setOutputFormat(format: 'text' | 'html' | 'rtf'): void;
 		updateItems(ids: string[]): void;
 		makeBibliography(): [Record<string, unknown>, string[]] | false;
 	}
-	const CSL: { Engine: typeof Engine; PROCESSOR_VERSION: string };
+	const CSL: {
+		Engine: new (sys: Sys, style: string, lang?: string, forceLang?: boolean) => Engine;
+		PROCESSOR_VERSION: string;
+	};
 	export default CSL;
 }
