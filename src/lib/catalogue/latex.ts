@@ -240,6 +240,7 @@ function latexAscii(text: string): string {
  * Not for URLs (`\url` and the `url` field take them as they are).
  */
 export function toLatex(text: string): string {
+	if (/^[\x20-\x7e]*$/.test(text)) return latexAscii(text);
 	// Decomposed, so that an accented letter arrives as its base letter and combining marks.
 	const chars = [...text.normalize('NFD')];
 	let out = '';

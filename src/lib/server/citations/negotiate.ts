@@ -9,11 +9,11 @@ import {
 import { entryApiPath } from '$lib/catalogue/entryMetadata';
 
 /*
- * Content negotiation on an entry's permalink (/e/HL000123, /e/HL000123/v2): a client that
- * asks for a citation format or JSON in `Accept`, and prefers it to HTML, is sent (303 See
- * Other, as DOI resolvers do) to the version's citation file or its JSON in the API, where the
- * answer is the same bytes for that version forever. Everyone else — browsers, crawlers, clients
- * accepting anything — gets the page. Called by the entry page's load with one line, after the entry view
+ * Content negotiation on an entry's permalink (/e/HL000123, /e/HL000123/v2): a client that asks
+ * for a citation format or JSON in `Accept`, and prefers it to HTML, is sent (303 See Other, as
+ * DOI resolvers do) to the version's citation file or its JSON in the API, where the answer is
+ * the same bytes for that version forever. Everyone else — browsers, crawlers, clients accepting
+ * anything — gets the page. Called by the entry page's load with one line, after the entry view
  * has checked that the reader may see the version, so a hidden entry answers 404 whatever is
  * asked.
  */
