@@ -8,6 +8,7 @@ import * as m0006 from './0006_structure_version_warnings';
 import * as m0007 from './0007_recompute_potential_groups';
 import * as m0008 from './0008_create_entry_kinds';
 import * as m0009 from './0009_pin_version_references';
+import * as m0010 from './0010_add_citation_credit';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -23,5 +24,6 @@ export const migrations: Record<string, Migration> = {
 	'0006_structure_version_warnings': m0006,
 	'0007_recompute_potential_groups': m0007,
 	'0008_create_entry_kinds': m0008,
-	'0009_pin_version_references': m0009
+	'0009_pin_version_references': m0009,
+	'0010_add_citation_credit': m0010
 };

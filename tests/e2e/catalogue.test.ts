@@ -98,7 +98,9 @@ describe('catalogue in Chromium', () => {
 		const clipboard = await page.evaluate(() => navigator.clipboard.readText());
 		expect(clipboard).toMatch(new RegExp(`^@misc\\{hopline_${accession}_v1,`));
 		expect(clipboard).toContain(`url = {${base}/e/${accession}/v1}`);
-		expect(clipboard).toContain(`urldate = {${new Date().toISOString().slice(0, 10)}}`);
+		// The reader's local date, from the browser's own calendar (citations.test.ts tries zones).
+		const local = await page.evaluate(() => new Date().toLocaleDateString('en-CA'));
+		expect(clipboard).toContain(`urldate = {${local}}`);
 		await page.screenshot({ path: 'test-results/old-version.png', fullPage: true });
 
 		await page.getByRole('link', { name: 'what changed' }).click();

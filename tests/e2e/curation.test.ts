@@ -51,6 +51,21 @@ describe('curation, end to end', () => {
 	let accession = '';
 	let target: { centre: string; emMvShe: number };
 
+	it('lets the contributor record an ORCID iD for the citations of what they contribute', async () => {
+		await contributor.goto('/account');
+		const form = contributor.getByTestId('orcid-form');
+		await form.getByLabel('ORCID iD').fill('0000-0002-1825-0098');
+		await form.getByRole('button', { name: 'Save' }).click();
+		await form.locator('[data-field-error=orcid]').waitFor();
+		expect(await form.locator('[data-field-error=orcid]').textContent()).toContain(
+			'its last character should be 7'
+		);
+		await form.getByLabel('ORCID iD').fill('https://orcid.org/0000-0002-1825-0097');
+		await form.getByRole('button', { name: 'Save' }).click();
+		await form.getByRole('status').waitFor();
+		expect(await form.textContent()).toContain('https://orcid.org/0000-0002-1825-0097');
+	});
+
 	it('shows the contributor a range warning with its source after submitting', async () => {
 		target = await demoCentre();
 		await contributor.goto('/submissions/new/potential');
@@ -143,6 +158,11 @@ describe('curation, end to end', () => {
 		await visitor.locator(`a[href="/e/${accession}"]`).first().waitFor();
 		const mail = await mailTo('contributor@demo.hopline.test', /approved/);
 		expect(mail).toContain(`/e/${accession}/v1`);
+		// Its citation names the contributor (with the iD recorded above) and the curator.
+		const bib = await (await fetch(`${base}/e/${accession}/v1/cite.bib`)).text();
+		expect(bib).toContain('author = {Contributor, Demo}');
+		expect(bib).toContain('editor = {Curator, Demo}');
+		expect(bib).toContain('Demo Contributor \\url{https://orcid.org/0000-0002-1825-0097}');
 	});
 
 	it('keeps an embargoed value from signed-out readers in page, search, API and export', async () => {

@@ -240,6 +240,14 @@ export const MUTATIONS: Mutation[] = [
 	},
 	{
 		file: 'account/+page.server.ts',
+		name: 'orcid',
+		url: '/account?/orcid',
+		least: 'reader',
+		body: { orcid: 'not-an-orcid' },
+		allowed: invalid
+	},
+	{
+		file: 'account/+page.server.ts',
 		name: 'signOutEverywhere',
 		url: '/account?/signOutEverywhere',
 		least: 'reader',

@@ -28,6 +28,7 @@ import {
 	SubmissionNotFoundError,
 	SubmissionStateError
 } from '$lib/server/curation/errors';
+import { AccessDateError } from '$lib/server/citations/files';
 import { orNotFound, toApiResponse, toFormFailure } from '$lib/server/http/failures';
 import { UploadHasErrorsError } from '$lib/server/uploads/commitUpload';
 import { z } from 'zod';
@@ -47,6 +48,12 @@ interface Case {
 	retryAfter?: string;
 }
 const CASES: Record<string, Case> = {
+	AccessDateError: {
+		error: new AccessDateError('2001-01-01 is not today anywhere'),
+		status: 400,
+		code: 'bad_request',
+		fields: { accessed: ['2001-01-01 is not today anywhere'] }
+	},
 	EntryNotFoundError: { error: new EntryNotFoundError('HL000001'), status: 404, code: 'not_found' },
 	InvalidEntryDataError: {
 		error: new InvalidEntryDataError('centreAccession', 'no centre HL000002'),

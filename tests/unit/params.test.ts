@@ -1,6 +1,8 @@
 import { readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { CITATION_FILE_EXTENSIONS } from '$lib/catalogue/citation';
 import { match as accession } from '../../src/params/accession';
+import { match as citeFormat } from '../../src/params/citeFormat';
 import { match as id } from '../../src/params/id';
 import { match as kind } from '../../src/params/kind';
 import { match as version } from '../../src/params/version';
@@ -12,6 +14,11 @@ const MATCHERS: Record<string, { match: (param: string) => boolean; yes: string[
 			match: accession,
 			yes: ['HL000123', 'HL999999', 'HL1000000'],
 			no: ['HL12', 'hl000123', 'HL0000123', 'HL0100000', 'HL00012A', ' HL000123', '']
+		},
+		citeFormat: {
+			match: citeFormat,
+			yes: ['bib', 'ris', 'json'],
+			no: ['BIB', 'bibtex', 'txt', 'csl', 'bib ', '']
 		},
 		id: {
 			match: id,
@@ -38,6 +45,9 @@ describe('route matchers (src/params)', () => {
 			.map((f) => f.replace(/\.ts$/, ''))
 			.sort();
 		expect(Object.keys(MATCHERS).sort()).toEqual(files);
+	});
+	it('citeFormat takes exactly the citation formats of $lib/catalogue/citation', () => {
+		expect([...CITATION_FILE_EXTENSIONS].sort()).toEqual(MATCHERS.citeFormat?.yes.sort());
 	});
 	for (const [name, { match, yes, no }] of Object.entries(MATCHERS)) {
 		it(`${name} takes ${yes.join(', ')}`, () => {

@@ -1,7 +1,9 @@
+import { orcidForm } from '$lib/schemas/orcid';
 import { noticePreferenceForm } from '$lib/schemas/submission';
 import { curationNoticesOf, setCurationNotices, signOutEverywhere } from '$lib/server/auth/account';
 import { signOut } from '$lib/server/auth/authjs';
 import { requireRole, requireUser } from '$lib/server/auth/guards';
+import { orcidOf, setOrcid } from '$lib/server/citations/orcid';
 import { db } from '$lib/server/db';
 import { parseForm } from '$lib/server/http/forms';
 import type { Actions, PageServerLoad } from './$types';
@@ -10,7 +12,8 @@ export const load: PageServerLoad = async (event) => {
 	const user = requireUser(event);
 	return {
 		account: { email: user.email, name: user.name, role: user.role, groups: user.groupIds.length },
-		curationNotices: await curationNoticesOf(db, user.id)
+		curationNotices: await curationNoticesOf(db, user.id),
+		orcid: await orcidOf(db, user.id)
 	};
 };
 
@@ -24,6 +27,14 @@ export const actions: Actions = {
 			.transaction()
 			.execute((trx) => setCurationNotices(trx, user.id, form.data.curationNotices));
 		return { saved: form.data.curationNotices };
+	},
+	/** The ORCID iD citations name the person with (empty removes it). */
+	orcid: async (event) => {
+		const user = requireUser(event);
+		const form = await parseForm(event.request, orcidForm);
+		if (!form.ok) return form.failure;
+		await db.transaction().execute((trx) => setOrcid(trx, user.id, form.data.orcid));
+		return { orcidSaved: form.data.orcid };
 	},
 	/** Ends every session of the account, on every device, this one included. */
 	signOutEverywhere: async (event) => {

@@ -42,6 +42,7 @@ export interface Database extends KindTables {
 	api_token: ApiTokenTable;
 	catalogue_state: CatalogueStateTable;
 	backup_log: BackupLogTable;
+	user_credit_history: UserCreditHistoryTable;
 }
 
 export type { Role } from '$lib/roles';
@@ -72,6 +73,8 @@ export interface UserTable {
 	lastDigestAt: string | null;
 	/** Raised to end every session of the user; each session cookie carries the one it began under. */
 	sessionGeneration: Generated<number>;
+	/** The person's ORCID iD (canonical hyphenated form), named in citations (migration 0010). */
+	orcid: string | null;
 }
 
 /** A signed-out session, refused until its cookie would have expired anyway. */
@@ -318,6 +321,20 @@ export interface BackupLogTable {
 	row_count: number;
 	last_migration: string | null;
 	seconds: number;
+}
+
+/**
+ * Every name and ORCID iD a person has had, from when (migration 0010: triggers on `User` add a
+ * row on each change; rows are never changed). Citations name people as they were when the
+ * version was approved (catalogue/credit.ts).
+ */
+export interface UserCreditHistoryTable {
+	id: Generated<number>;
+	user_id: string;
+	name: string | null;
+	orcid: string | null;
+	/** ISO 8601, comparable with entry_version.approved_at. */
+	changed_at: string;
 }
 
 export type EntryRow = Selectable<EntryTable>;

@@ -9,6 +9,8 @@ import { conflictFlags, conflictFlagsOfPotential } from '$lib/server/catalogue/c
 import { getEntryView } from '$lib/server/catalogue/entryView';
 import { ladderInputs } from '$lib/server/catalogue/ladderInputs';
 import { relatedRecords } from '$lib/server/catalogue/related';
+import { entryCitation } from '$lib/server/citations/citable';
+import { negotiateEntryRepresentation } from '$lib/server/citations/negotiate';
 import { db } from '$lib/server/db';
 import { orNotFound, queryError } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
@@ -19,7 +21,14 @@ import { shownRelated } from './shownRelated';
  * list, conflict flags for the potentials shown, and a protein's energy ladder — every part
  * bounded, however many records the entry has.
  */
-export const load: PageServerLoad = async ({ params, locals, url, setHeaders }) => {
+export const load: PageServerLoad = async ({
+	params,
+	locals,
+	url,
+	setHeaders,
+	request,
+	isDataRequest
+}) => {
 	const version = params.version ? (parseVersionSegment(params.version) ?? undefined) : undefined;
 	const pages = parseRelatedPages(url.searchParams);
 	if (!pages.ok) queryError(pages.fields);
@@ -29,6 +38,7 @@ export const load: PageServerLoad = async ({ params, locals, url, setHeaders }) 
 			? `There is no entry ${params.accession}.`
 			: `Entry ${params.accession} has no version ${version}.`
 	);
+	negotiateEntryRepresentation({ request, isDataRequest, setHeaders }, view);
 	const related = await relatedRecords(db, view.kind, view.accession, locals.viewer, pages.pages);
 	const ladderData =
 		view.kind === 'protein' ? await ladderInputs(db, view.accession, locals.viewer) : null;
@@ -49,6 +59,7 @@ export const load: PageServerLoad = async ({ params, locals, url, setHeaders }) 
 			: await conflictFlags(db, related?.potentials.items ?? [], locals.viewer);
 	return {
 		view,
+		citation: await entryCitation(db, view, url.origin),
 		related: related ? shownRelated(related) : null,
 		ladder,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,

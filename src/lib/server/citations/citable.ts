@@ -1,0 +1,174 @@
+import type { Kysely } from 'kysely';
+import type { EntryView } from '$lib/catalogue/dto';
+import { originalKey, type CitableRecord, type OriginalWork } from '$lib/catalogue/citation';
+import type { EntryCitation, PinnedReference } from '$lib/catalogue/entryMetadata';
+import { permalinkPath } from '$lib/schemas/accession';
+import { sourceSchema } from '$lib/schemas/source';
+import { versionCredit } from '../catalogue/credit';
+import { readJson } from '../db/json';
+import type { Database } from '../db/schema';
+
+/*
+ * What a version's citations and page metadata say, from what its entry view shows: the title
+ * the view gives, the people credited when the version was approved (catalogue/credit.ts), the
+ * entries it refers to at the versions it was approved against, and the work its source entry
+ * describes. Everything here is frozen with the version: nothing depends on entries approved
+ * after it. The view has already left out references the reader may not see.
+ */
+
+/**
+ * The version of a referenced entry a version was approved against: the one the view names
+ * when it pins references, otherwise the newest version of the entry approved at or before
+ * this version's approval (references must resolve when a version is approved, so that is the
+ * version it was checked against).
+ */
+async function pinnedVersion(
+	db: Kysely<Database>,
+	entryId: number,
+	reference: EntryView['references'][string],
+	approvedAt: string
+): Promise<number | null> {
+	if ('version' in reference && typeof reference.version === 'number') return reference.version;
+	const row = await db
+		.selectFrom('entry_version')
+		.select((eb) => eb.fn.max('version').as('version'))
+		.where('entry_id', '=', entryId)
+		.where('status', '=', 'approved')
+		.where('approved_at', '<=', approvedAt)
+		.executeTakeFirst();
+	return row?.version ?? null;
+}
+
+async function pinnedReferences(
+	db: Kysely<Database>,
+	view: EntryView,
+	origin: string
+): Promise<(PinnedReference & { field: string; entryId: number })[]> {
+	const refs = Object.entries(view.references);
+	if (refs.length === 0) return [];
+	const ids = new Map(
+		(
+			await db
+				.selectFrom('entry')
+				.select(['id', 'accession'])
+				.where(
+					'accession',
+					'in',
+					refs.map(([, r]) => r.accession)
+				)
+				.execute()
+		).map((r) => [r.accession, r.id])
+	);
+	const pinned = [];
+	for (const [field, ref] of refs) {
+		const entryId = ids.get(ref.accession);
+		if (entryId === undefined) continue;
+		const version = await pinnedVersion(db, entryId, ref, view.approvedAt);
+		if (version === null) continue;
+		pinned.push({
+			field,
+			entryId,
+			accession: ref.accession,
+			version,
+			kind: ref.kind,
+			title: ref.title,
+			permalink: new URL(permalinkPath(ref.accession, version), origin).href
+		});
+	}
+	return pinned;
+}
+
+/** A source's stored data as the work it describes, or null when it does not read as a source. */
+function originalWork(
+	data: unknown,
+	record: { accession: string; version: number; permalink: string }
+): OriginalWork | null {
+	const parsed = sourceSchema.safeParse(data);
+	if (!parsed.success) return null;
+	const s = parsed.data;
+	return {
+		key: originalKey(s.authors, s.year, record.accession),
+		sourceKind: s.sourceKind,
+		title: s.title,
+		authors: s.authors,
+		journal: s.journal,
+		year: s.year,
+		doi: s.doi,
+		pubmedId: s.pubmedId,
+		record
+	};
+}
+
+async function sourceData(
+	db: Kysely<Database>,
+	entryId: number,
+	version: number
+): Promise<unknown> {
+	const row = await db
+		.selectFrom('entry_version')
+		.select('data')
+		.where('entry_id', '=', entryId)
+		.where('version', '=', version)
+		.where('status', '=', 'approved')
+		.executeTakeFirst();
+	return row ? readJson(row.data) : null;
+}
+
+/**
+ * The citation of the version an entry view shows, and the entries it is based on.
+ * @param origin the site's origin, for absolute permalinks.
+ */
+export async function entryCitation(
+	db: Kysely<Database>,
+	view: EntryView,
+	origin: string
+): Promise<EntryCitation> {
+	const entry = await db
+		.selectFrom('entry')
+		.select('id')
+		.where('accession', '=', view.accession)
+		.executeTakeFirstOrThrow();
+	const credit = await versionCredit(db, entry.id, view.version);
+	const permalink = new URL(permalinkPath(view.accession, view.version), origin).href;
+	const basedOn = await pinnedReferences(db, view, origin);
+
+	let original: OriginalWork | null = null;
+	if (view.kind === 'source') {
+		original = originalWork(view.data, {
+			accession: view.accession,
+			version: view.version,
+			permalink
+		});
+	} else {
+		const source = basedOn.find((r) => r.kind === 'source');
+		if (source) {
+			original = originalWork(await sourceData(db, source.entryId, source.version), {
+				accession: source.accession,
+				version: source.version,
+				permalink: source.permalink
+			});
+		}
+	}
+
+	const record: CitableRecord = {
+		accession: view.accession,
+		version: view.version,
+		kind: view.kind,
+		title: view.title,
+		permalink,
+		approvedAt: view.approvedAt,
+		authors: credit.authors,
+		editors: credit.editors,
+		original
+	};
+	return {
+		record,
+		basedOn: basedOn.map(({ accession, version, kind, title, permalink }) => ({
+			accession,
+			version,
+			kind,
+			title,
+			permalink
+		}))
+	};
+}

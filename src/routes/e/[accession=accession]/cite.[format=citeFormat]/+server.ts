@@ -1,0 +1,16 @@
+import { citationFilePath } from '$lib/catalogue/citation';
+import { apiHandler } from '$lib/server/api/handler';
+import { getEntryView } from '$lib/server/catalogue/entryView';
+import { db } from '$lib/server/db';
+import type { RequestHandler } from './$types';
+
+/**
+ * GET /e/HL000123/cite.bib (.ris, .json) — the citation of the latest version: a redirect to
+ * that version's file, so that what is saved names the version it cites. The query (an access
+ * date) goes along.
+ */
+export const GET: RequestHandler = apiHandler(async ({ params, url, locals }) => {
+	const view = await getEntryView(db, params.accession, undefined, locals.viewer);
+	const location = citationFilePath(view.accession, view.version, params.format) + url.search;
+	return new Response(null, { status: 303, headers: { location } });
+});
