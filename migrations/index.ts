@@ -7,6 +7,7 @@ import * as m0005 from './0005_create_backup_log';
 import * as m0006 from './0006_structure_version_warnings';
 import * as m0007 from './0007_recompute_potential_groups';
 import * as m0008 from './0008_create_entry_kinds';
+import * as m0011 from './0011_add_api_token_scope';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -21,5 +22,6 @@ export const migrations: Record<string, Migration> = {
 	'0005_create_backup_log': m0005,
 	'0006_structure_version_warnings': m0006,
 	'0007_recompute_potential_groups': m0007,
-	'0008_create_entry_kinds': m0008
+	'0008_create_entry_kinds': m0008,
+	'0011_add_api_token_scope': m0011
 };
