@@ -118,10 +118,11 @@ describe('creating a token', () => {
 
 	it(`holds at most ${TOKENS_IN_USE_MAX} tokens in use per account; revoked ones do not count`, async () => {
 		const user = await insertSessionUser(db, 'reader', 'many@tokens.test');
-		const made = [];
-		for (let i = 0; i < TOKENS_IN_USE_MAX; i++) made.push(await create(user, { name: `t${i}` }));
+		const ids: number[] = [];
+		for (let i = 0; i < TOKENS_IN_USE_MAX; i++)
+			ids.push((await create(user, { name: `t${i}` })).summary.id);
 		await expect(create(user)).rejects.toMatchObject({ code: 'conflict' });
-		await db.transaction().execute((trx) => revokeApiToken(trx, user.id, made[0]!.summary.id, NOW));
+		await db.transaction().execute((trx) => revokeApiToken(trx, user.id, ids[0]!, NOW));
 		expect((await create(user)).token).toMatch(API_TOKEN_PATTERN);
 	});
 });

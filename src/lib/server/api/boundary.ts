@@ -94,7 +94,9 @@ function withoutCookies(response: Response): Response {
 /** The code of a status: the first in the API's list with it; else the general one of its class. */
 export function codeForStatus(status: number): ApiErrorCode {
 	const codes = Object.entries(API_ERROR_CODES) as [ApiErrorCode, number][];
-	return codes.find(([, s]) => s === status)?.[0] ?? (status >= 500 ? 'internal_error' : 'bad_request');
+	return (
+		codes.find(([, s]) => s === status)?.[0] ?? (status >= 500 ? 'internal_error' : 'bad_request')
+	);
 }
 
 /** Whether a body is the API's error shape with the code of `status`. */
@@ -164,8 +166,7 @@ async function inErrorShape(response: Response, request: Request, url: URL): Pro
 
 function errorIdIn(body: string): string | null {
 	try {
-		const id = (JSON.parse(body) as { errorId?: unknown; error?: { errorId?: unknown } })
-			.errorId;
+		const id = (JSON.parse(body) as { errorId?: unknown; error?: { errorId?: unknown } }).errorId;
 		return typeof id === 'string' ? id : null;
 	} catch {
 		return null;

@@ -222,10 +222,7 @@ export async function authenticateApiToken(
 		.select(['id', 'user_id', 'token_sha256', 'scope', 'expires_at', 'revoked_at', 'last_used_at'])
 		.where('token_sha256', '=', digest)
 		.executeTakeFirst();
-	if (
-		!row ||
-		!timingSafeEqual(Buffer.from(row.token_sha256, 'hex'), Buffer.from(digest, 'hex'))
-	) {
+	if (!row || !timingSafeEqual(Buffer.from(row.token_sha256, 'hex'), Buffer.from(digest, 'hex'))) {
 		throw new ApiTokenRefusedError('unknown');
 	}
 	if (row.revoked_at !== null) throw new ApiTokenRefusedError('revoked');
