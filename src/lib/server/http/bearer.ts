@@ -1,13 +1,13 @@
 import type { Handle } from '@sveltejs/kit';
 import { DomainError } from '$lib/domainError';
-import { scopeIncludes } from '$lib/schemas/apiToken';
+import { API_TOKEN_PREFIX, scopeIncludes } from '$lib/schemas/apiToken';
 import { isApiPath } from '../api/paths';
 import {
 	ApiTokenRateLimitError,
 	ApiTokenRefusedError,
 	ApiTokenScopeError
 } from '../auth/apiTokenErrors';
-import { authenticateApiToken, noteTokenUse } from '../auth/apiTokens';
+import { authenticateApiToken, noteTokenUse, type TokenHolder } from '../auth/apiTokens';
 import { apiTokenRequests } from '../auth/rateLimit';
 import { scopeNeeded } from '../auth/tokenRoutes';
 import { viewerOf } from '../catalogue/visibility';
@@ -23,7 +23,8 @@ import { withHeaders } from './headers';
  * scope does not cover the request, 429 past the per-token rate limit. A request with a token
  * is never read as a cookie session too (`attachUser` leaves it alone), and it needs no Origin
  * header (the cross-site check exempts it: a bearer token is not sent by browsers on their
- * own). Elsewhere the header is ignored: pages are for browsers and their sessions.
+ * own). Elsewhere the header is ignored: pages are for browsers and their sessions; so is
+ * another scheme than Bearer that carries no Hopline token.
  */
 
 /** The token of an `Authorization: Bearer <token>` header; null for any other scheme. */
@@ -54,7 +55,10 @@ export const authenticateBearer: Handle = async ({ event, resolve }) => {
 	const header = event.request.headers.get('authorization');
 	if (header === null || !isApiPath(event.url.pathname)) return resolve(event);
 	const token = bearerToken(header);
-	let holder;
+	// Another scheme (a proxy's Basic credentials passed through) is none of the API's business,
+	// unless it carries one of our tokens: then the client only got the scheme wrong.
+	if (token === null && !header.includes(API_TOKEN_PREFIX)) return resolve(event);
+	let holder: TokenHolder;
 	try {
 		if (token === null) throw new ApiTokenRefusedError('scheme');
 		holder = await authenticateApiToken(db, token);
