@@ -9,6 +9,7 @@ import * as m0007 from './0007_recompute_potential_groups';
 import * as m0008 from './0008_create_entry_kinds';
 import * as m0009 from './0009_pin_version_references';
 import * as m0010 from './0010_add_citation_credit';
+import * as m0011 from './0011_add_api_token_scope';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -25,5 +26,6 @@ export const migrations: Record<string, Migration> = {
 	'0007_recompute_potential_groups': m0007,
 	'0008_create_entry_kinds': m0008,
 	'0009_pin_version_references': m0009,
-	'0010_add_citation_credit': m0010
+	'0010_add_citation_credit': m0010,
+	'0011_add_api_token_scope': m0011
 };

@@ -2,6 +2,7 @@
 // adapter-node gives hooks the Node request as `event.platform.req` (absent under vite dev).
 import type { Viewer } from '$lib/server/catalogue/visibility';
 import type { SessionUser } from '$lib/server/auth/roles';
+import type { ApiTokenScope } from '$lib/schemas/apiToken';
 
 declare global {
 	namespace App {
@@ -17,6 +18,8 @@ declare global {
 			user: SessionUser | null;
 			/** Who is reading, for visibility rules; null when signed out. */
 			viewer: Viewer | null;
+			/** The personal API token an /api/v1 request came with (http/bearer.ts); null without one. */
+			apiToken: { id: number; scope: ApiTokenScope } | null;
 		}
 	}
 }

@@ -14,6 +14,9 @@ import { scheduleDigests } from '$lib/server/curation/digestSchedule';
 import { limitRequestSize } from '$lib/server/requestLimits';
 import { secureCookiesOnlyOverHttps } from '$lib/server/secureCookies';
 import { httpHardening } from '$lib/server/http';
+import { apiBoundary } from '$lib/server/api/boundary';
+import { authenticateBearer } from '$lib/server/http/bearer';
+import { viewerOf } from '$lib/server/catalogue/visibility';
 import { createReadCache } from '$lib/server/http/readCache';
 import { catalogueValidityReader } from '$lib/server/catalogue/validity';
 import { createLoopTurns } from '$lib/server/http/loopTurns';
@@ -55,20 +58,23 @@ const attachRequestFacts: Handle = async ({ event, resolve }) => {
 	event.locals.requestId = crypto.randomUUID();
 	event.locals.user = null;
 	event.locals.viewer = null;
+	event.locals.apiToken = null;
 	return resolve(event);
 };
 
 /**
  * Reads the session's user (role, groups) from the database, so changes apply at once. Reading
  * the session also checks that it was not ended (signed out, reset, disabled: auth/sessions.ts).
+ * An API request with a token is answered for the token alone (`authenticateBearer`), never
+ * for a session cookie it may carry too.
  */
 const attachUser: Handle = async ({ event, resolve }) => {
-	if (!hasSessionCookie(event.request)) return resolve(event);
+	if (event.locals.apiToken || !hasSessionCookie(event.request)) return resolve(event);
 	const session = await event.locals.auth();
 	const id = session?.user?.id;
 	if (id) {
 		event.locals.user = await loadSessionUser(db, id);
-		event.locals.viewer = event.locals.user ? { groupIds: event.locals.user.groupIds } : null;
+		event.locals.viewer = event.locals.user ? viewerOf(event.locals.user) : null;
 	}
 	return resolve(event);
 };
@@ -77,8 +83,10 @@ export const handle: Handle = sequence(
 	shareLoopTurns,
 	attachRequestFacts,
 	httpHardening,
+	apiBoundary,
 	limitRequestSize,
 	secureCookiesOnlyOverHttps,
+	authenticateBearer,
 	cacheSignedOutReads,
 	authHandle,
 	attachUser

@@ -248,6 +248,22 @@ export const MUTATIONS: Mutation[] = [
 	},
 	{
 		file: 'account/+page.server.ts',
+		name: 'createToken',
+		url: '/account?/createToken',
+		least: 'reader',
+		body: { name: '', scope: 'read', expires: '' },
+		allowed: invalid
+	},
+	{
+		file: 'account/+page.server.ts',
+		name: 'revokeToken',
+		url: '/account?/revokeToken',
+		least: 'reader',
+		body: { tokenId: '999999' },
+		allowed: { type: 'error', status: 404, message: 'no API token 999999 of yours in use' }
+	},
+	{
+		file: 'account/+page.server.ts',
 		name: 'signOutEverywhere',
 		url: '/account?/signOutEverywhere',
 		least: 'reader',

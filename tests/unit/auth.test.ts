@@ -55,6 +55,24 @@ describe('attempt limiter', () => {
 	});
 });
 
+describe('attempt limiter: quota (RateLimit-Remaining and -Reset of API tokens)', () => {
+	it('counts down what is left and says when the oldest counted attempt leaves the window', () => {
+		let now = 0;
+		const limiter = new AttemptLimiter(3, 60_000, () => now);
+		expect(limiter.quota('t')).toEqual({ remaining: 3, resetMs: 0 });
+		limiter.record('t');
+		now = 10_000;
+		limiter.record('t');
+		// Oldest at 0 leaves the window at 60 000: 50 000 ms from now.
+		expect(limiter.quota('t')).toEqual({ remaining: 1, resetMs: 50_000 });
+		limiter.record('t');
+		expect(limiter.quota('t')).toEqual({ remaining: 0, resetMs: 50_000 });
+		expect(limiter.retryAfterMs('t')).toBe(50_000);
+		now = 60_001;
+		expect(limiter.quota('t')).toEqual({ remaining: 1, resetMs: 9_999 });
+	});
+});
+
 describe('attempt limiter: taking back and sweeping', () => {
 	it('forgiveOne takes back the latest attempt only', () => {
 		const limiter = new AttemptLimiter(2, 60_000);

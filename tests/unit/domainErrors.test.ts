@@ -8,6 +8,14 @@ import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { parseVisibilityRequest, visibilityFromForm } from '$lib/schemas/submission';
 import { AdminRuleError } from '$lib/server/admin/accounts';
 import { apiHandler } from '$lib/server/api/handler';
+import {
+	ApiTokenInputError,
+	ApiTokenLimitError,
+	ApiTokenNotFoundError,
+	ApiTokenRateLimitError,
+	ApiTokenRefusedError,
+	ApiTokenScopeError
+} from '$lib/server/auth/apiTokenErrors';
 import { BusyError } from '$lib/server/auth/hashingQueue';
 import { ForbiddenError, UnauthenticatedError } from '$lib/server/auth/roles';
 import {
@@ -120,6 +128,32 @@ const CASES: Record<string, Case> = {
 		fields: { role: ['the last active admin keeps the admin role'] }
 	},
 	BusyError: { error: new BusyError(), status: 503, code: 'unavailable' },
+	// Personal API tokens (DEVELOPERS.md, "API tokens"): 401 for a token that lets nobody in, 403
+	// for a scope too narrow, 429 past the per-token limit, 400/409/404 on /account.
+	ApiTokenRefusedError: {
+		error: new ApiTokenRefusedError('revoked'),
+		status: 401,
+		code: 'unauthorized'
+	},
+	ApiTokenScopeError: {
+		error: new ApiTokenScopeError('read', 'read+submit'),
+		status: 403,
+		code: 'forbidden'
+	},
+	ApiTokenRateLimitError: {
+		error: new ApiTokenRateLimitError(12, 600, 60),
+		status: 429,
+		code: 'too_many_requests',
+		retryAfter: '12'
+	},
+	ApiTokenInputError: {
+		error: new ApiTokenInputError({ scope: ['submitting needs the contributor role'] }),
+		status: 400,
+		code: 'bad_request',
+		fields: { scope: ['submitting needs the contributor role'] }
+	},
+	ApiTokenLimitError: { error: new ApiTokenLimitError(50), status: 409, code: 'conflict' },
+	ApiTokenNotFoundError: { error: new ApiTokenNotFoundError(7), status: 404, code: 'not_found' },
 	UploadHasErrorsError: { error: new UploadHasErrorsError(3), status: 400, code: 'bad_request' },
 	CsvLimitError: {
 		error: new CsvLimitError('columns', 200, 1, 'Row 1 has more than 200 columns'),

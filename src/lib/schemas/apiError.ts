@@ -8,6 +8,8 @@ export const API_ERROR_CODES = {
 	not_found: 404,
 	method_not_allowed: 405,
 	conflict: 409,
+	/** A body sent without Content-Length (its size must be known before it is read). */
+	length_required: 411,
 	payload_too_large: 413,
 	/** A calculation stopped at its time limit (CALC_TIME_LIMIT_MS). */
 	time_limit_exceeded: 422,

@@ -128,6 +128,13 @@ const configSchema = z.object({
 	 */
 	CALC_ANON_PER_MINUTE: z.coerce.number().int().min(1).max(100_000).default(30),
 	/**
+	 * Requests one personal API token may make per API_TOKEN_RATE_WINDOW_SECONDS (a sliding
+	 * window, counted in memory per process, src/lib/server/http/bearer.ts); beyond it, 429 with
+	 * Retry-After. Every answer to a token carries RateLimit-Limit, -Remaining, -Reset and -Policy.
+	 */
+	API_TOKEN_RATE_LIMIT: z.coerce.number().int().min(1).max(1_000_000).default(600),
+	API_TOKEN_RATE_WINDOW_SECONDS: z.coerce.number().int().min(1).max(86_400).default(60),
+	/**
 	 * Memory for catalogue answers kept for signed-out readers (http/readCache.ts), MB per
 	 * process; 0 turns the cache off. Answers larger than READ_CACHE_ENTRY_MAX_KB are not kept.
 	 */

@@ -41,7 +41,9 @@ export const limitRequestSize: Handle = async ({ event, resolve }) => {
 	const length = header === null ? null : Number(header);
 	if (length === null && event.request.body !== null) {
 		return Response.json(
-			{ error: { code: 'bad_request', message: 'Send a Content-Length header with the body.' } },
+			{
+				error: { code: 'length_required', message: 'Send a Content-Length header with the body.' }
+			},
 			{ status: 411 }
 		);
 	}

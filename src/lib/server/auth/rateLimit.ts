@@ -31,6 +31,19 @@ export class AttemptLimiter {
 		return list[list.length - this.maxAttempts]! + this.windowMs - this.now();
 	}
 
+	/**
+	 * The key's standing now: attempts it may still make in the window, and the milliseconds
+	 * until its oldest counted attempt leaves the window (one more becomes possible then; 0 when
+	 * none is counted).
+	 */
+	quota(key: string): { remaining: number; resetMs: number } {
+		const list = this.recent(key);
+		return {
+			remaining: Math.max(0, this.maxAttempts - list.length),
+			resetMs: list.length ? Math.max(0, list[0]! + this.windowMs - this.now()) : 0
+		};
+	}
+
 	record(key: string): void {
 		this.attempts.set(key, [...this.recent(key), this.now()]);
 		if (this.attempts.size > this.sweepAt) {
@@ -62,6 +75,12 @@ const WINDOW_MS = config.AUTH_LIMIT_WINDOW_MINUTES * 60_000;
 /** Failed password sign-ins per account (its e-mail) and per client address. */
 export const accountAttempts = new AttemptLimiter(config.SIGNIN_FAILURES_PER_ACCOUNT, WINDOW_MS);
 export const addressAttempts = new AttemptLimiter(config.SIGNIN_FAILURES_PER_ADDRESS, WINDOW_MS);
+
+/** Requests per personal API token (http/bearer.ts), keyed by the token's id. */
+export const apiTokenRequests = new AttemptLimiter(
+	config.API_TOKEN_RATE_LIMIT,
+	config.API_TOKEN_RATE_WINDOW_SECONDS * 1000
+);
 
 /** Requests that send mail (sign-in links, sign-up, reset), per client address and per recipient. */
 export const mailsPerClient = new AttemptLimiter(config.MAIL_REQUESTS_PER_ADDRESS, WINDOW_MS);

@@ -48,6 +48,7 @@ export interface Database extends KindTables {
 export type { Role } from '$lib/roles';
 import type { Role } from '$lib/roles';
 import type { Visibility } from '$lib/schemas/vocabulary';
+import type { ApiTokenScope } from '$lib/schemas/apiToken';
 import type { EntryKind } from '$lib/kinds';
 import type { JsonColumn } from './json';
 
@@ -293,14 +294,19 @@ export interface SavedSearchTable {
 	created_at: Generated<string>;
 }
 
+/** A personal API token (auth/apiTokens.ts): only its SHA-256 is stored. Scope and expiry: 0011. */
 export interface ApiTokenTable {
 	id: Generated<number>;
 	user_id: string;
 	name: string;
 	token_sha256: string;
 	created_at: Generated<string>;
+	/** Written at most once a minute per token, so that reading with a token is not a write. */
 	last_used_at: string | null;
 	revoked_at: string | null;
+	scope: Generated<ApiTokenScope>;
+	/** The instant from which the token is refused; null: it does not expire. */
+	expires_at: string | null;
 }
 
 export interface CatalogueStateTable {

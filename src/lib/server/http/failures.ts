@@ -46,6 +46,7 @@ export function toFormFailure<V extends Record<string, string>>(
 	const status = API_ERROR_CODES[e.code];
 	switch (e.code) {
 		case 'bad_request':
+		case 'length_required':
 		case 'payload_too_large':
 			return fail(status, withValues(values, e.fields ?? { form: [e.message] }));
 		case 'conflict':

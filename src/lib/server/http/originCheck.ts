@@ -12,7 +12,7 @@ import { apiError } from '../api/respond';
  * - on pages and form actions always, as SvelteKit does (a signed-out form can still be abused,
  *   e.g. to sign a visitor in to someone else's account), with SvelteKit's own text;
  * - under /api/ only when it carries cookies, in the API's error shape: a script that
- *   authenticates otherwise (a Bearer token, coming with API tokens) has nothing to forge.
+ *   authenticates otherwise (a personal API token, http/bearer.ts) has nothing to forge.
  * A request with `Authorization: Bearer` and no cookie is never refused here. JSON and other
  * content types need a CORS preflight from another site, which this app never grants.
  */
