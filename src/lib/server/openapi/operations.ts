@@ -117,7 +117,7 @@ function submissionBodySchema() {
 		return apiSubmissionSchema.extend({
 			kind: z.literal(kind),
 			data: (module.input?.schema ?? module.schema).describe(
-				`The ${module.label.toLowerCase()}'s fields, as the entry form takes them.`
+				'The entry’s fields, as the entry form of its kind takes them (a potential as reported; it is normalised on the server).'
 			),
 			visibility: visibilityRequestSchema
 				.default({ visibility: 'public', groupId: null, embargoUntil: null })

@@ -71,11 +71,11 @@ export function schemaText(schema: JsonSchema | undefined): string {
 		case 'array': {
 			const bounds =
 				s.maxItems !== undefined
-					? ` (${s.minItems ? `${s.minItems} to ` : 'at most '}${s.maxItems})`
+					? ` (${s.minItems ? `${s.minItems} to ` : 'up to '}${s.maxItems})`
 					: s.minItems
 						? ` (at least ${s.minItems})`
 						: '';
-			return `list of ${schemaText(s.items)}${bounds}`;
+			return `list${bounds} of ${schemaText(s.items)}`;
 		}
 		case 'number':
 		case 'integer': {

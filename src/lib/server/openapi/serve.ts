@@ -9,8 +9,8 @@ import { openApiDocument } from './document';
 
 /*
  * Serving the document: the same bytes for the life of the process, so a strong ETag and
- * `If-None-Match` → 304; compressed once per encoding (about 15 kB instead of 150 kB) for
- * clients that accept it, each encoding with its own ETag.
+ * `If-None-Match` → 304; compressed once per encoding for clients that accept it (110 kB of
+ * JSON: 17 kB with brotli, 18 kB with gzip), each encoding with its own ETag.
  */
 
 // zlib's output is backed by a plain ArrayBuffer; the DOM types only do not know it.
