@@ -1,9 +1,8 @@
+import type { z } from 'zod';
+import type { fieldChangeSchema } from '$lib/schemas/curationResponses';
+
 /** One field that differs between two versions of an entry. */
-export interface FieldChange {
-	field: string;
-	before: unknown;
-	after: unknown;
-}
+export type FieldChange = z.infer<typeof fieldChangeSchema>;
 
 function same(a: unknown, b: unknown): boolean {
 	return JSON.stringify(a) === JSON.stringify(b);

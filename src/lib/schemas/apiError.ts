@@ -1,4 +1,4 @@
-import type { FieldErrors } from './searchParams';
+import { z } from 'zod';
 
 /* The API's one error shape: `{ error: { code, message, fields? } }`, codes a closed set. */
 export const API_ERROR_CODES = {
@@ -21,6 +21,24 @@ export const API_ERROR_CODES = {
 } as const;
 export type ApiErrorCode = keyof typeof API_ERROR_CODES;
 
-export interface ApiErrorBody {
-	error: { code: ApiErrorCode; message: string; fields?: FieldErrors; errorId?: string };
-}
+const codes = Object.keys(API_ERROR_CODES) as [ApiErrorCode, ...ApiErrorCode[]];
+
+/** Field name (a query parameter, or a dotted path into a JSON body) → what is wrong with it. */
+export const fieldErrorsSchema = z.record(z.string(), z.array(z.string()));
+
+/** The body of every API error; the OpenAPI document describes errors with this schema. */
+export const apiErrorBodySchema = z.strictObject({
+	error: z.strictObject({
+		code: z
+			.enum(codes)
+			.describe(
+				`One of a closed list, each with its HTTP status: ${codes.map((c) => `${c} (${API_ERROR_CODES[c]})`).join(', ')}.`
+			),
+		message: z.string().describe('What went wrong, for the person who caused it.'),
+		fields: fieldErrorsSchema
+			.optional()
+			.describe('Errors per parameter or body field (400, and 413 for an upload).'),
+		errorId: z.string().optional().describe('On a 500 only: quote it when reporting the fault.')
+	})
+});
+export type ApiErrorBody = z.infer<typeof apiErrorBodySchema>;

@@ -1,7 +1,8 @@
 import { z } from 'zod';
+import type { fieldErrorsSchema } from './apiError';
 
 /** Field errors as the API and forms report them: field name → messages. */
-export type FieldErrors = Record<string, string[]>;
+export type FieldErrors = z.infer<typeof fieldErrorsSchema>;
 
 export type ParamsResult<T> = { ok: true; data: T } | { ok: false; fields: FieldErrors };
 
@@ -45,21 +46,25 @@ export function parseSearchParams<S extends z.ZodObject>(
 	return { ok: true, data: parsed.data };
 }
 
+/*
+ * Bounds are zod's own checks (min, max, int) rather than refinements, so that the JSON Schema
+ * made from these schemas (the OpenAPI document, src/lib/server/openapi) states them too.
+ * Infinity and NaN are refused by z.number() itself.
+ */
+
 /** A number from a query string, within bounds, with a message that names them. */
 export function queryNumber(min: number, max: number, unit = '') {
-	const range = `${min}${unit} to ${max}${unit}`;
-	return z.coerce
-		.number({ error: `expected a number from ${range}` })
-		.refine(Number.isFinite, `expected a number from ${range}`)
-		.refine((v) => v >= min && v <= max, `expected a number from ${range}`);
+	const message = `expected a number from ${min}${unit} to ${max}${unit}`;
+	return z.coerce.number({ error: message }).min(min, message).max(max, message);
 }
 
 /** A whole number from a query string, within bounds. */
 export function queryInteger(min: number, max: number) {
+	const message = `expected a whole number from ${min} to ${max}`;
+	// A fraction is named once, not again by a bound it also misses.
 	return z.coerce
-		.number({ error: `expected a whole number from ${min} to ${max}` })
-		.refine(
-			(v) => Number.isInteger(v) && v >= min && v <= max,
-			`expected a whole number from ${min} to ${max}`
-		);
+		.number({ error: message })
+		.int({ message, abort: true })
+		.min(min, message)
+		.max(max, message);
 }

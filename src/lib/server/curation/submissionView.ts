@@ -1,13 +1,13 @@
 import type { Kysely } from 'kysely';
-import { diffEntryData, type FieldChange } from '$lib/catalogue/diff';
+import { diffEntryData } from '$lib/catalogue/diff';
+import type { SubmissionView, VersionView } from '$lib/schemas/curationResponses';
 import { parseEntryData } from '$lib/schemas/entryData';
-import type { Visibility } from '$lib/schemas/vocabulary';
 import type { EntryKind } from '$lib/kinds';
 import { roleAtLeast, type SessionUser } from '../auth/roles';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { viewerOf } from '../catalogue/visibility';
-import { warningsForVersion, type VersionWarning, type WarningAudience } from './checks';
+import { warningsForVersion, type WarningAudience } from './checks';
 import { SubmissionNotFoundError } from './errors';
 
 /*
@@ -16,27 +16,7 @@ import { SubmissionNotFoundError } from './errors';
  * read a page at a time (`batchRows.ts`).
  */
 
-export interface VersionView {
-	versionId: number;
-	entryId: number;
-	accession: string;
-	kind: EntryKind;
-	status: string;
-	data: Record<string, unknown>;
-	changeNote: string | null;
-	requestedVisibility: {
-		visibility: Visibility;
-		groupName: string | null;
-		groupId: number | null;
-		embargoUntil: string | null;
-	} | null;
-	current: { version: number; data: Record<string, unknown> } | null;
-	changes: FieldChange[];
-	/** The approved version the proposal started from, when a newer one has been approved since. */
-	staleBase: { basedOn: number | null; latest: number } | null;
-	warnings: VersionWarning[];
-	approvedVersion: number | null;
-}
+export type { SubmissionView, VersionView } from '$lib/schemas/curationResponses';
 
 /** The versions of a form submission, with what the page shows of each. */
 function formVersionRows(db: Kysely<Database>, submissionId: number) {
@@ -72,7 +52,7 @@ export async function loadSubmissionView(
 	db: Kysely<Database>,
 	user: SessionUser,
 	submissionId: number
-) {
+): Promise<SubmissionView> {
 	const submission = await db
 		.selectFrom('submission')
 		.leftJoin('User', 'User.id', 'submission.submitted_by')
@@ -198,8 +178,6 @@ export async function loadSubmissionView(
 		}))
 	};
 }
-
-export type SubmissionView = Awaited<ReturnType<typeof loadSubmissionView>>;
 
 /**
  * The entry kind of a submission's versions (what its edit form reads).

@@ -33,6 +33,7 @@ export const CATALOGUE_READ_ROUTES: ReadonlySet<string> = new Set([
 	'/search',
 	'/e/[accession=accession]/[[version=version]]',
 	'/e/[accession=accession]/compare',
+	'/api',
 	'/api/v1',
 	'/api/v1/potentials',
 	'/api/v1/proteins',

@@ -5,6 +5,7 @@ import type { CsvLimits } from '$lib/catalogue/csvRecords';
 import { UPLOAD_COLUMNS, columnForHeader } from '$lib/catalogue/uploadColumns';
 import { KINDS, type UploadKind } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
+import type { UploadIssue } from '$lib/schemas/curationResponses';
 import type { Protein } from '$lib/schemas/protein';
 import { parseEntryInput } from '$lib/schemas/submission';
 import { warningText, type VersionWarning } from '$lib/schemas/versionWarning';
@@ -20,14 +21,7 @@ import type { RowState, UploadRow } from './rows';
  * Checks a CSV upload row by row against the zod schemas and the registry, and plans what a
  * commit would create. Nothing is written here: the dry run and the commit both start from it.
  */
-export interface UploadIssue {
-	/** Row as a spreadsheet numbers it: the header is row 1. */
-	row: number;
-	column: string;
-	value: string;
-	message: string;
-	severity: 'error' | 'warning';
-}
+export type { UploadIssue };
 
 export interface PlannedEntry {
 	row: number;

@@ -1,8 +1,14 @@
 import { KINDS, formatKindField, type KindUpload } from '$lib/kinds';
+import type { CheckSummary } from '$lib/schemas/curationResponses';
 import type { UploadCheck } from './checkUpload';
 
+export type { CheckSummary };
+
 /** What a page shows of a check: counts, the first issues, and a preview of what would be created. */
-export function summariseCheck(check: UploadCheck, limits: { issues: number; preview: number }) {
+export function summariseCheck(
+	check: UploadCheck,
+	limits: { issues: number; preview: number }
+): CheckSummary {
 	const upload: KindUpload = KINDS[check.kind].upload;
 	const derived = (n: string) => upload.derivedFields?.[n] ?? null;
 	const fields = upload.columns
@@ -34,5 +40,3 @@ export function summariseCheck(check: UploadCheck, limits: { issues: number; pre
 		}
 	};
 }
-
-export type CheckSummary = ReturnType<typeof summariseCheck>;

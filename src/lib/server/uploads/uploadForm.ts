@@ -26,7 +26,15 @@ export type UploadForm =
 	  }
 	| { ok: false; status: 400 | 413; values: Record<string, string>; errors: FieldErrors };
 
-const kindField = z.enum(UPLOAD_KINDS, { error: `expected one of ${UPLOAD_KINDS.join(', ')}` });
+/** The kind of rows a file holds (the form's and the check API's `kind` field). */
+export const uploadKindField = z.enum(UPLOAD_KINDS, {
+	error: `expected one of ${UPLOAD_KINDS.join(', ')}`
+});
+
+/** The query of POST /api/v1/uploads/check: the answer as JSON or as a CSV report. */
+export const uploadCheckQuerySchema = z.strictObject({
+	format: z.enum(['json', 'csv'], { error: 'expected json or csv' }).default('json')
+});
 
 export async function readUploadForm(request: Request): Promise<UploadForm> {
 	const tooLarge = uploadTooLargeMessage(Number(request.headers.get('content-length') ?? 0));
@@ -54,7 +62,7 @@ export async function readUploadForm(request: Request): Promise<UploadForm> {
 	const values: Record<string, string> = {};
 	for (const [k, v] of form) if (typeof v === 'string') values[k] = v;
 	const errors: FieldErrors = {};
-	const kind = kindField.safeParse(values.kind);
+	const kind = uploadKindField.safeParse(values.kind);
 	if (!kind.success) Object.assign(errors, fieldErrors(kind.error, { root: 'kind' }));
 	const file = form.get('file');
 	if (!(file instanceof File) || file.size === 0) errors.file = ['choose a CSV file'];

@@ -1,4 +1,5 @@
 import { json } from '@sveltejs/kit';
+import type { SubmissionCreated } from '$lib/schemas/curationResponses';
 import { addFieldErrors } from '$lib/schemas/fieldErrors';
 import {
 	apiSubmissionSchema,
@@ -48,17 +49,18 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 		return { ...draft, mails: sent?.mails ?? [] };
 	});
 	const view = await loadSubmissionView(db, user, result.submissionId);
-	return json(
-		{
-			id: result.submissionId,
-			accession: result.accession,
-			status: view.submission.status,
-			warnings: view.versions.flatMap((v) => v.warnings),
-			links: {
-				self: `/api/v1/submissions/${result.submissionId}`,
-				page: `/submissions/${result.submissionId}`
-			}
-		},
-		{ status: 201, headers: { location: `/api/v1/submissions/${result.submissionId}` } }
-	);
+	const created: SubmissionCreated = {
+		id: result.submissionId,
+		accession: result.accession,
+		status: view.submission.status,
+		warnings: view.versions.flatMap((v) => v.warnings),
+		links: {
+			self: `/api/v1/submissions/${result.submissionId}`,
+			page: `/submissions/${result.submissionId}`
+		}
+	};
+	return json(created, {
+		status: 201,
+		headers: { location: `/api/v1/submissions/${result.submissionId}` }
+	});
 });

@@ -2,6 +2,7 @@ import { tunnellingRequestSchema } from '$lib/schemas/calc';
 import { parseJsonBody } from '$lib/server/api/body';
 import { apiHandler } from '$lib/server/api/handler';
 import { computedJson } from '$lib/server/api/respond';
+import { tunnellingAnswer } from '$lib/server/calc/answers';
 import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import type { RequestHandler } from './$types';
 
@@ -12,10 +13,5 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 	const body = await parseJsonBody(event.request, tunnellingRequestSchema);
 	if (!body.ok) return body.response;
 	const result = await calculate({ kind: 'tunnelling', request: body.data }, caller);
-	return computedJson({
-		...result,
-		units: { energies: 'kcal/mol and cm⁻¹', grid: 'Å', wavefunctions: 'Å^-1/2', massAmu: 'u' },
-		caution:
-			'One-dimensional model estimates: the parabolic-barrier factors and fixed-potential levels ignore coupling to other coordinates; treat isotope effects as indicative.'
-	});
+	return computedJson(tunnellingAnswer(result));
 });

@@ -2,12 +2,12 @@ import Papa from 'papaparse';
 import { json } from '@sveltejs/kit';
 import { assertRole } from '$lib/server/auth/roles';
 import { apiHandler } from '$lib/server/api/handler';
-import { apiError } from '$lib/server/api/respond';
+import { apiError, badQuery, parseApiQuery } from '$lib/server/api/respond';
 import { db } from '$lib/server/db';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { summariseCheck } from '$lib/server/uploads/summary';
-import { readUploadForm } from '$lib/server/uploads/uploadForm';
+import { readUploadForm, uploadCheckQuerySchema } from '$lib/server/uploads/uploadForm';
 import type { RequestHandler } from './$types';
 
 /**
@@ -18,12 +18,9 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = apiHandler(async (event) => {
 	assertRole(event.locals.user, 'contributor');
 	const user = event.locals.user;
-	const format = event.url.searchParams.get('format') ?? 'json';
-	if (format !== 'json' && format !== 'csv') {
-		return apiError('bad_request', 'format: expected json or csv', {
-			format: ['expected json or csv']
-		});
-	}
+	const query = parseApiQuery(event.url, uploadCheckQuerySchema);
+	if (!query.ok) return badQuery(query.fields);
+	const { format } = query.data;
 	const form = await readUploadForm(event.request);
 	if (!form.ok) {
 		return apiError(

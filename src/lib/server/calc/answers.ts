@@ -1,0 +1,54 @@
+import type { NernstFit } from '$lib/science';
+import type { HopRateQuery } from '$lib/schemas/calc';
+import type {
+	HopRateResponse,
+	TitrationResponse,
+	TunnellingResponse
+} from '$lib/schemas/calcResponses';
+import { RATE_CAUTION, runHopRate } from './hopRate';
+import type { TunnellingResult } from './tunnelling';
+
+/*
+ * The calculator endpoints' answers, built from a result in one place: the routes send them,
+ * and the OpenAPI document's examples are made by the same functions from example inputs.
+ */
+
+/** The hop rate under the chosen model, with the inputs as read and their units. */
+export function hopRateAnswer(query: HopRateQuery): HopRateResponse {
+	const chosen = runHopRate(query).estimates[query.model];
+	return {
+		model: chosen.model,
+		rateForward: chosen.rateForward,
+		rateBackward: chosen.rateBackward,
+		log10RateForward: chosen.log10RateForward,
+		log10RateBackward: chosen.log10RateBackward,
+		warnings: chosen.warnings,
+		inputs: query,
+		units: {
+			rate: 's⁻¹',
+			distance: 'Å',
+			dG: 'eV (negative downhill)',
+			lambda: 'eV',
+			temperature: 'K'
+		},
+		caution: RATE_CAUTION
+	};
+}
+
+export function titrationAnswer(fit: NernstFit): TitrationResponse {
+	return {
+		...fit,
+		units: { emMv: 'mV (same reference as the potentials sent)', temperatureK: 'K' },
+		caution:
+			'Standard errors assume independent, equal-variance noise and a correct Nernstian model; they do not include systematic errors such as mediator equilibration or electrode calibration.'
+	};
+}
+
+export function tunnellingAnswer(result: TunnellingResult): TunnellingResponse {
+	return {
+		...result,
+		units: { energies: 'kcal/mol and cm⁻¹', grid: 'Å', wavefunctions: 'Å^-1/2', massAmu: 'u' },
+		caution:
+			'One-dimensional model estimates: the parabolic-barrier factors and fixed-potential levels ignore coupling to other coordinates; treat isotope effects as indicative.'
+	};
+}

@@ -1,0 +1,196 @@
+import type { ApiOperation, ExampleValue } from './operations';
+
+/*
+ * Code samples of each operation's example request, for the OpenAPI document
+ * (`x-codeSamples`, which reference renderers show) and the reference page: curl, Python with
+ * requests (and pandas for lists), R with httr2 and jsonlite. Tokens are read from the
+ * environment variable HOPLINE_TOKEN, never written into a sample.
+ */
+
+export interface CodeSample {
+	lang: 'Shell' | 'Python' | 'R';
+	label: 'curl' | 'Python' | 'R';
+	source: string;
+}
+
+const TOKEN_VARIABLE = 'HOPLINE_TOKEN';
+
+interface SampleRequest {
+	method: 'GET' | 'POST';
+	url: string;
+	query: [string, ExampleValue][];
+	body: ApiOperation['body'];
+	needsToken: boolean;
+	/** A JSON page of rows (items), which pandas and R turn into a table. */
+	isList: boolean;
+}
+
+function requestOf(op: ApiOperation, apiBase: string): SampleRequest {
+	const example = op.example ?? {};
+	const pathNames = new Set(Object.keys(op.pathParams ?? {}));
+	const path = op.path.replace(/\{(\w+)\}/g, (_, name: string) => {
+		const value = example[name] ?? op.pathParams?.[name]?.example;
+		if (value === undefined) throw new Error(`${op.operationId}: no example for {${name}}`);
+		return encodeURIComponent(String(value));
+	});
+	return {
+		method: op.method === 'get' ? 'GET' : 'POST',
+		url: apiBase + (path === '/' ? '' : path),
+		query: Object.entries(example).filter(([name]) => !pathNames.has(name)),
+		body: op.body,
+		needsToken: op.access === 'contributor',
+		isList: op.success.schema?.endsWith('Page') ?? false
+	};
+}
+
+const queryValue = (v: ExampleValue) => (Array.isArray(v) ? v.join(',') : String(v));
+
+function urlWithQuery(r: SampleRequest): string {
+	if (r.query.length === 0) return r.url;
+	const params = new URLSearchParams(r.query.map(([k, v]) => [k, queryValue(v)]));
+	return `${r.url}?${params.toString().replaceAll('%2C', ',')}`;
+}
+
+/** A string in single quotes for a POSIX shell. */
+const shellQuote = (s: string) => `'${s.replaceAll("'", `'\\''`)}'`;
+
+function curl(r: SampleRequest): string {
+	const lines = [`curl -sS${r.method === 'POST' ? ' -X POST' : ''} ${shellQuote(urlWithQuery(r))}`];
+	if (r.needsToken) lines.push(`-H "Authorization: Bearer $${TOKEN_VARIABLE}"`);
+	if (r.body?.mediaType === 'application/json') {
+		lines.push(`-H 'Content-Type: application/json'`);
+		lines.push(`--data ${shellQuote(JSON.stringify(r.body.example, null, 2))}`);
+	} else if (r.body) {
+		for (const [name, value] of Object.entries(r.body.example as Record<string, string>)) {
+			lines.push(
+				`-F ${shellQuote(name === 'file' ? `file=@${value};type=text/csv` : `${name}=${value}`)}`
+			);
+		}
+	}
+	return lines.join(' \\\n  ');
+}
+
+/** A Python literal of JSON-like data, indented by `indent` levels of four spaces. */
+export function pythonLiteral(value: unknown, indent = 0): string {
+	const pad = (n: number) => '    '.repeat(n);
+	if (value === null || value === undefined) return 'None';
+	if (typeof value === 'boolean') return value ? 'True' : 'False';
+	if (typeof value === 'number') return String(value);
+	if (typeof value === 'string') return JSON.stringify(value);
+	const oneLine = (items: string[], open: string, close: string) =>
+		`${open}${items.join(', ')}${close}`;
+	const lines = (items: string[], open: string, close: string) =>
+		`${open}\n${items.map((i) => `${pad(indent + 1)}${i},`).join('\n')}\n${pad(indent)}${close}`;
+	const shape = (items: string[], open: string, close: string) => {
+		const short = oneLine(items, open, close);
+		return short.length + indent * 4 <= 72 && !short.includes('\n')
+			? short
+			: lines(items, open, close);
+	};
+	if (Array.isArray(value))
+		return shape(
+			value.map((v) => pythonLiteral(v, indent + 1)),
+			'[',
+			']'
+		);
+	const entries = Object.entries(value as Record<string, unknown>).map(
+		([k, v]) => `${JSON.stringify(k)}: ${pythonLiteral(v, indent + 1)}`
+	);
+	return shape(entries, '{', '}');
+}
+
+function python(r: SampleRequest): string {
+	const imports = ['import requests'];
+	if (r.needsToken) imports.unshift('import os');
+	if (r.isList) imports.push('import pandas as pd');
+	const args = [JSON.stringify(r.url)];
+	if (r.query.length) {
+		const params = Object.fromEntries(r.query.map(([k, v]) => [k, Array.isArray(v) ? [...v] : v]));
+		args.push(`params=${pythonLiteral(params, 1)}`);
+	}
+	if (r.needsToken)
+		args.push(`headers={"Authorization": f"Bearer {os.environ['${TOKEN_VARIABLE}']}"}`);
+	const multipart = r.body?.mediaType === 'multipart/form-data';
+	const { file, ...fields } = multipart ? (r.body?.example as Record<string, string>) : {};
+	if (r.body?.mediaType === 'application/json')
+		args.push(`json=${pythonLiteral(r.body.example, 1)}`);
+	if (multipart) {
+		args.push(`data=${pythonLiteral(fields, 1)}`);
+		args.push(`files={"file": (${JSON.stringify(file)}, f, "text/csv")}`);
+	}
+	args.push('timeout=60');
+	const call = [`r = requests.${r.method.toLowerCase()}(`, ...args.map((a) => `    ${a},`), ')'];
+	const lines = [...imports, ''];
+	if (multipart) {
+		lines.push(`with open(${JSON.stringify(file)}, "rb") as f:`);
+		lines.push(
+			...call
+				.join('\n')
+				.split('\n')
+				.map((l) => `    ${l}`)
+		);
+	} else {
+		lines.push(...call);
+	}
+	lines.push('r.raise_for_status()');
+	if (r.isList) {
+		lines.push('page = r.json()');
+		lines.push('# one row per item; nested fields become columns such as centre.label');
+		lines.push('df = pd.json_normalize(page["items"])');
+		lines.push(
+			'print(page["total"], "rows match;", len(df), "in this page; next:", page["links"]["next"])'
+		);
+	} else {
+		lines.push('print(r.json())');
+	}
+	return lines.join('\n');
+}
+
+/** A string in R's single quotes. */
+const rQuote = (s: string) => `'${s.replaceAll('\\', '\\\\').replaceAll("'", "\\'")}'`;
+
+function r(r: SampleRequest): string {
+	const lines = ['library(httr2)', '', `resp <- request(${rQuote(r.url)}) |>`];
+	if (r.query.length) {
+		const args = r.query.map(([k, v]) =>
+			typeof v === 'number' ? `${k} = ${v}` : `${k} = ${rQuote(queryValue(v))}`
+		);
+		lines.push(`  req_url_query(${args.join(', ')}) |>`);
+	}
+	if (r.needsToken) lines.push(`  req_auth_bearer_token(Sys.getenv("${TOKEN_VARIABLE}")) |>`);
+	if (r.body?.mediaType === 'application/json') {
+		lines.push(
+			`  req_body_raw(${rQuote(JSON.stringify(r.body.example, null, 2))}, type = "application/json") |>`
+		);
+	} else if (r.body) {
+		const parts = Object.entries(r.body.example as Record<string, string>).map(([k, v]) =>
+			k === 'file'
+				? `file = curl::form_file(${rQuote(v)}, type = "text/csv")`
+				: `${k} = ${rQuote(v)}`
+		);
+		lines.push(`  req_body_multipart(${parts.join(', ')}) |>`);
+	}
+	lines.push('  req_perform()');
+	if (r.isList) {
+		lines.push(
+			'# a data frame, one row per item; nested fields flattened into columns such as centre.label'
+		);
+		lines.push('page <- jsonlite::fromJSON(resp_body_string(resp), flatten = TRUE)');
+		lines.push('items <- page$items');
+		lines.push('cat(page$total, "rows match;", NROW(items), "in this page\\n")');
+	} else {
+		lines.push('answer <- jsonlite::fromJSON(resp_body_string(resp))');
+		lines.push('str(answer)');
+	}
+	return lines.join('\n');
+}
+
+/** curl, Python and R for the operation's example request against `apiBase` (…/api/v1). */
+export function codeSamples(op: ApiOperation, apiBase: string): CodeSample[] {
+	const request = requestOf(op, apiBase);
+	return [
+		{ lang: 'Shell', label: 'curl', source: curl(request) },
+		{ lang: 'Python', label: 'Python', source: python(request) },
+		{ lang: 'R', label: 'R', source: r(request) }
+	];
+}

@@ -1,0 +1,582 @@
+import { z } from 'zod';
+import {
+	apiPageSchema,
+	catalogueFacetsSchema,
+	centreDtoSchema,
+	centreRefSchema,
+	distanceDtoSchema,
+	entryAnswerSchema,
+	facetCountSchema,
+	potentialDtoSchema,
+	proteinDtoSchema,
+	proteinRefSchema,
+	sourceRefSchema,
+	spinRecordDtoSchema,
+	versionSummarySchema
+} from '$lib/catalogue/dto';
+import { ENTRY_KINDS, KINDS } from '$lib/kinds';
+import { apiErrorBodySchema } from '$lib/schemas/apiError';
+import {
+	hopRateQuerySchema,
+	titrationRequestSchema,
+	tunnellingRequestSchema
+} from '$lib/schemas/calc';
+import {
+	hopRateResponseSchema,
+	titrationResponseSchema,
+	tunnellingResponseSchema
+} from '$lib/schemas/calcResponses';
+import {
+	centreApiQuerySchema,
+	distanceApiQuerySchema,
+	entryApiQuerySchema,
+	potentialApiQuerySchema,
+	proteinApiQuerySchema,
+	spinRecordApiQuerySchema
+} from '$lib/schemas/catalogueQuery';
+import {
+	submissionCreatedSchema,
+	submissionViewSchema,
+	uploadCheckSummarySchema
+} from '$lib/schemas/curationResponses';
+import { accessionField } from '$lib/schemas/fields';
+import { apiSubmissionSchema, visibilityRequestSchema } from '$lib/schemas/submission';
+import { versionWarningSchema } from '$lib/schemas/versionWarning';
+import { fitNernst } from '$lib/science';
+import { hopRateAnswer, titrationAnswer, tunnellingAnswer } from '../calc/answers';
+import { runTunnelling } from '../calc/tunnelling';
+import { uploadCheckQuerySchema, uploadKindField } from '../uploads/uploadForm';
+import { EXAMPLES } from './examples';
+
+/*
+ * Every operation of the API under /api/v1, described once: the zod schemas its route validates
+ * with (query, path and body) and the schemas of its answers. `document.ts` turns this table
+ * into the OpenAPI document; tests/unit/openapi.test.ts fails when a route file under
+ * src/routes/api/v1 has no operation here, or an operation no route.
+ */
+
+export type Tag = 'About' | 'Catalogue' | 'Calculators' | 'Contributors';
+
+export const TAGS: Record<Tag, string> = {
+	About: 'What the API offers, and this description of it.',
+	Catalogue:
+		'Approved entries: lists with the search page’s filters (JSON or CSV, cursor paging), one entry at any version, and facet counts. Public data needs no account; a token or a session adds the entries of your groups.',
+	Calculators:
+		'Electron hop rates, titration fits and proton tunnelling: model estimates with their cautions, never measurements. Titration and tunnelling run in worker threads with a time limit.',
+	Contributors:
+		'Depositing entries and checking CSV files: contributors only, with a token of scope read+submit or a signed-in session.'
+};
+
+/** Who may call an operation: anyone (a token or session widens what reads see), or contributors. */
+export type Access = 'anyone' | 'contributor';
+
+/** A query or path value in an example request; lists repeat (or join with commas). */
+export type ExampleValue = string | number | boolean | readonly string[];
+
+export interface ApiOperation {
+	operationId: string;
+	method: 'get' | 'post';
+	/** Below /api/v1, with OpenAPI's `{name}` for path parameters. */
+	path: string;
+	tag: Tag;
+	summary: string;
+	description: string;
+	access: Access;
+	pathParams?: Record<string, { schema: z.ZodType; description: string; example: ExampleValue }>;
+	/** The route's query schema (its shape; ordered-range refinements are said in `description`). */
+	query?: z.ZodObject;
+	/** What a parameter means here, where it differs from `PARAMETER_TEXT`. */
+	parameterText?: Record<string, string>;
+	/** An example request's query and path values: parameter examples and code samples use it. */
+	example?: Record<string, ExampleValue>;
+	body?: {
+		mediaType: 'application/json' | 'multipart/form-data';
+		schema: z.ZodType;
+		description: string;
+		example: unknown;
+	};
+	success: {
+		status: 200 | 201;
+		description: string;
+		/** The name of the answer's schema in `RESPONSE_SCHEMAS`; null: described in words only. */
+		schema: ResponseSchemaName | null;
+		/** The answer also comes as CSV (with ?format=csv), described so. */
+		csv?: string;
+		headers?: Record<string, string>;
+		/** An example of the answer; the calculators' are computed by the calculators (a function). */
+		example?: unknown;
+	};
+	/** Error statuses the operation may answer besides those every operation may (401, 429, 500). */
+	errors: readonly (400 | 403 | 404 | 409 | 413 | 422 | 503)[];
+}
+
+/** Per-kind request bodies of POST /submissions: the API schema with each kind's input schema as `data`. */
+function submissionBodySchema() {
+	const variants = ENTRY_KINDS.map((kind) => {
+		const module = KINDS[kind];
+		return apiSubmissionSchema.extend({
+			kind: z.literal(kind),
+			data: (module.input?.schema ?? module.schema).describe(
+				'The entry’s fields, as the entry form of its kind takes them (a potential as reported; it is normalised on the server).'
+			),
+			visibility: visibilityRequestSchema
+				.default({ visibility: 'public', groupId: null, embargoUntil: null })
+				.describe(
+					'Who may see the entry once approved: public, one group (groupId), or a group until an embargo date (YYYY-MM-DD, UTC).'
+				)
+		});
+	});
+	return z.discriminatedUnion('kind', variants as [(typeof variants)[number], ...typeof variants]);
+}
+
+/** The API's index: what /api/v1 answers, made from this document (index.ts). */
+export const apiIndexSchema = z.strictObject({
+	name: z.string(),
+	version: z.string(),
+	description: z.string(),
+	openapi: z.string().describe('The OpenAPI 3.1 document of the API.'),
+	reference: z.string().describe('The reference page for people.'),
+	endpoints: z.array(
+		z.strictObject({
+			method: z.enum(['GET', 'POST']),
+			path: z.string(),
+			summary: z.string(),
+			parameters: z.array(z.string()).describe('Query parameters.')
+		})
+	),
+	errors: z.strictObject({
+		shape: z.string(),
+		codes: z.array(z.string()).describe('The closed list of error codes.')
+	})
+});
+export type ApiIndex = z.infer<typeof apiIndexSchema>;
+
+/** The answers' schemas, each a named component of the document. */
+export const RESPONSE_SCHEMAS = {
+	ApiError: apiErrorBodySchema,
+	ApiIndex: apiIndexSchema,
+	ProteinRef: proteinRefSchema,
+	CentreRef: centreRefSchema,
+	SourceRef: sourceRefSchema,
+	Protein: proteinDtoSchema,
+	Centre: centreDtoSchema,
+	Potential: potentialDtoSchema,
+	SpinRecord: spinRecordDtoSchema,
+	Distance: distanceDtoSchema,
+	ProteinPage: apiPageSchema(proteinDtoSchema),
+	CentrePage: apiPageSchema(centreDtoSchema),
+	PotentialPage: apiPageSchema(potentialDtoSchema),
+	SpinRecordPage: apiPageSchema(spinRecordDtoSchema),
+	DistancePage: apiPageSchema(distanceDtoSchema),
+	VersionSummary: versionSummarySchema,
+	Entry: entryAnswerSchema,
+	FacetCount: facetCountSchema,
+	Facets: catalogueFacetsSchema,
+	HopRate: hopRateResponseSchema,
+	TitrationFit: titrationResponseSchema,
+	Tunnelling: tunnellingResponseSchema,
+	VersionWarning: versionWarningSchema,
+	SubmissionCreated: submissionCreatedSchema,
+	Submission: submissionViewSchema,
+	UploadCheck: uploadCheckSummarySchema
+} as const;
+export type ResponseSchemaName = keyof typeof RESPONSE_SCHEMAS;
+
+/** What each query parameter means; a test fails when a parameter of an operation has no text. */
+export const PARAMETER_TEXT: Record<string, string> = {
+	q: 'Free text: protein, organism, centre label, cofactor kind, ligation or accession. Every word must match; the last word is a prefix, and words of five letters or more forgive one typo.',
+	kind: 'Cofactor kinds (any of).',
+	organism: 'Organisms, exact names (any of).',
+	method: 'Methods (any of).',
+	emMin: 'Lowest midpoint potential, mV vs SHE.',
+	emMax: 'Highest midpoint potential, mV vs SHE.',
+	phMin: 'Lowest pH.',
+	phMax: 'Highest pH.',
+	tMin: 'Lowest temperature, K.',
+	tMax: 'Highest temperature, K.',
+	protein: 'Only rows of this protein (its accession).',
+	centre: 'Only rows of this centre (its accession).',
+	spin: 'Total spin S.',
+	edgeMin: 'Shortest edge-to-edge distance, Å.',
+	edgeMax: 'Longest edge-to-edge distance, Å.',
+	sort: 'Sort key; without it, the list’s own order (relevance when searching text).',
+	order: 'Sort direction.',
+	limit: 'Rows per page.',
+	cursor: 'Where the next page starts: `nextCursor` of the previous page, passed back unchanged.',
+	format: 'json, or csv for a CSV download of the same rows.',
+	version: 'A version number; the latest approved version when omitted.',
+	distance: 'Edge-to-edge distance between the two centres, Å.',
+	dG: 'Driving force ΔG° of the forward hop, eV (negative downhill).',
+	lambda: 'Reorganization energy λ, eV.',
+	model: 'moser-dutton (empirical ruler) or marcus (nonadiabatic Marcus theory).',
+	temperature: 'Temperature, K.',
+	packing: 'Protein packing density ρ between the centres, 0–1 (0.76 is the ruler’s average).',
+	h0: 'Marcus only: electronic coupling at contact, eV (default: the Moser–Dutton calibration).',
+	beta: 'Marcus only: distance decay of the coupling, Å⁻¹ (default ln10·(1.2 − 0.8ρ)).'
+};
+
+const accession = {
+	schema: accessionField,
+	description: 'The entry’s accession (HL and six or more digits).',
+	example: 'HL000052'
+};
+
+const listDescription =
+	'JSON by default: `{ items, total, nextCursor, links }`. With `format=csv`, the same rows as CSV (a header row first) with the total in `X-Total-Count` and the next page in `Link`. Filters that take lists repeat or separate values with commas.';
+
+const csvHeaders = {
+	'X-Total-Count': 'With format=csv: rows matching the query, over all pages.',
+	Link: 'With format=csv: `<url>; rel="next"` when there is a next page.'
+};
+
+const TITRATION_EXAMPLE = {
+	points: [
+		{ potentialMv: -500, signal: 0.98 },
+		{ potentialMv: -450, signal: 0.93 },
+		{ potentialMv: -400, signal: 0.75 },
+		{ potentialMv: -360, signal: 0.46 },
+		{ potentialMv: -320, signal: 0.2 },
+		{ potentialMv: -280, signal: 0.06 },
+		{ potentialMv: -220, signal: 0.01 }
+	],
+	components: 1,
+	n: 1
+};
+
+const TUNNELLING_EXAMPLE = { imagFreqCm1: 1200, barrierKJmol: 50, temperatureK: 298.15 };
+
+export const OPERATIONS: readonly ApiOperation[] = [
+	{
+		operationId: 'getIndex',
+		method: 'get',
+		path: '/',
+		tag: 'About',
+		summary: 'What the API offers',
+		description:
+			'The endpoints with their parameters, and where this document and the reference page are; generated from this document.',
+		access: 'anyone',
+		success: { status: 200, description: 'The index.', schema: 'ApiIndex' },
+		errors: []
+	},
+	{
+		operationId: 'getOpenApiDocument',
+		method: 'get',
+		path: '/openapi.json',
+		tag: 'About',
+		summary: 'This OpenAPI 3.1 document',
+		description:
+			'Generated once per server process from the zod schemas the routes validate with, and served with a strong ETag: send `If-None-Match` to get 304 when it has not changed.',
+		access: 'anyone',
+		success: {
+			status: 200,
+			description: 'The OpenAPI document (JSON).',
+			schema: null,
+			headers: { ETag: 'Changes only when the document does.' }
+		},
+		errors: []
+	},
+	{
+		operationId: 'listPotentials',
+		method: 'get',
+		path: '/potentials',
+		tag: 'Catalogue',
+		summary: 'Midpoint potentials',
+		description: `Potentials with the search page’s filters and sort orders; \`emMin\` must not exceed \`emMax\`, nor \`phMin\` \`phMax\`, nor \`tMin\` \`tMax\`. ${listDescription}`,
+		access: 'anyone',
+		query: potentialApiQuerySchema,
+		example: { kind: ['fe4s4'], emMin: -400, emMax: -200, sort: 'em', limit: 50 },
+		success: {
+			status: 200,
+			description: 'A page of potentials.',
+			schema: 'PotentialPage',
+			example: EXAMPLES.potentialPage,
+			csv: 'The page as CSV, one row per potential (columns documented at /csv/columns for uploads; the API adds accession, protein and source columns).',
+			headers: csvHeaders
+		},
+		errors: [400]
+	},
+	{
+		operationId: 'listProteins',
+		method: 'get',
+		path: '/proteins',
+		tag: 'Catalogue',
+		summary: 'Proteins and complexes',
+		description: `Proteins by text and organism. ${listDescription}`,
+		access: 'anyone',
+		query: proteinApiQuerySchema,
+		parameterText: {
+			q: 'Free text: name, organism or accession; the last word is a prefix, words of five letters or more forgive one typo.'
+		},
+		example: { q: 'ferredoxin', sort: 'name' },
+		success: {
+			status: 200,
+			description: 'A page of proteins.',
+			schema: 'ProteinPage',
+			example: EXAMPLES.proteinPage,
+			csv: 'The page as CSV, one row per protein.',
+			headers: csvHeaders
+		},
+		errors: [400]
+	},
+	{
+		operationId: 'listCentres',
+		method: 'get',
+		path: '/centres',
+		tag: 'Catalogue',
+		summary: 'Redox centres',
+		description: `Centres by text, cofactor kind, organism and protein. ${listDescription}`,
+		access: 'anyone',
+		query: centreApiQuerySchema,
+		example: { kind: ['fe4s4', 'fe2s2_rieske'], sort: 'protein' },
+		success: {
+			status: 200,
+			description: 'A page of centres.',
+			schema: 'CentrePage',
+			example: EXAMPLES.centrePage,
+			csv: 'The page as CSV, one row per centre.',
+			headers: csvHeaders
+		},
+		errors: [400]
+	},
+	{
+		operationId: 'listSpinRecords',
+		method: 'get',
+		path: '/spin-records',
+		tag: 'Catalogue',
+		summary: 'Spin states and g-values',
+		description: `Spin records (S and EPR g-values of one oxidation level of a centre). ${listDescription}`,
+		access: 'anyone',
+		query: spinRecordApiQuerySchema,
+		example: { spin: 0.5, sort: 'temperature' },
+		success: {
+			status: 200,
+			description: 'A page of spin records.',
+			schema: 'SpinRecordPage',
+			example: EXAMPLES.spinRecordPage,
+			csv: 'The page as CSV, one row per spin record.',
+			headers: csvHeaders
+		},
+		errors: [400]
+	},
+	{
+		operationId: 'listDistances',
+		method: 'get',
+		path: '/distances',
+		tag: 'Catalogue',
+		summary: 'Distances between centres',
+		description: `Edge-to-edge and centre-to-centre distances (Å) between two centres of a protein, as measured in a structure; \`edgeMin\` must not exceed \`edgeMax\`. ${listDescription}`,
+		access: 'anyone',
+		query: distanceApiQuerySchema,
+		example: { edgeMax: 14, sort: 'edge' },
+		success: {
+			status: 200,
+			description: 'A page of distances.',
+			schema: 'DistancePage',
+			example: EXAMPLES.distancePage,
+			csv: 'The page as CSV, one row per distance.',
+			headers: csvHeaders
+		},
+		errors: [400]
+	},
+	{
+		operationId: 'getEntry',
+		method: 'get',
+		path: '/entries/{accession}',
+		tag: 'Catalogue',
+		summary: 'One entry at its latest or a given version',
+		description:
+			'Any kind of entry (protein, centre, potential, spin record, distance, source) with its version history and the titles of the entries it refers to. A version’s data never changes; cite its `permalink`. An entry the reader may not see answers exactly as an unknown accession (404).',
+		access: 'anyone',
+		pathParams: { accession },
+		query: entryApiQuerySchema,
+		example: { accession: 'HL000052', version: 1 },
+		success: {
+			status: 200,
+			description: 'The entry at that version.',
+			schema: 'Entry',
+			example: EXAMPLES.entry
+		},
+		errors: [400, 404]
+	},
+	{
+		operationId: 'getFacets',
+		method: 'get',
+		path: '/facets',
+		tag: 'Catalogue',
+		summary: 'Counts per cofactor kind, organism and method',
+		description:
+			'Counts of the potentials the reader may see, and totals of proteins, centres and potentials.',
+		access: 'anyone',
+		success: {
+			status: 200,
+			description: 'The counts.',
+			schema: 'Facets',
+			example: EXAMPLES.facets
+		},
+		errors: []
+	},
+	{
+		operationId: 'calculateHopRate',
+		method: 'get',
+		path: '/calc/hop-rate',
+		tag: 'Calculators',
+		summary: 'Electron hop rate between two centres',
+		description:
+			'Forward rate from ΔG° under the Moser–Dutton ruler or nonadiabatic Marcus theory, backward rate by detailed balance at T. Runs on the request thread (a closed form).',
+		access: 'anyone',
+		query: hopRateQuerySchema,
+		example: { distance: 9.4, dG: -0.1, lambda: 0.7 },
+		success: {
+			status: 200,
+			description: 'The rates under the chosen model.',
+			schema: 'HopRate',
+			example: () =>
+				hopRateAnswer(hopRateQuerySchema.parse({ distance: 9.4, dG: -0.1, lambda: 0.7 }))
+		},
+		errors: [400]
+	},
+	{
+		operationId: 'fitTitration',
+		method: 'post',
+		path: '/calc/titration',
+		tag: 'Calculators',
+		summary: 'Nernst fit of a redox titration',
+		description:
+			'One or two Nernstian components, n fixed or fitted, with standard errors and residuals. Runs in a worker thread: past its time limit the answer is 422, with every worker busy and the queue full 503, and without an account an address may run a limited number of calculations a minute (429); 503 and 429 carry Retry-After.',
+		access: 'anyone',
+		body: {
+			mediaType: 'application/json',
+			schema: titrationRequestSchema,
+			description: 'The titration points (potential in mV, signal) and the model.',
+			example: TITRATION_EXAMPLE
+		},
+		success: {
+			status: 200,
+			description: 'The fitted components.',
+			schema: 'TitrationFit',
+			example: () => {
+				const { points, ...options } = titrationRequestSchema.parse(TITRATION_EXAMPLE);
+				return titrationAnswer(fitNernst(points, options));
+			}
+		},
+		errors: [400, 422, 503]
+	},
+	{
+		operationId: 'calculateTunnelling',
+		method: 'post',
+		path: '/calc/tunnelling',
+		tag: 'Calculators',
+		summary: 'Proton and hydride tunnelling',
+		description:
+			'Wigner and Bell tunnelling factors from an imaginary frequency, and/or the vibrational levels of a double well or a sampled potential (discrete variable representation) with the adiabaticity test and the H/D isotope effect. Runs in a worker thread, with the same limits as the titration fit.',
+		access: 'anyone',
+		body: {
+			mediaType: 'application/json',
+			schema: tunnellingRequestSchema,
+			description:
+				'At least an imaginary frequency (imagFreqCm1) or a potential; a potential is a symmetric double well with a tilt, or sampled points.',
+			example: TUNNELLING_EXAMPLE
+		},
+		success: {
+			status: 200,
+			description: 'Factors and/or levels.',
+			schema: 'Tunnelling',
+			example: () =>
+				tunnellingAnswer(runTunnelling(tunnellingRequestSchema.parse(TUNNELLING_EXAMPLE)))
+		},
+		errors: [400, 422, 503]
+	},
+	{
+		operationId: 'createSubmission',
+		method: 'post',
+		path: '/submissions',
+		tag: 'Contributors',
+		summary: 'Deposit one entry',
+		description:
+			'A new entry, or with `edit` a new version of an existing one, as a draft or (with `submit: true`) straight into review. `data` holds the entry form’s fields, checked by the same schemas as the forms (a potential as reported: reportedValue, reportedUnit, referenceElectrode; it is normalised to mV vs SHE). Values outside typical ranges or disagreeing with approved ones come back as warnings, never refusals. Errors in `data` are named `data.<field>`.',
+		access: 'contributor',
+		body: {
+			mediaType: 'application/json',
+			schema: submissionBodySchema(),
+			description:
+				'The entry’s kind and data, who may see it, a note to curators, and whether to submit it now.',
+			example: {
+				kind: 'potential',
+				data: {
+					centreAccession: 'HL000012',
+					couple: '[4Fe-4S]2+/1+',
+					reportedValue: -623,
+					reportedUnit: 'mV',
+					referenceElectrode: 'SCE',
+					ph: 7.5,
+					temperatureK: 298.15,
+					method: 'protein_film_voltammetry'
+				},
+				changeNote: 'From the second titration of the paper.',
+				submit: true
+			}
+		},
+		success: {
+			status: 201,
+			description: 'The submission, with its warnings.',
+			schema: 'SubmissionCreated',
+			example: EXAMPLES.submissionCreated,
+			headers: { Location: 'The submission in the API.' }
+		},
+		errors: [400, 403, 409, 413]
+	},
+	{
+		operationId: 'getSubmission',
+		method: 'get',
+		path: '/submissions/{id}',
+		tag: 'Contributors',
+		summary: 'One submission',
+		description:
+			'A submission with its proposed versions, their differences from the approved version, warnings, reviews and comments — for its contributor or a curator; anyone else gets 404.',
+		access: 'contributor',
+		pathParams: {
+			id: {
+				schema: z.number().int().min(1).max(9_999_999_999),
+				description: 'The submission’s number.',
+				example: 57
+			}
+		},
+		example: { id: 57 },
+		success: {
+			status: 200,
+			description: 'The submission.',
+			schema: 'Submission',
+			example: EXAMPLES.submissionView
+		},
+		errors: [403, 404]
+	},
+	{
+		operationId: 'checkUpload',
+		method: 'post',
+		path: '/uploads/check',
+		tag: 'Contributors',
+		summary: 'Check a CSV file without writing anything',
+		description:
+			'The dry run of a CSV upload: every row checked by the entry schemas and against the registry (references, duplicates, conflicts). JSON: counts, every issue by row and column, and a preview of what a commit would create; `?format=csv`: the issues as a CSV report (row, column, value, severity, message). Columns and templates: /csv/columns.',
+		access: 'contributor',
+		query: uploadCheckQuerySchema,
+		parameterText: { format: 'json for the check, csv for the issue report as a CSV download.' },
+		body: {
+			mediaType: 'multipart/form-data',
+			schema: z.strictObject({
+				kind: uploadKindField,
+				file: z.file().mime('text/csv').describe('The CSV file (UTF-8, comma, semicolon or tab).')
+			}),
+			description: 'The kind of rows and the file.',
+			example: { kind: 'potential', file: 'potentials.csv' }
+		},
+		success: {
+			status: 200,
+			description: 'The check.',
+			schema: 'UploadCheck',
+			example: EXAMPLES.uploadCheck,
+			csv: 'With format=csv: the issue report (row, column, value, severity, message).'
+		},
+		errors: [400, 403, 413]
+	}
+];
