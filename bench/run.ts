@@ -29,6 +29,7 @@ import { recordOutput, writeResults } from './results';
 import { benchApproval } from './approval';
 import { benchHttp } from './http';
 import { rssMb, startRawServer, type RawServer } from './processes';
+import { freePort } from '../tests/support/server';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -139,7 +140,8 @@ async function load(
 
 async function benchApi() {
 	if (!existsSync('build/index.js')) throw new Error('Run `npm run build` before `npm run bench`.');
-	const appPort = 3101;
+	// BENCH_APP_PORT when several people bench on one machine; otherwise any free port.
+	const appPort = Number(process.env.BENCH_APP_PORT ?? 0) || (await freePort());
 	const env = { ...process.env, DATABASE_PATH: DATASET, HOPLINE_DEMO: 'false' };
 	const app = spawn(process.execPath, serverArgs(), {
 		env: {
