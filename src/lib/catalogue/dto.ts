@@ -81,18 +81,26 @@ export interface DistanceDto {
 	centreA: CentreRef;
 	centreB: CentreRef;
 	protein: ProteinRef;
-	edgeToEdgeA: number;
-	centreToCentreA: number | null;
+	/** Å; the stored version's field is `edgeToEdgeA` (see DEVELOPERS.md, "Public names"). */
+	edgeToEdgeAngstrom: number;
+	centreToCentreAngstrom: number | null;
 	structureId: string;
 	method: string;
 	source: SourceRef | null;
 	isDemo: boolean;
 }
 
+/**
+ * One page of a list. `offset` is the position of its first row among all `total` matches as
+ * the list stood when the page was read; the cursors lead to the rows right after and right
+ * before it (null at either end).
+ */
 export interface Page<T> {
 	items: T[];
 	total: number;
+	offset: number;
 	nextCursor: string | null;
+	prevCursor: string | null;
 }
 
 export interface VersionSummary {
