@@ -27,6 +27,8 @@ export interface ExportLimits {
 	maxRows: number;
 	concurrency: number;
 	timeLimitMs: number;
+	/** Rows read from the snapshot at a time (default 1 000). */
+	chunkRows?: number;
 }
 
 export interface PotentialExport {
@@ -39,7 +41,6 @@ export interface PotentialExport {
 	cutOff: AbortSignal;
 }
 
-const CHUNK_ROWS = 1000;
 let running = 0;
 
 /** How many exports this process is streaming now (for tests and the limit). */
@@ -93,11 +94,12 @@ export async function exportPotentials(
 		}
 		if (total > limits.maxRows) throw new ExportTooLargeError(total, limits.maxRows);
 		const source = snapshot.db;
+		const chunkRows = limits.chunkRows ?? 1000;
 		async function* chunks(): AsyncGenerator<PotentialDto[], void, undefined> {
 			try {
-				for (let i = 0; i < ids.length; i += CHUNK_ROWS) {
+				for (let i = 0; i < ids.length; i += chunkRows) {
 					cutOff.signal.throwIfAborted();
-					yield await readPotentialRows(source, ids.slice(i, i + CHUNK_ROWS), viewer);
+					yield await readPotentialRows(source, ids.slice(i, i + chunkRows), viewer);
 				}
 			} finally {
 				await release();
