@@ -1,3 +1,4 @@
+import { toPublicFields } from '$lib/kinds/publicNames';
 import { permalinkPath } from '$lib/schemas/accession';
 import { entryApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
@@ -13,6 +14,8 @@ export const GET: RequestHandler = apiHandler(async ({ url, params, locals }) =>
 	const view = await getEntryView(db, params.accession, query.data.version, locals.viewer);
 	return Response.json({
 		...view,
+		// The version's stored fields under their public names (kinds/publicNames.ts).
+		data: toPublicFields(view.data),
 		permalink: new URL(permalinkPath(view.accession, view.version), url).href
 	});
 });
