@@ -493,32 +493,41 @@ export class PotentialIndex {
 		let total = 0;
 		let before = 0;
 		let page: number[] = [];
-		if (query.after || query.before) {
-			const after = query.after !== undefined;
-			const start = query.after ? boundary(query.after, false) : boundary(query.before!, true);
-			// Before a key: the last `limit` matching rows ahead of it; if fewer than a page remain,
-			// the first page instead (see sqlKeyset's restartsAtFirstPage).
-			const firstPage: number[] = [];
-			for (let i = 0; i < seq.length; i++) {
+		if (query.after) {
+			// Matches ahead of the key are counted; the page is the first `limit` past it.
+			const start = boundary(query.after, false);
+			for (let i = 0; i < start; i++) if (test(seq.at(i))) before++;
+			total = before;
+			for (let i = start; i < seq.length; i++) {
 				const r = seq.at(i);
 				if (!test(r)) continue;
 				total++;
-				if (firstPage.length < limit) firstPage.push(r);
-				if (i < start) {
-					before++;
-					if (!after) {
-						page.push(r);
-						if (page.length > 2 * limit) page = page.slice(-limit);
-					}
-				} else if (after && page.length < limit) page.push(r);
+				if (page.length < limit) page.push(r);
 			}
-			if (!after) {
-				page = page.slice(-limit);
-				if (page.length < limit) {
-					page = firstPage;
-					before = page.length;
-				}
-				before -= page.length;
+		} else if (query.before) {
+			// The last `limit` matches ahead of the key; if fewer than a page remain, the first page
+			// instead (see sqlKeyset's restartsAtFirstPage).
+			const start = boundary(query.before, true);
+			for (let i = 0; i < start; i++) {
+				const r = seq.at(i);
+				if (!test(r)) continue;
+				before++;
+				page.push(r);
+				if (page.length > 2 * limit) page = page.slice(-limit);
+			}
+			page = page.slice(-limit);
+			total = before;
+			for (let i = start; i < seq.length; i++) {
+				const r = seq.at(i);
+				if (!test(r)) continue;
+				total++;
+				if (page.length < limit) page.push(r);
+			}
+			// `page` is now at least the rows before the key; a short one becomes the first page.
+			if (before < limit) before = 0;
+			else {
+				page = page.slice(0, limit);
+				before -= limit;
 			}
 		} else {
 			const offset = query.offset ?? 0;
