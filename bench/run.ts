@@ -18,7 +18,6 @@ import { centreSearch } from '../src/lib/server/search/centreSearch';
 import { potentialIndex } from '../src/lib/server/search/potentialIndex';
 import { openDatabase } from '../src/lib/server/db/connect';
 import type { PotentialFilter } from '../src/lib/schemas/catalogueQuery';
-import { encodeCursor } from '../src/lib/schemas/pagination';
 import { ensureDataset } from './dataset';
 import { serverArgs } from '../scripts/serverArgs.js';
 import { benchScience } from './science';
@@ -29,6 +28,7 @@ import { recordOutput, writeResults } from './results';
 import { benchApproval } from './approval';
 import { benchHttp } from './http';
 import { rssMb, startRawServer, type RawServer } from './processes';
+import { freePort } from '../tests/support/server';
 
 const DATASET = 'bench/.data/catalogue-100k.sqlite';
 const SIZE = { proteins: 2500, centresPerProtein: 10, potentialsPerCentre: 4 };
@@ -139,7 +139,8 @@ async function load(
 
 async function benchApi() {
 	if (!existsSync('build/index.js')) throw new Error('Run `npm run build` before `npm run bench`.');
-	const appPort = 3101;
+	// BENCH_APP_PORT when several people bench on one machine; otherwise any free port.
+	const appPort = Number(process.env.BENCH_APP_PORT ?? 0) || (await freePort());
 	const env = { ...process.env, DATABASE_PATH: DATASET, HOPLINE_DEMO: 'false' };
 	const app = spawn(process.execPath, serverArgs(), {
 		env: {
@@ -160,11 +161,19 @@ async function benchApi() {
 		const afterIndex = rssMb(app.pid as number);
 
 		const pages = 200; // the first 200 pages of 100 rows, visited in the same order by both
+		// The app's pages by their keyset cursors, found by walking the list once (links.next).
+		const walkStart = performance.now();
+		const appPages: string[] = [];
+		let next: string | null = `http://127.0.0.1:${appPort}/api/v1/potentials?limit=100`;
+		while (next && appPages.length < pages) {
+			appPages.push(next);
+			const page = (await (await fetch(next)).json()) as { links: { next: string | null } };
+			// Absolute since keyset cursors; a path before (resolved here so older builds compare).
+			next = page.links.next ? new URL(page.links.next, next).href : null;
+		}
+		const walkMs = performance.now() - walkStart;
 		const rawResult = await load((i) => `${rawBase}/?limit=100&offset=${(i % pages) * 100}`);
-		const appResult = await load((i) => {
-			const offset = (i % pages) * 100;
-			return `http://127.0.0.1:${appPort}/api/v1/potentials?limit=100${offset ? `&cursor=${encodeCursor(offset)}` : ''}`;
-		});
+		const appResult = await load((i) => appPages[i % appPages.length]!);
 		const afterLoad = rssMb(app.pid as number);
 		console.log(
 			`\nAPI list throughput, 100 rows a page, ${CONCURRENCY} concurrent clients, ${LOAD_SECONDS} s each`
@@ -176,6 +185,9 @@ async function benchApi() {
 			`  Hopline /api/v1/potentials      ${appResult.rps.toFixed(1)} req/s  (p50 ${ms(appResult.p50)}, p95 ${ms(appResult.p95)}, ${appResult.count} requests)`
 		);
 		console.log(`  ratio ${(appResult.rps / rawResult.rps).toFixed(2)}× raw   (target ≥ 0.5×)`);
+		console.log(
+			`  first walk of the ${appPages.length} pages by links.next (nothing cached yet, one client): ${(walkMs / 1000).toFixed(2)} s, ${ms(walkMs / appPages.length)} a page`
+		);
 		console.log(
 			`\nServer memory (RSS): at start ${before.toFixed(0)} MB, after indexing ${afterIndex.toFixed(0)} MB, after load ${afterLoad.toFixed(0)} MB   (target ≤ 400 MB)`
 		);

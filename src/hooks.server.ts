@@ -1,6 +1,6 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
-import { building } from '$app/environment';
+import { building, version } from '$app/environment';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
 import { migrateToLatest } from '$lib/server/db/migrate';
@@ -18,6 +18,7 @@ import { apiBoundary } from '$lib/server/api/boundary';
 import { authenticateBearer } from '$lib/server/http/bearer';
 import { viewerOf } from '$lib/server/catalogue/visibility';
 import { createReadCache } from '$lib/server/http/readCache';
+import { createCachingHandle } from '$lib/server/http/caching';
 import { catalogueValidityReader } from '$lib/server/catalogue/validity';
 import { createLoopTurns } from '$lib/server/http/loopTurns';
 
@@ -43,16 +44,20 @@ const shareLoopTurns: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
+const catalogueValidity = catalogueValidityReader(db);
 const readCache =
 	config.READ_CACHE_MAX_MB > 0
 		? createReadCache({
-				validity: catalogueValidityReader(db),
+				validity: catalogueValidity,
 				maxBytes: config.READ_CACHE_MAX_MB * 1024 * 1024,
 				maxEntryBytes: config.READ_CACHE_ENTRY_MAX_KB * 1024
 			})
 		: null;
 const cacheSignedOutReads: Handle = (input) =>
 	readCache ? readCache.handle(input) : input.resolve(input.event);
+
+/** ETags, 304s and Cache-Control of catalogue reads for every reader (http/caching.ts). */
+const cacheCatalogueReads = createCachingHandle({ validity: catalogueValidity, build: version });
 
 const attachRequestFacts: Handle = async ({ event, resolve }) => {
 	event.locals.requestId = crypto.randomUUID();
@@ -89,7 +94,8 @@ export const handle: Handle = sequence(
 	authenticateBearer,
 	cacheSignedOutReads,
 	authHandle,
-	attachUser
+	attachUser,
+	cacheCatalogueReads
 );
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {

@@ -205,11 +205,32 @@ describe('catalogue queries', () => {
 		const second = await listPotentials(
 			db,
 			{},
-			{ sort: 'em', order: 'desc', limit: 10, offset: decodeCursor(first.nextCursor ?? '') ?? 0 },
+			{
+				sort: 'em',
+				order: 'desc',
+				limit: 10,
+				cursor: decodeCursor(first.nextCursor ?? '') ?? undefined
+			},
 			null
 		);
 		expect(second.items[0]?.emMvShe).toBeLessThanOrEqual(first.items.at(-1)?.emMvShe ?? 0);
 		expect(new Set([...first.items, ...second.items].map((p) => p.accession)).size).toBe(20);
+		expect(second.offset).toBe(10);
+		// Back from the second page: the first page again.
+		const back = await listPotentials(
+			db,
+			{},
+			{
+				sort: 'em',
+				order: 'desc',
+				limit: 10,
+				cursor: decodeCursor(second.prevCursor ?? '') ?? undefined
+			},
+			null
+		);
+		expect(back.items.map((p) => p.accession)).toEqual(first.items.map((p) => p.accession));
+		expect(back.offset).toBe(0);
+		expect(back.prevCursor).toBeNull();
 	});
 	it('finds centres by words, prefixes and typos', async () => {
 		const byProtein = await listPotentials(db, { q: 'tetraheme' }, page, null);
@@ -318,7 +339,7 @@ describe('catalogue queries', () => {
 			true
 		);
 		const near = await listDistances(db, { edgeMax: 8 }, page, null);
-		expect(near.items.every((d) => d.edgeToEdgeA <= 8)).toBe(true);
+		expect(near.items.every((d) => d.edgeToEdgeAngstrom <= 8)).toBe(true);
 	});
 	it('an unknown accession or version is not found', async () => {
 		await expect(getEntryView(db, 'HL999999', undefined, null)).rejects.toThrow(EntryNotFoundError);

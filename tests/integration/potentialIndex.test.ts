@@ -25,7 +25,7 @@ import {
 import { loadDemoScenario } from '$seed/load';
 import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/entries';
 import { normalisePotential, potentialInputSchema } from '$lib/schemas/potential';
-import { PotentialIndex, loadColumns } from '$lib/server/search/potentialIndex';
+import { PotentialIndex, loadColumns, type IndexResult } from '$lib/server/search/potentialIndex';
 import { createTempDatabase } from '../support/tempDb';
 
 // The in-memory columns must answer exactly as SQL over the same read-model table would.
@@ -183,7 +183,17 @@ const ORGANISMS = [
 	'Ünïcode ß',
 	'Zz\u001ezz'
 ];
-const NAMES = ['ferredoxin', 'Ferredoxin', 'cytochrome c', 'hydrogenase "large"', 'aa\u001fbb'];
+// Two names JavaScript's `<` orders the other way round from SQLite (UTF-16 units against code
+// points: U+FF46 against U+1D523), so that keyset positions in the text orders are tested too.
+const NAMES = [
+	'ferredoxin',
+	'Ferredoxin',
+	'cytochrome c',
+	'hydrogenase "large"',
+	'aa\u001fbb',
+	'\uff46erredoxin',
+	'\u{1d523}erredoxin'
+];
 const LABELS = ['FS0', 'FS1', 'heme A', 'Cu_A', 'fs1'];
 const COUPLES = ['ox/red', 'A,b;"c"\u001f'];
 /** Kinds with several couples, one with one, and 'other', which takes any. */
@@ -393,9 +403,13 @@ function resolveQuery(built: Built, q: QuerySpec) {
 		tMax: q.tMax
 	};
 	const accession = pick(everything, q.accession)?.id;
+	// Scores fall with the ranking, with ties (which the index breaks by centre id).
 	const rankedCentres =
 		q.sort === 'relevance' && q.ranked
-			? [...new Set(q.ranked.map((i) => pick(built.centres, i)!.id))]
+			? [...new Set(q.ranked.map((i) => pick(built.centres, i)!.id))].map((id, i, all) => ({
+					id,
+					score: Math.ceil((all.length - i) / 2)
+				}))
 			: undefined;
 	return { viewer, filter, accession, rankedCentres };
 }
@@ -441,13 +455,18 @@ async function sqlAnswer(
 	if (r.rankedCentres) {
 		const ranked = r.rankedCentres;
 		if (ranked.length === 0) return [];
-		query = query.where('p.centre_entry_id', 'in', ranked);
-		const rank = sql`case ${sql.join(
-			ranked.map((id, i) => sql`when p.centre_entry_id = ${id} then ${i}`),
+		query = query.where(
+			'p.centre_entry_id',
+			'in',
+			ranked.map((c) => c.id)
+		);
+		const score = sql`case ${sql.join(
+			ranked.map((c) => sql`when p.centre_entry_id = ${c.id} then ${c.score}`),
 			sql` `
 		)} end`;
-		// Centres in the ranking's order (reversed for desc); a centre's rows by accession.
-		order = sql`${rank} ${dir}, p.entry_id asc`;
+		// Best score first, ties by centre, a centre's rows by accession; desc reverses it all.
+		const back = q.order === 'asc' ? sql`desc` : sql`asc`;
+		order = sql`${score} ${back}, p.centre_entry_id ${dir}, p.entry_id ${dir}`;
 	} else {
 		const sort = q.sort === 'relevance' ? 'protein' : q.sort;
 		const numeric = {
@@ -556,6 +575,29 @@ describe('in-memory potential columns on random catalogues and readers', () => {
 							expect(page.page).toEqual(expected.slice(q.offset, q.offset + q.limit));
 							expect(page.total).toBe(expected.length);
 
+							// Keyset: pages after the last row's key, then back before the first's,
+							// give the same rows in the same order, with their offsets.
+							const base = {
+								filter: r.filter,
+								accession: r.accession,
+								rankedCentres: r.rankedCentres,
+								sort: q.sort,
+								order: q.order,
+								limit: q.limit
+							};
+							const forward: IndexResult[] = [index.query(base, visible)];
+							// As the API does: a next page while rows remain after this one.
+							const more = (p: IndexResult) => p.last && p.offset + p.page.length < p.total;
+							while (more(forward.at(-1)!) && forward.length <= expected.length)
+								forward.push(index.query({ ...base, after: forward.at(-1)!.last! }, visible));
+							expect(forward.flatMap((p) => p.page)).toEqual(expected);
+							forward.forEach((p, i) => expect(p.offset).toBe(i * q.limit));
+							for (let i = forward.length - 2; i > 0; i--) {
+								const back = index.query({ ...base, before: forward[i]!.first! }, visible);
+								expect(back.page).toEqual(forward[i - 1]!.page);
+								expect(back.offset).toBe(forward[i - 1]!.offset);
+							}
+
 							const facets = index.facets(visible);
 							const oracle = await sqlFacets(built.db, r.viewer);
 							const asObject = (list: { value: string; count: number }[]) =>
@@ -619,6 +661,53 @@ describe('in-memory potential columns on random catalogues and readers', () => {
 });
 
 describe('loading the columns', () => {
+	it('walks text orders by keyset where UTF-16 and SQLite disagree', async () => {
+		// Every name, each on its own protein: a walk of one row a page puts a cursor on each, so
+		// every pair of neighbours in SQLite's order is compared (U+FF46 sorts before U+1D523 there).
+		const built = await buildCatalogue({
+			groups: GROUPS,
+			proteins: NAMES.map((name) => ({
+				name,
+				organism: 'Thermus aquaticus',
+				vis: { visibility: 'public' as const }
+			})),
+			centres: NAMES.map((_, i) => ({
+				protein: i,
+				label: 'FS1',
+				kind: 'other' as const,
+				vis: { visibility: 'public' as const }
+			})),
+			potentials: NAMES.map((_, i) => ({
+				centre: i,
+				couple: 0,
+				mv: 0,
+				ph: 7,
+				t: 298.15,
+				method: 'epr_titration' as const,
+				vis: { visibility: 'public' as const }
+			}))
+		});
+		try {
+			const index = new PotentialIndex();
+			await index.ensureCurrent(built.db);
+			const visible = potentialRowVisibility(null);
+			for (const order of ['asc', 'desc'] as const) {
+				const expected = await sqlAnswer(
+					built.db,
+					{ viewer: null, sort: 'protein', order, offset: 0, limit: 1 },
+					{ viewer: null, filter: {}, accession: undefined, rankedCentres: undefined }
+				);
+				const base = { filter: {}, sort: 'protein' as const, order, limit: 1 };
+				const walked = [index.query(base, visible)];
+				while (walked.length < NAMES.length)
+					walked.push(index.query({ ...base, after: walked.at(-1)!.last! }, visible));
+				expect(walked.flatMap((p) => p.page)).toEqual(expected);
+			}
+		} finally {
+			await built.remove();
+		}
+	});
+
 	it('keeps the values of each potential together, whatever characters its text holds', async () => {
 		// Separate concatenations per column, or a separator inside an organism's name, would
 		// shift one column against the others; each row is checked against SQLite here.

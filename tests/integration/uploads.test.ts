@@ -173,6 +173,42 @@ describe('checking a CSV file', () => {
 			{ row: 2, severity: 'warning', message: `already in the registry as ${distance.accession}` }
 		]);
 	});
+	it('reads the ångström columns by their public names and by the names used before', async () => {
+		const [a, b] = await db
+			.selectFrom('centre as c')
+			.innerJoin('entry as e', 'e.id', 'c.entry_id')
+			.select('e.accession')
+			.where('e.visibility', '=', 'public')
+			.orderBy('e.id')
+			.limit(2)
+			.execute();
+		for (const header of [
+			'centreAAccession,centreBAccession,edge_to_edge_angstrom,centreToCentreAngstrom,structureId,method',
+			'centreAAccession,centreBAccession,edgeToEdgeA,centre_to_centre_a,structureId,method'
+		]) {
+			const check = await checkUpload(
+				db,
+				`${header}\n${a!.accession},${b!.accession},9.5,12,NEWS,crystal_structure\n`,
+				'distance',
+				options
+			);
+			expect(
+				check.issues.filter((i) => i.severity === 'error'),
+				header
+			).toEqual([]);
+			expect(check.entries[0]?.entry.data).toMatchObject({ edgeToEdgeA: 9.5, centreToCentreA: 12 });
+		}
+		// A missing required column is named as templates name it.
+		const missing = await checkUpload(
+			db,
+			`centreAAccession,centreBAccession,structureId,method\n${a!.accession},${b!.accession},S,crystal_structure\n`,
+			'distance',
+			options
+		);
+		expect(missing.issues.find((i) => i.row === 1)?.message).toMatch(
+			/^missing column "edgeToEdgeAngstrom"/
+		);
+	});
 	it('reports a missing required column once, and refuses files over the row limit', async () => {
 		const check = await checkUpload(
 			db,

@@ -25,7 +25,10 @@ import {
 	CalcTimeLimitError
 } from '$lib/server/calc/errors';
 import {
+	CursorMismatchError,
 	EntryNotFoundError,
+	ExportBusyError,
+	ExportTooLargeError,
 	InvalidEntryDataError,
 	VersionStateError
 } from '$lib/server/catalogue/errors';
@@ -73,6 +76,23 @@ const CASES: Record<string, Case> = {
 		error: new VersionStateError('version 3 is approved, not submitted'),
 		status: 409,
 		code: 'conflict'
+	},
+	CursorMismatchError: {
+		error: new CursorMismatchError('this cursor belongs to the proteins list, not centres'),
+		status: 400,
+		code: 'bad_request',
+		fields: { cursor: ['this cursor belongs to the proteins list, not centres'] }
+	},
+	ExportTooLargeError: {
+		error: new ExportTooLargeError(250_000, 200_000),
+		status: 400,
+		code: 'bad_request'
+	},
+	ExportBusyError: {
+		error: new ExportBusyError(10),
+		status: 503,
+		code: 'unavailable',
+		retryAfter: '10'
 	},
 	SubmissionNotFoundError: {
 		error: new SubmissionNotFoundError(7),

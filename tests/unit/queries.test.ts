@@ -42,7 +42,7 @@ describe('search page URL state', () => {
 		if (!r.ok) return;
 		const api = apiParamsForPage(r.data);
 		expect(api.get('limit')).toBe('50');
-		expect(decodeCursor(api.get('cursor') ?? '')).toBe(100);
+		expect(decodeCursor(api.get('cursor') ?? '')).toEqual({ kind: 'offset', offset: 100 });
 		expect(api.getAll('kind')).toEqual(['fe4s4']);
 	});
 	it('returns to page 1 when a filter changes', () => {

@@ -117,8 +117,9 @@ export const distanceDtoSchema = z.strictObject({
 	centreA: centreRefSchema,
 	centreB: centreRefSchema,
 	protein: proteinRefSchema,
-	edgeToEdgeA: z.number().describe('Edge-to-edge distance, Å.'),
-	centreToCentreA: z.number().nullable().describe('Centre-to-centre distance, Å.'),
+	// The stored version's fields are edgeToEdgeA / centreToCentreA (DEVELOPERS.md, "Public names").
+	edgeToEdgeAngstrom: z.number().describe('Edge-to-edge distance, Å.'),
+	centreToCentreAngstrom: z.number().nullable().describe('Centre-to-centre distance, Å.'),
 	structureId: z.string().describe('The structure the distance was measured in.'),
 	method: z.enum(DISTANCE_METHODS),
 	source: sourceOrNone,
@@ -126,13 +127,22 @@ export const distanceDtoSchema = z.strictObject({
 });
 export type DistanceDto = z.infer<typeof distanceDtoSchema>;
 
-/** What every page of a list says besides its rows. */
+/**
+ * What every page of a list says besides its rows. `offset` is the position of its first row
+ * among all `total` matches as the list stood when the page was read; the cursors lead to the
+ * rows right after and right before it (null at either end).
+ */
 export const pageMetaSchema = z.strictObject({
 	total: count.describe('Rows matching the query, over all pages.'),
+	offset: count.describe("The position of the page's first row among the matches, from 0."),
 	nextCursor: z
 		.string()
 		.nullable()
-		.describe('Pass back unchanged as `cursor` for the next page; null on the last page.')
+		.describe('Pass back unchanged as `cursor` for the next page; null on the last page.'),
+	prevCursor: z
+		.string()
+		.nullable()
+		.describe('Pass back unchanged as `cursor` for the page before; null on the first page.')
 });
 export type Page<T> = z.infer<typeof pageMetaSchema> & { items: T[] };
 
@@ -141,7 +151,8 @@ export function apiPageSchema<T extends z.ZodType>(item: T) {
 	return pageMetaSchema.extend({
 		items: z.array(item),
 		links: z.strictObject({
-			next: z.string().nullable().describe('The URL of the next page; null on the last page.')
+			next: z.string().nullable().describe('The URL of the next page; null on the last page.'),
+			prev: z.string().nullable().describe('The URL of the page before; null on the first page.')
 		})
 	});
 }

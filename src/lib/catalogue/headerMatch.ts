@@ -4,6 +4,8 @@
 /** What a header is matched against: the column's name, label and aliases. */
 export interface HeaderNames {
 	name: string;
+	/** The column's name in templates, when it differs from `name`. */
+	header?: string;
 	label: string;
 	/** Other header spellings accepted (compared without case, spaces, units or punctuation). */
 	aliases: readonly string[];
@@ -26,7 +28,8 @@ export function matchHeader<C extends HeaderNames>(
 	const key = headerKey(header);
 	if (!key) return null;
 	for (const c of columns) {
-		if (headerKey(c.name) === key || headerKey(c.label) === key) return c;
+		if (headerKey(c.header ?? c.name) === key || headerKey(c.label) === key) return c;
+		if (headerKey(c.name) === key) return c;
 		if (c.aliases.some((a) => headerKey(a) === key)) return c;
 	}
 	return null;

@@ -6,7 +6,7 @@ export type LadderPotential = Pick<
 	PotentialDto,
 	'accession' | 'emMvShe' | 'couple' | 'ph' | 'temperatureK'
 > & { centre: { accession: string } };
-export type LadderDistance = Pick<DistanceDto, 'centreA' | 'centreB' | 'edgeToEdgeA'>;
+export type LadderDistance = Pick<DistanceDto, 'centreA' | 'centreB' | 'edgeToEdgeAngstrom'>;
 
 /**
  * The energy ladder of a protein: its centres in electron-transfer chain order, each with one
@@ -110,11 +110,11 @@ export function buildLadder(
 	for (const d of distances) {
 		const a = d.centreA.accession;
 		const b = d.centreB.accession;
-		if (!ids.has(a) || !ids.has(b) || d.edgeToEdgeA > CHAIN_MAX_EDGE_A) continue;
+		if (!ids.has(a) || !ids.has(b) || d.edgeToEdgeAngstrom > CHAIN_MAX_EDGE_A) continue;
 		adjacency.set(a, [...(adjacency.get(a) ?? []), b]);
 		adjacency.set(b, [...(adjacency.get(b) ?? []), a]);
-		edges.set(`${a}|${b}`, d.edgeToEdgeA);
-		edges.set(`${b}|${a}`, d.edgeToEdgeA);
+		edges.set(`${a}|${b}`, d.edgeToEdgeAngstrom);
+		edges.set(`${b}|${a}`, d.edgeToEdgeAngstrom);
 	}
 
 	// The longest path over all connected components, by two sweeps from each component.

@@ -1,5 +1,5 @@
 import type { PotentialPageQuery } from '$lib/schemas/catalogueQuery';
-import { encodeCursor } from '$lib/schemas/pagination';
+import { encodeOffsetCursor } from '$lib/schemas/pagination';
 
 /* Translating the search page's URL state into API requests and new page URLs. */
 
@@ -30,7 +30,16 @@ export function apiParamsForPage(query: PotentialPageQuery): URLSearchParams {
 	if (query.sort) params.set('sort', query.sort);
 	if (query.order) params.set('order', query.order);
 	params.set('limit', String(query.size));
-	if (query.page > 1) params.set('cursor', encodeCursor((query.page - 1) * query.size));
+	if (query.cursor) params.set('cursor', query.cursor);
+	else if (query.page > 1) params.set('cursor', encodeOffsetCursor((query.page - 1) * query.size));
+	return params;
+}
+
+/** The API query for exporting every row the search page matches, in its order. */
+export function exportParamsForPage(query: PotentialPageQuery): URLSearchParams {
+	const params = apiParamsForPage(query);
+	params.delete('limit');
+	params.delete('cursor');
 	return params;
 }
 
@@ -38,7 +47,7 @@ export type ParamChange = string | number | readonly string[] | null | undefined
 
 /**
  * The current search URL with some parameters replaced (null or empty removes them). Any
- * change other than paging returns to the first page, since the old page may no longer exist.
+ * change other than paging (`cursor`) returns to the first page: a cursor belongs to its sort.
  */
 export function searchHref(current: URL, changes: Record<string, ParamChange>): string {
 	const next = new URLSearchParams(current.searchParams);
@@ -48,7 +57,8 @@ export function searchHref(current: URL, changes: Record<string, ParamChange>): 
 		if (Array.isArray(value)) for (const v of value) next.append(key, v);
 		else next.set(key, String(value));
 	}
-	if (!('page' in changes)) next.delete('page');
+	next.delete('page');
+	if (!('cursor' in changes)) next.delete('cursor');
 	const search = next.toString();
 	return `${current.pathname}${search ? `?${search}` : ''}`;
 }

@@ -20,14 +20,19 @@ export function columnForHeader(kind: UploadKind, header: string): UploadColumn 
 
 /** What the browser needs to recognise headers (the page's data, so no schema ships with it). */
 export function headerNames(kind: UploadKind): HeaderNames[] {
-	return UPLOAD_COLUMNS[kind].map(({ name, label, aliases }) => ({ name, label, aliases }));
+	return UPLOAD_COLUMNS[kind].map(({ name, header, label, aliases }) => ({
+		name,
+		header,
+		label,
+		aliases
+	}));
 }
 
 /** The template: the header row and one invented example row. */
 export function templateCsv(kind: UploadKind): string {
 	const columns = UPLOAD_COLUMNS[kind];
 	return Papa.unparse(
-		{ fields: columns.map((c) => c.name), data: [columns.map((c) => c.example)] },
+		{ fields: columns.map((c) => c.header), data: [columns.map((c) => c.example)] },
 		{ newline: '\r\n' }
 	);
 }

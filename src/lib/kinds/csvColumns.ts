@@ -1,12 +1,18 @@
 import type { HeaderNames } from '$lib/catalogue/headerMatch';
 import type { FormField } from './formFields';
+import { publicFieldName } from './publicNames';
 
 // The columns of a CSV upload are the kind's form fields (and so its schema's) plus columns
 // that name proteins and centres in words instead of accessions. Each uploadable kind lists its
 // columns with these helpers; header spellings and example values are shared across kinds.
 
-/** One column of an upload: a form field, or a column that finds an entry in words. */
+/**
+ * One column of an upload: a form field, or a column that finds an entry in words. `name` is the
+ * field it fills (the stored name); `header` is what templates and the column reference call it
+ * (the public name, publicNames.ts); both, the label and the aliases are accepted in a file.
+ */
 export interface UploadColumn extends FormField, HeaderNames {
+	header: string;
 	/** A value for the template's example row (invented). */
 	example: string;
 	/** Required unless its alternative column(s) are given. */
@@ -22,6 +28,7 @@ export const by = (
 	alternative?: string
 ): UploadColumn => ({
 	name,
+	header: name,
 	label,
 	type: 'text',
 	hint,
@@ -90,11 +97,17 @@ export function columnsFromFields(
 	fields: readonly FormField[],
 	examples: Record<string, string> = {}
 ): UploadColumn[] {
-	return fields.map((f) => ({
-		...f,
-		aliases: ALIASES[f.name] ?? [],
-		example: examples[f.name] ?? EXAMPLES[f.name] ?? ''
-	}));
+	return fields.map((f) => {
+		const header = publicFieldName(f.name);
+		const aliases = ALIASES[f.name] ?? [];
+		return {
+			...f,
+			header,
+			// A renamed field's stored name stays accepted (files written before the rename).
+			aliases: header === f.name ? aliases : [...aliases, f.name],
+			example: examples[f.name] ?? EXAMPLES[f.name] ?? ''
+		};
+	});
 }
 
 /** Makes a required column optional when another column (or a unit in a header) can stand in. */

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { accessionField } from './fields';
-import { decodeCursor } from './pagination';
+import { MAX_CURSOR_LENGTH, decodeCursor } from './pagination';
 import { queryInteger, queryNumber } from './searchParams';
 import { COFACTOR_KINDS, DISTANCE_METHODS, POTENTIAL_METHODS, SPIN_METHODS } from './vocabulary';
 
@@ -73,7 +73,7 @@ export type PotentialSort = (typeof POTENTIAL_SORTS)[number];
 const order = z.enum(['asc', 'desc'], { error: 'expected asc or desc' });
 const cursor = z
 	.string()
-	.max(64)
+	.max(MAX_CURSOR_LENGTH, 'not a cursor issued by this API; pass nextCursor back unchanged')
 	.refine(
 		(c) => decodeCursor(c) !== null,
 		'not a cursor issued by this API; pass nextCursor back unchanged'
@@ -103,6 +103,13 @@ export const potentialApiQuerySchema = potentialFilterSchema.extend({
 export const potentialApiQuery = withOrderedBounds(potentialApiQuerySchema);
 export type PotentialApiQuery = z.infer<typeof potentialApiQuerySchema>;
 
+/** Every matching row as CSV (the search page's export): the filters and the order only. */
+export const potentialExportQuerySchema = potentialFilterSchema.extend({
+	sort: potentialApiQuerySchema.shape.sort,
+	order: order.optional()
+});
+export const potentialExportQuery = withOrderedBounds(potentialExportQuerySchema);
+
 /** Columns of the search table that a reader can hide (kept in the URL as `hide`). */
 export const POTENTIAL_COLUMNS = [
 	'accession',
@@ -127,6 +134,9 @@ export const potentialPageQuerySchema = potentialFilterSchema.extend({
 		.enum(POTENTIAL_SORTS, { error: `expected one of ${POTENTIAL_SORTS.join(', ')}` })
 		.optional(),
 	order: order.optional(),
+	/** A cursor from the API (the page's Previous / Next links). */
+	cursor: cursor.optional(),
+	/** Page numbers of links made before cursors (read as an offset; no longer produced). */
 	page: queryInteger(1, 100_000).default(1),
 	size: z.coerce
 		.number()

@@ -144,7 +144,17 @@ const configSchema = z.object({
 	 * Milliseconds of request work per turn of the event loop before further requests wait for
 	 * the next turn (http/loopTurns.ts), so that new connections are accepted under load; 0 off.
 	 */
-	LOOP_TURN_BUDGET_MS: z.coerce.number().min(0).max(1000).default(4)
+	LOOP_TURN_BUDGET_MS: z.coerce.number().min(0).max(1000).default(4),
+	/**
+	 * Exports of every potential a search matches (GET /api/v1/potentials/export, streamed CSV,
+	 * catalogue/potentialExport.ts): at most EXPORT_MAX_ROWS rows (a larger match is refused with
+	 * 400 naming both numbers), EXPORT_CONCURRENCY exports at once per process (503 with
+	 * Retry-After beyond), each cut off after EXPORT_TIME_LIMIT_SECONDS, since it holds a read
+	 * snapshot of the database (and so the write-ahead log) while a slow client reads.
+	 */
+	EXPORT_MAX_ROWS: z.coerce.number().int().min(1).max(10_000_000).default(200_000),
+	EXPORT_CONCURRENCY: z.coerce.number().int().min(1).max(64).default(2),
+	EXPORT_TIME_LIMIT_SECONDS: z.coerce.number().int().min(1).max(3600).default(120)
 });
 
 export type Config = z.infer<typeof configSchema>;

@@ -1,7 +1,6 @@
 import {
 	columnVisibilityFeature,
 	createColumnHelper,
-	rowPaginationFeature,
 	rowSortingFeature,
 	tableFeatures
 } from '@tanstack/svelte-table';
@@ -9,12 +8,11 @@ import type { PotentialDto } from '$lib/catalogue/dto';
 import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/schemas/catalogueQuery';
 
 /*
- * The search table's features and columns. Sorting and paging run on the server (manual
- * mode); the table coordinates their state, which the page keeps in the URL.
+ * The search table's features and columns. Sorting runs on the server (manual mode) and paging
+ * follows the API's cursors; the page keeps both in the URL.
  */
 export const features = tableFeatures({
 	rowSortingFeature,
-	rowPaginationFeature,
 	columnVisibilityFeature
 });
 

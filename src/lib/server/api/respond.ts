@@ -2,8 +2,9 @@ import Papa from 'papaparse';
 import type { z } from 'zod';
 import { API_ERROR_CODES, type ApiErrorBody, type ApiErrorCode } from '$lib/schemas/apiError';
 import { LIST_KEYS } from '$lib/schemas/catalogueQuery';
-import { decodeCursor } from '$lib/schemas/pagination';
+import { decodeCursor, type PageCursor } from '$lib/schemas/pagination';
 import { parseSearchParams, type FieldErrors, type ParamsResult } from '$lib/schemas/searchParams';
+import type { CsvTable } from '$lib/catalogue/csvRows';
 import type { Page } from '$lib/catalogue/dto';
 
 /* Building API responses: the error shape, query parsing, JSON and CSV pages. */
@@ -25,38 +26,57 @@ export function parseApiQuery<S extends z.ZodObject>(
 	return parseSearchParams(schema, url.searchParams, LIST_KEYS);
 }
 
-/** Offset a validated cursor stands for (0 on the first page). */
-export function offsetOf(cursor: string | undefined): number {
-	return cursor === undefined ? 0 : (decodeCursor(cursor) ?? 0);
+/** The cursor a validated `cursor` parameter holds (the query schema refused any other). */
+export function cursorOf(cursor: string | undefined): PageCursor | undefined {
+	return cursor === undefined ? undefined : (decodeCursor(cursor) ?? undefined);
 }
 
-/** A page as JSON (`{ items, total, nextCursor, links }`) or as CSV with paging in headers. */
+/**
+ * A page as JSON (`{ items, total, offset, nextCursor, prevCursor, links }`) or as CSV (the
+ * header row even when nothing matches), with absolute URLs of the next and previous pages in
+ * `links` and in the `Link` header, and the total in `X-Total-Count`.
+ */
 export function respondWithPage<T>(
 	url: URL,
 	page: Page<T>,
 	format: 'json' | 'csv',
-	toCsvRow: (item: T) => Record<string, unknown>,
+	table: CsvTable<T>,
 	filename: string
 ): Response {
 	const next = page.nextCursor === null ? null : withCursor(url, page.nextCursor);
+	const prev = page.prevCursor === null ? null : withCursor(url, page.prevCursor);
+	const link = [
+		next ? `<${next}>; rel="next"` : null,
+		prev ? `<${prev}>; rel="prev"` : null
+	].filter((l) => l !== null);
+	const headers = new Headers({ 'x-total-count': String(page.total) });
+	if (link.length > 0) headers.set('link', link.join(', '));
 	if (format === 'csv') {
-		// Text cells starting with = + - @ are prefixed so spreadsheets never run them as formulae.
-		const csv = Papa.unparse(page.items.map(toCsvRow), { newline: '\r\n', escapeFormulae: true });
-		const headers = new Headers({
-			'content-type': 'text/csv; charset=utf-8',
-			'content-disposition': `attachment; filename="${filename}.csv"`,
-			'x-total-count': String(page.total)
-		});
-		if (next) headers.set('link', `<${next}>; rel="next"`);
-		return new Response(csv, { headers });
+		headers.set('content-type', 'text/csv; charset=utf-8');
+		headers.set('content-disposition', `attachment; filename="${filename}.csv"`);
+		return new Response(csvText(table, page.items), { headers });
 	}
-	return Response.json({ ...page, links: { next } });
+	return Response.json({ ...page, links: { next, prev } }, { headers });
 }
 
+/**
+ * The CSV of a table's rows, header first (and alone when there are none), lines ended by CRLF
+ * except the last.
+ */
+export function csvText<T>(table: CsvTable<T>, items: readonly T[], header = true): string {
+	// Text cells starting with = + - @ are prefixed so spreadsheets never run them as formulae.
+	const text = Papa.unparse(
+		{ fields: [...table.fields], data: items.map(table.row) },
+		{ newline: '\r\n', escapeFormulae: true, header }
+	);
+	return text.endsWith('\r\n') ? text.slice(0, -2) : text;
+}
+
+/** The request's URL with another cursor: absolute, as Link headers and `links` give it. */
 function withCursor(url: URL, cursor: string): string {
 	const next = new URL(url);
 	next.searchParams.set('cursor', cursor);
-	return next.pathname + next.search;
+	return next.href;
 }
 
 /**

@@ -37,3 +37,30 @@ export class VersionStateError extends DomainError {
 		this.name = 'VersionStateError';
 	}
 }
+
+/** A page cursor that does not belong to this list, sort or order: 400 on `cursor`. */
+export class CursorMismatchError extends DomainError {
+	constructor(message: string) {
+		super('bad_request', message, { fields: { cursor: [message] } });
+		this.name = 'CursorMismatchError';
+	}
+}
+
+/** An export would hold more rows than EXPORT_MAX_ROWS: 400, saying how many match. */
+export class ExportTooLargeError extends DomainError {
+	constructor(matching: number, max: number) {
+		super(
+			'bad_request',
+			`${matching.toLocaleString('en')} potentials match; an export holds at most ${max.toLocaleString('en')}. Narrow the filters, or page through /api/v1/potentials with its cursors.`
+		);
+		this.name = 'ExportTooLargeError';
+	}
+}
+
+/** EXPORT_CONCURRENCY exports are running already: 503 with Retry-After. */
+export class ExportBusyError extends DomainError {
+	constructor(retryAfterSeconds: number) {
+		super('unavailable', 'Other exports are running; try again shortly.', { retryAfterSeconds });
+		this.name = 'ExportBusyError';
+	}
+}

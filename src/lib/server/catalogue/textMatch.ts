@@ -8,7 +8,10 @@ import { centreSearch } from '../search/centreSearch';
  * for it (best first), or nothing to filter on.
  */
 export type TextMatch =
-	{ kind: 'none' } | { kind: 'accession'; accession: string } | { kind: 'centres'; ids: number[] };
+	| { kind: 'none' }
+	| { kind: 'accession'; accession: string }
+	/** Centres best first, with their scores (the same order). */
+	| { kind: 'centres'; ids: number[]; scores: number[] };
 
 export async function resolveTextQuery(
 	db: Kysely<Database>,
@@ -19,5 +22,6 @@ export async function resolveTextQuery(
 	const upper = text.toUpperCase();
 	if (isAccession(upper)) return { kind: 'accession', accession: upper };
 	await centreSearch.ensureCurrent(db);
-	return { kind: 'centres', ids: centreSearch.search(text) };
+	const found = centreSearch.searchScored(text);
+	return { kind: 'centres', ids: found.map((c) => c.id), scores: found.map((c) => c.score) };
 }

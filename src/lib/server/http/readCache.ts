@@ -82,6 +82,17 @@ export function etagMatches(ifNoneMatch: string | null, etag: string): boolean {
 	return ifNoneMatch.split(',').some((tag) => bare(tag) === bare(etag));
 }
 
+/** Adds tokens to `Vary`, each once (case aside). */
+export function addVary(headers: Headers, tokens: readonly string[]): void {
+	const present = (headers.get('vary') ?? '')
+		.split(',')
+		.map((t) => t.trim())
+		.filter(Boolean);
+	const lower = new Set(present.map((t) => t.toLowerCase()));
+	for (const token of tokens) if (!lower.has(token.toLowerCase())) present.push(token);
+	headers.set('vary', present.join(', '));
+}
+
 /** Headers an answer kept for everyone must not carry on to the next reader. */
 const PER_REQUEST_HEADERS = new Set(['set-cookie', 'date', 'connection', 'keep-alive']);
 
@@ -97,10 +108,12 @@ function keepable(response: Response): boolean {
  */
 function cachingHeaders(headers: Headers, etag: string, compressible: boolean): void {
 	headers.set('etag', etag);
+	// A route or caching.ts may have said more (an immutable version); otherwise revalidate.
 	if (!headers.has('cache-control')) headers.set('cache-control', 'public, no-cache');
-	const ours = compressible ? 'Cookie, Authorization, Accept-Encoding' : 'Cookie, Authorization';
-	const vary = headers.get('vary');
-	headers.set('vary', vary ? `${vary}, ${ours}` : ours);
+	addVary(
+		headers,
+		compressible ? ['Cookie', 'Authorization', 'Accept-Encoding'] : ['Cookie', 'Authorization']
+	);
 }
 
 /**
@@ -160,7 +173,7 @@ export function createReadCache(options: ReadCacheOptions) {
 		if (!keepable(response)) return response;
 		const body = new Uint8Array(await response.arrayBuffer());
 		const headers = new Headers(response.headers);
-		// SvelteKit tags pages itself; other answers get a hash of their bytes.
+		// Tagged already by caching.ts (versions, lists) or SvelteKit (pages); else a hash of the bytes.
 		const etag =
 			headers.get('etag') ??
 			`"${createHash('sha256').update(body).digest('base64url').slice(0, 27)}"`;

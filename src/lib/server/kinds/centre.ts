@@ -1,13 +1,11 @@
-import { sql, type Kysely } from 'kysely';
+import type { Kysely } from 'kysely';
 import type { CentreDto, Page } from '$lib/catalogue/dto';
-import type { CentreApiQuery } from '$lib/schemas/catalogueQuery';
+import type { CENTRE_SORTS, CentreApiQuery } from '$lib/schemas/catalogueQuery';
 
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
-import { pageOf } from '../catalogue/lists';
 import { toProteinRef } from '../catalogue/mappers';
-import type { ListOptions } from '../catalogue/potentials';
-import { nullsLast } from '../catalogue/sortOrder';
+import { sqlKeyset, type ListOptions, type ListOrder } from '../catalogue/keyset';
 import { resolveTextQuery } from '../catalogue/textMatch';
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { COFACTOR_KIND_LABELS } from '$lib/schemas/vocabulary';
@@ -17,6 +15,8 @@ import { firstInFile, resolveCentreProtein } from '../uploads/rows';
 import { upsertReadModel, type KindOnServer } from './kind';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 import type { JsonColumn } from '../db/json';
+
+type CentreSort = (typeof CENTRE_SORTS)[number];
 
 /** The kind's read-model table (see KindTables in db/schema.ts). */
 export interface CentreTable {
@@ -95,13 +95,30 @@ export const centre: KindOnServer<'centre'> = {
 	}
 };
 
+/** How the centre list is ordered, by each of its sorts (keyset paging: catalogue/keyset.ts). */
+export const CENTRE_ORDER: ListOrder<CentreSort> = {
+	list: 'centres',
+	id: 'c.entry_id',
+	defaultSort: 'protein',
+	sorts: {
+		accession: [{ ref: 'ce.accession', type: 'text' }],
+		protein: [{ ref: 'pr.name', type: 'text' }],
+		label: [{ ref: 'c.label', type: 'text' }],
+		kind: [
+			{ ref: 'c.cofactor_kind', type: 'text' },
+			{ ref: 'pr.name', type: 'text' }
+		]
+	}
+};
+
 /** The centres a reader may see, filtered, sorted and paged, for pages and the API. */
 export async function listCentres(
 	db: Kysely<Database>,
 	filter: Pick<CentreApiQuery, 'q' | 'kind' | 'organism' | 'protein'>,
-	options: ListOptions<'accession' | 'protein' | 'label' | 'kind'>,
+	options: ListOptions<CentreSort>,
 	viewer: Viewer | null
 ): Promise<Page<CentreDto>> {
+	const keyset = sqlKeyset(CENTRE_ORDER, options);
 	const text = await resolveTextQuery(db, filter.q);
 	let query = db
 		.selectFrom('centre as c')
@@ -118,36 +135,32 @@ export async function listCentres(
 	if (filter.kind?.length) query = query.where('c.cofactor_kind', 'in', filter.kind);
 	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
 	if (filter.protein) query = query.where('pe.accession', '=', filter.protein);
-	const { n } = await query
-		.select((eb) => eb.fn.countAll<number>().as('n'))
+	const { n, before } = await query
+		.select((eb) => [eb.fn.countAll<number>().as('n'), keyset.rowsBefore().as('before')])
 		.executeTakeFirstOrThrow();
-	const columns = {
-		accession: ['ce.accession'],
-		protein: ['pr.name', 'c.entry_id'],
-		label: ['c.label'],
-		kind: ['c.cofactor_kind', 'pr.name']
-	}[options.sort ?? 'protein'];
-	let ordered = query.select([
-		'ce.accession',
-		'c.version',
-		'c.label',
-		'c.cofactor_kind',
-		'c.ligation',
-		'c.chain_id',
-		'c.residues',
-		'ce.is_demo',
-		'pe.accession as protein_accession',
-		'pr.name as protein_name',
-		'pr.organism'
-	]);
-	for (const column of columns)
-		ordered = ordered.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'));
-	const rows = await ordered
-		.orderBy('c.entry_id')
-		.limit(options.limit)
-		.offset(options.offset)
+	const rows = await query
+		.select([
+			'ce.accession',
+			'c.version',
+			'c.label',
+			'c.cofactor_kind',
+			'c.ligation',
+			'c.chain_id',
+			'c.residues',
+			'ce.is_demo',
+			'pe.accession as protein_accession',
+			'pr.name as protein_name',
+			'pr.organism',
+			...keyset.keyColumns()
+		])
+		.where(keyset.where())
+		.orderBy(keyset.orderBy())
+		.limit(keyset.limit)
+		.offset(keyset.offset)
 		.execute();
-	const items = rows.map((r): CentreDto => ({
+	if (keyset.restartsAtFirstPage(rows.length))
+		return listCentres(db, filter, { ...options, cursor: undefined, offset: 0 }, viewer);
+	const toItem = (r: (typeof rows)[number]): CentreDto => ({
 		accession: r.accession,
 		version: r.version,
 		label: r.label,
@@ -157,6 +170,6 @@ export async function listCentres(
 		chainId: r.chain_id,
 		residues: readJson(r.residues),
 		isDemo: r.is_demo === 1
-	}));
-	return pageOf(items, Number(n), options.offset);
+	});
+	return keyset.page(rows, toItem, Number(n), Number(before));
 }

@@ -1,10 +1,10 @@
-import { sql, type Kysely } from 'kysely';
+import type { Kysely } from 'kysely';
 import type { DistanceDto, Page } from '$lib/catalogue/dto';
-import type { DistanceApiQuery } from '$lib/schemas/catalogueQuery';
+import type { DISTANCE_SORTS, DistanceApiQuery } from '$lib/schemas/catalogueQuery';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 
 import type { Database, Row } from '../db/schema';
-import { pageOf, withVisibleSource } from '../catalogue/lists';
+import { withVisibleSource } from '../catalogue/lists';
 import {
 	toCentreRef,
 	toProteinRef,
@@ -12,14 +12,15 @@ import {
 	type ProteinRefColumns,
 	type SourceRefColumns
 } from '../catalogue/mappers';
-import type { ListOptions } from '../catalogue/potentials';
-import { nullsLast } from '../catalogue/sortOrder';
+import { sqlKeyset, type ListOptions, type ListOrder } from '../catalogue/keyset';
 
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { checkDuplicateKey, findCentre } from '../uploads/rows';
 import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
 import type { DistanceMethod } from '$lib/schemas/vocabulary';
+
+type DistanceSort = (typeof DISTANCE_SORTS)[number];
 
 /** The kind's read-model table (see KindTables in db/schema.ts). */
 export interface DistanceTable {
@@ -157,14 +158,26 @@ export function toDistanceDto(r: DistanceRowColumns): DistanceDto {
 			cofactor_kind: r.b_kind
 		}),
 		protein: toProteinRef(r),
-		edgeToEdgeA: r.edge_to_edge_a,
-		centreToCentreA: r.centre_to_centre_a,
+		edgeToEdgeAngstrom: r.edge_to_edge_a,
+		centreToCentreAngstrom: r.centre_to_centre_a,
 		structureId: r.structure_id,
 		method: r.method,
 		source: toSourceRef(r),
 		isDemo: r.is_demo === 1
 	};
 }
+
+/** How the distance list is ordered, by each of its sorts (keyset paging: catalogue/keyset.ts). */
+export const DISTANCE_ORDER: ListOrder<DistanceSort> = {
+	list: 'distances',
+	id: 'd.entry_id',
+	defaultSort: 'accession',
+	sorts: {
+		accession: [{ ref: 'e.accession', type: 'text' }],
+		edge: [{ ref: 'd.edge_to_edge_a', type: 'number' }],
+		centre: [{ ref: 'a.label', type: 'text' }]
+	}
+};
 
 /** The distances a reader may see, filtered, sorted and paged, for pages and the API. */
 export async function listDistances(
@@ -173,9 +186,10 @@ export async function listDistances(
 		DistanceApiQuery,
 		'organism' | 'protein' | 'centre' | 'method' | 'edgeMin' | 'edgeMax'
 	>,
-	options: ListOptions<'accession' | 'edge' | 'centre'>,
+	options: ListOptions<DistanceSort>,
 	viewer: Viewer | null
 ): Promise<Page<DistanceDto>> {
+	const keyset = sqlKeyset(DISTANCE_ORDER, options);
 	let query = db
 		.selectFrom('distance as d')
 		.innerJoin('entry as e', 'e.id', 'd.entry_id')
@@ -205,12 +219,9 @@ export async function listDistances(
 	if (filter.method?.length) query = query.where('d.method', 'in', filter.method);
 	if (filter.edgeMin !== undefined) query = query.where('d.edge_to_edge_a', '>=', filter.edgeMin);
 	if (filter.edgeMax !== undefined) query = query.where('d.edge_to_edge_a', '<=', filter.edgeMax);
-	const { n } = await query
-		.select((eb) => eb.fn.countAll<number>().as('n'))
+	const { n, before } = await query
+		.select((eb) => [eb.fn.countAll<number>().as('n'), keyset.rowsBefore().as('before')])
 		.executeTakeFirstOrThrow();
-	const column = { accession: 'e.accession', edge: 'd.edge_to_edge_a', centre: 'a.label' }[
-		options.sort ?? 'accession'
-	];
 	const rows = await query
 		.$call((q) => withVisibleSource(q, 'd.source_entry_id', viewer))
 		.select([
@@ -229,12 +240,15 @@ export async function listDistances(
 			'b.cofactor_kind as b_kind',
 			'pe.accession as protein_accession',
 			'pr.name as protein_name',
-			'pr.organism'
+			'pr.organism',
+			...keyset.keyColumns()
 		])
-		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
-		.orderBy('d.entry_id')
-		.limit(options.limit)
-		.offset(options.offset)
+		.where(keyset.where())
+		.orderBy(keyset.orderBy())
+		.limit(keyset.limit)
+		.offset(keyset.offset)
 		.execute();
-	return pageOf(rows.map(toDistanceDto), Number(n), options.offset);
+	if (keyset.restartsAtFirstPage(rows.length))
+		return listDistances(db, filter, { ...options, cursor: undefined, offset: 0 }, viewer);
+	return keyset.page(rows, toDistanceDto, Number(n), Number(before));
 }

@@ -1,18 +1,18 @@
-import { sql, type Kysely } from 'kysely';
+import type { Kysely } from 'kysely';
 import type { Page, ProteinDto } from '$lib/catalogue/dto';
-import type { ProteinApiQuery } from '$lib/schemas/catalogueQuery';
+import type { PROTEIN_SORTS, ProteinApiQuery } from '$lib/schemas/catalogueQuery';
 
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
-import { pageOf } from '../catalogue/lists';
 import { toProteinRef } from '../catalogue/mappers';
-import type { ListOptions } from '../catalogue/potentials';
-import { nullsLast } from '../catalogue/sortOrder';
+import { sqlKeyset, type ListOptions, type ListOrder } from '../catalogue/keyset';
 import { resolveTextQuery } from '../catalogue/textMatch';
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { refreshPotentialRows } from '../catalogue/potentialRows';
 import { upsertReadModel, type KindOnServer } from './kind';
 import type { JsonColumn } from '../db/json';
+
+type ProteinSort = (typeof PROTEIN_SORTS)[number];
 
 /** The kind's read-model table (see KindTables in db/schema.ts). */
 export interface ProteinTable {
@@ -55,13 +55,26 @@ export const protein: KindOnServer<'protein'> = {
 	potentialRowsColumn: 'protein_entry_id'
 };
 
+/** How the protein list is ordered, by each of its sorts (keyset paging: catalogue/keyset.ts). */
+export const PROTEIN_ORDER: ListOrder<ProteinSort> = {
+	list: 'proteins',
+	id: 'pr.entry_id',
+	defaultSort: 'name',
+	sorts: {
+		accession: [{ ref: 'pe.accession', type: 'text' }],
+		name: [{ ref: 'pr.name', type: 'text' }],
+		organism: [{ ref: 'pr.organism', type: 'text' }]
+	}
+};
+
 /** The proteins a reader may see, filtered, sorted and paged, for pages and the API. */
 export async function listProteins(
 	db: Kysely<Database>,
 	filter: Pick<ProteinApiQuery, 'q' | 'organism'>,
-	options: ListOptions<'accession' | 'name' | 'organism'>,
+	options: ListOptions<ProteinSort>,
 	viewer: Viewer | null
 ): Promise<Page<ProteinDto>> {
+	const keyset = sqlKeyset(PROTEIN_ORDER, options);
 	const text = await resolveTextQuery(db, filter.q);
 	let query = db
 		.selectFrom('protein as pr')
@@ -81,12 +94,9 @@ export async function listProteins(
 		);
 	}
 	if (filter.organism?.length) query = query.where('pr.organism', 'in', filter.organism);
-	const { n } = await query
-		.select((eb) => eb.fn.countAll<number>().as('n'))
+	const { n, before } = await query
+		.select((eb) => [eb.fn.countAll<number>().as('n'), keyset.rowsBefore().as('before')])
 		.executeTakeFirstOrThrow();
-	const column = { accession: 'pe.accession', name: 'pr.name', organism: 'pr.organism' }[
-		options.sort ?? 'name'
-	];
 	const rows = await query
 		.select((eb) => [
 			'pe.accession as protein_accession',
@@ -102,20 +112,23 @@ export async function listProteins(
 				.select((e2) => e2.fn.countAll<number>().as('c'))
 				.whereRef('cc.protein_entry_id', '=', 'pr.entry_id')
 				.where((e2) => entryIsVisible(e2, 'cce', viewer))
-				.as('centre_count')
+				.as('centre_count'),
+			...keyset.keyColumns()
 		])
-		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
-		.orderBy('pr.entry_id')
-		.limit(options.limit)
-		.offset(options.offset)
+		.where(keyset.where())
+		.orderBy(keyset.orderBy())
+		.limit(keyset.limit)
+		.offset(keyset.offset)
 		.execute();
-	const items = rows.map((r): ProteinDto => ({
+	if (keyset.restartsAtFirstPage(rows.length))
+		return listProteins(db, filter, { ...options, cursor: undefined, offset: 0 }, viewer);
+	const toItem = (r: (typeof rows)[number]): ProteinDto => ({
 		...toProteinRef(r),
 		version: r.version,
 		uniprot: r.uniprot,
 		structureIds: readJson(r.structure_ids),
 		centreCount: Number(r.centre_count ?? 0),
 		isDemo: r.is_demo === 1
-	}));
-	return pageOf(items, Number(n), options.offset);
+	});
+	return keyset.page(rows, toItem, Number(n), Number(before));
 }

@@ -1,10 +1,10 @@
-import { sql, type Kysely } from 'kysely';
+import type { Kysely } from 'kysely';
 import type { Page, SpinRecordDto } from '$lib/catalogue/dto';
-import type { SpinRecordApiQuery } from '$lib/schemas/catalogueQuery';
+import type { SPIN_SORTS, SpinRecordApiQuery } from '$lib/schemas/catalogueQuery';
 
 import { readJson } from '../db/json';
 import type { Database, Row } from '../db/schema';
-import { pageOf, withVisibleSource } from '../catalogue/lists';
+import { withVisibleSource } from '../catalogue/lists';
 import {
 	toCentreRef,
 	toProteinRef,
@@ -13,8 +13,7 @@ import {
 	type ProteinRefColumns,
 	type SourceRefColumns
 } from '../catalogue/mappers';
-import type { ListOptions } from '../catalogue/potentials';
-import { nullsLast } from '../catalogue/sortOrder';
+import { sqlKeyset, type ListOptions, type ListOrder } from '../catalogue/keyset';
 
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { checkDuplicateKey, findCentre } from '../uploads/rows';
@@ -22,6 +21,8 @@ import { PAGE, centreAccessionsById, paged } from '../uploads/lookups';
 import { defineUpload, upsertReadModel, type KindOnServer } from './kind';
 import type { SpinMethod } from '$lib/schemas/vocabulary';
 import type { JsonColumn } from '../db/json';
+
+type SpinSort = (typeof SPIN_SORTS)[number];
 
 /** The kind's read-model table (see KindTables in db/schema.ts). */
 export interface SpinRecordTable {
@@ -148,13 +149,27 @@ export function toSpinRecordDto(r: SpinRecordRowColumns): SpinRecordDto {
 	};
 }
 
+/** How the spin-record list is ordered, by each of its sorts (keyset paging: catalogue/keyset.ts). */
+export const SPIN_RECORD_ORDER: ListOrder<SpinSort> = {
+	list: 'spin-records',
+	id: 'r.entry_id',
+	defaultSort: 'accession',
+	sorts: {
+		accession: [{ ref: 'e.accession', type: 'text' }],
+		centre: [{ ref: 'c.label', type: 'text' }],
+		spin: [{ ref: 'r.spin_s', type: 'number' }],
+		temperature: [{ ref: 'r.temperature_k', type: 'number', nullable: true }]
+	}
+};
+
 /** The spin records a reader may see, filtered, sorted and paged, for pages and the API. */
 export async function listSpinRecords(
 	db: Kysely<Database>,
 	filter: Pick<SpinRecordApiQuery, 'kind' | 'organism' | 'protein' | 'centre' | 'method' | 'spin'>,
-	options: ListOptions<'accession' | 'centre' | 'spin' | 'temperature'>,
+	options: ListOptions<SpinSort>,
 	viewer: Viewer | null
 ): Promise<Page<SpinRecordDto>> {
+	const keyset = sqlKeyset(SPIN_RECORD_ORDER, options);
 	let query = db
 		.selectFrom('spin_record as r')
 		.innerJoin('entry as e', 'e.id', 'r.entry_id')
@@ -175,15 +190,9 @@ export async function listSpinRecords(
 	if (filter.centre) query = query.where('ce.accession', '=', filter.centre);
 	if (filter.method?.length) query = query.where('r.method', 'in', filter.method);
 	if (filter.spin !== undefined) query = query.where('r.spin_s', '=', filter.spin);
-	const { n } = await query
-		.select((eb) => eb.fn.countAll<number>().as('n'))
+	const { n, before } = await query
+		.select((eb) => [eb.fn.countAll<number>().as('n'), keyset.rowsBefore().as('before')])
 		.executeTakeFirstOrThrow();
-	const column = {
-		accession: 'e.accession',
-		centre: 'c.label',
-		spin: 'r.spin_s',
-		temperature: 'r.temperature_k'
-	}[options.sort ?? 'accession'];
 	const rows = await query
 		.$call((q) => withVisibleSource(q, 'r.source_entry_id', viewer))
 		.select([
@@ -200,12 +209,15 @@ export async function listSpinRecords(
 			'c.cofactor_kind',
 			'pe.accession as protein_accession',
 			'pr.name as protein_name',
-			'pr.organism'
+			'pr.organism',
+			...keyset.keyColumns()
 		])
-		.orderBy(sql.ref(column), nullsLast(options.order ?? 'asc'))
-		.orderBy('r.entry_id')
-		.limit(options.limit)
-		.offset(options.offset)
+		.where(keyset.where())
+		.orderBy(keyset.orderBy())
+		.limit(keyset.limit)
+		.offset(keyset.offset)
 		.execute();
-	return pageOf(rows.map(toSpinRecordDto), Number(n), options.offset);
+	if (keyset.restartsAtFirstPage(rows.length))
+		return listSpinRecords(db, filter, { ...options, cursor: undefined, offset: 0 }, viewer);
+	return keyset.page(rows, toSpinRecordDto, Number(n), Number(before));
 }

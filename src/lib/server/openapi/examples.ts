@@ -82,8 +82,10 @@ export const EXAMPLES = {
 			} satisfies ProteinDto
 		],
 		total: 1,
+		offset: 0,
 		nextCursor: null,
-		links: { next: null }
+		prevCursor: null,
+		links: { next: null, prev: null }
 	},
 	centrePage: {
 		items: [
@@ -118,8 +120,10 @@ export const EXAMPLES = {
 			} satisfies SpinRecordDto
 		],
 		total: 1,
+		offset: 0,
 		nextCursor: null,
-		links: { next: null }
+		prevCursor: null,
+		links: { next: null, prev: null }
 	},
 	distancePage: {
 		items: [
@@ -129,8 +133,8 @@ export const EXAMPLES = {
 				centreA: clusterA,
 				centreB: clusterB,
 				protein: ferredoxin,
-				edgeToEdgeA: 9.4,
-				centreToCentreA: 12.1,
+				edgeToEdgeAngstrom: 9.4,
+				centreToCentreAngstrom: 12.1,
 				structureId: 'DS-FDX-04',
 				method: 'crystal_structure',
 				source: null,
@@ -138,8 +142,10 @@ export const EXAMPLES = {
 			} satisfies DistanceDto
 		],
 		total: 1,
+		offset: 0,
 		nextCursor: null,
-		links: { next: null }
+		prevCursor: null,
+		links: { next: null, prev: null }
 	},
 	entry: {
 		accession: 'HL000052',

@@ -125,6 +125,11 @@ export class CentreSearch {
 
 	/** Centre entry ids matching every word of the text, best first. */
 	search(query: string): number[] {
+		return this.searchScored(query).map((r) => r.id);
+	}
+
+	/** The same centres with their scores (the sum over words of centre and protein scores). */
+	searchScored(query: string): { id: number; score: number }[] {
 		const words = tokenize(query);
 		if (words.length === 0) return [];
 		const perWord = words.map((word, i) => {
@@ -162,7 +167,7 @@ export class CentreSearch {
 			}
 			if (matchesAll) scored.push({ id, score });
 		}
-		return scored.sort((a, b) => b.score - a.score || a.id - b.id).map((r) => r.id);
+		return scored.sort((a, b) => b.score - a.score || a.id - b.id);
 	}
 
 	get documentCount(): number {

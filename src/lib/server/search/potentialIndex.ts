@@ -2,6 +2,7 @@ import { sql, type Kysely } from 'kysely';
 import type { FacetCount } from '$lib/catalogue/dto';
 import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
 import { accessionNumber } from '$lib/schemas/accession';
+import type { KeyValue, RowKey } from '$lib/schemas/pagination';
 import type { Database } from '../db/schema';
 import { bulkWriteInProgress, readCatalogueRevision } from '../db/revision';
 
@@ -20,6 +21,12 @@ import { bulkWriteInProgress, readCatalogueRevision } from '../db/revision';
  * Semantics match SQL on the same columns: a missing pH or temperature fails any bound on it;
  * sorts put missing values last in either direction; ties follow the accession, in the
  * direction of the sort.
+ *
+ * Pages are found by keyset (catalogue/keyset.ts): "after (key, id)" is the first place in the
+ * query's order where a row's key comes after the cursor's, found by binary search — each order
+ * is sorted by its key, so the comparison below must agree with the order exactly. Text keys
+ * compare by Unicode code point, which is how SQLite's BINARY collation orders UTF-8 (the text
+ * orders come from SQLite); the index keeps the three text columns it sorts by for this.
  *
  * Who may see a row is not decided here: callers pass the reader's test
  * (`potentialRowVisibility` in catalogue/visibility.ts, beside its SQL twin), so this folder
@@ -60,6 +67,10 @@ export interface Columns {
 	kinds: string[];
 	methods: string[];
 	organisms: string[];
+	/** Text sort keys per row (each distinct string held once). */
+	proteinName: string[];
+	centreLabel: string[];
+	couple: string[];
 	rowsOfCentre: Map<number, number[]>;
 	orders: Map<OrderKey, { rows: Int32Array; nonNull: number }>;
 }
@@ -68,12 +79,21 @@ export interface IndexQuery {
 	filter: Omit<PotentialFilter, 'q'>;
 	/** Exact accession from the text box, if it held one. */
 	accession?: number;
-	/** Centres found by text, best first, if the text was words. */
-	rankedCentres?: number[];
+	/** Centres found by text with their scores, if the text was words. */
+	rankedCentres?: RankedCentre[];
 	sort: PotentialSort;
 	order: 'asc' | 'desc';
-	offset: number;
 	limit: number;
+	/** Where the page starts: rows to skip, or right after / right before a row's key. */
+	offset?: number;
+	after?: RowKey;
+	before?: RowKey;
+}
+
+/** A centre the text search found, and its score (higher is better). */
+export interface RankedCentre {
+	id: number;
+	score: number;
 }
 
 function codeOf(values: string[], codes: Map<string, number>, value: string): number {
@@ -88,7 +108,8 @@ function codeOf(values: string[], codes: Map<string, number>, value: string): nu
 
 /**
  * One potential as the rebuild reads it: entry, centre and protein ids, Em (mV vs SHE), pH,
- * temperature (K), cofactor kind, method, organism, public_from and group_id.
+ * temperature (K), cofactor kind, method, organism, public_from, group_id, protein name, centre
+ * label and couple.
  */
 type LoadedRow = [
 	number,
@@ -101,8 +122,48 @@ type LoadedRow = [
 	string,
 	string,
 	string | null,
-	number | null
+	number | null,
+	string,
+	string,
+	string
 ];
+
+/** The same string for equal values, so that 100 000 rows hold each name once. */
+function interner() {
+	const seen = new Map<string, string>();
+	return (value: string) => {
+		const known = seen.get(value);
+		if (known !== undefined) return known;
+		seen.set(value, value);
+		return value;
+	};
+}
+
+/**
+ * Text in SQLite's BINARY order (UTF-8 bytes, that is Unicode code points): JavaScript's `<`
+ * compares UTF-16 units, which puts characters beyond U+FFFF (surrogate pairs) before U+E000–U+FFFF.
+ */
+export function compareCodePoints(a: string, b: string): number {
+	if (a === b) return 0;
+	const n = Math.min(a.length, b.length);
+	for (let i = 0; i < n; i++) {
+		const x = a.charCodeAt(i);
+		const y = b.charCodeAt(i);
+		if (x === y) continue;
+		const xs = x >= 0xd800 && x <= 0xdfff;
+		const ys = y >= 0xd800 && y <= 0xdfff;
+		if (xs !== ys) return xs ? 1 : -1;
+		return x - y;
+	}
+	return a.length - b.length;
+}
+
+/** Two key values in ascending order, missing values (null) last. */
+function compareValues(a: KeyValue, b: KeyValue): number {
+	if (a === null || b === null) return a === b ? 0 : a === null ? 1 : -1;
+	if (typeof a === 'number' && typeof b === 'number') return a - b;
+	return compareCodePoints(String(a), String(b));
+}
 
 /** Numeric column values in ascending order, missing values (NaN) last, ties by accession. */
 function numericOrder(n: number, values: Float64Array | Int32Array, entryId: Int32Array) {
@@ -129,7 +190,7 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	// keeps NULLs and every digit of the numbers. The order is explicit: by entry id.
 	const { rows } = await sql<{ potentials: string | null }>`select json_group_array(
 		json_array(entry_id, centre_entry_id, protein_entry_id, em_mv_she, ph, temperature_k,
-			cofactor_kind, method, organism, public_from, group_id)
+			cofactor_kind, method, organism, public_from, group_id, protein_name, centre_label, couple)
 		order by entry_id) as potentials
 		from potential`.execute(db);
 	const loaded = JSON.parse(rows[0]?.potentials ?? '[]') as LoadedRow[];
@@ -150,6 +211,9 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 		kinds: [],
 		methods: [],
 		organisms: [],
+		proteinName: new Array<string>(n),
+		centreLabel: new Array<string>(n),
+		couple: new Array<string>(n),
 		rowsOfCentre: new Map(),
 		orders: new Map()
 	};
@@ -157,9 +221,27 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	const methodCodes = new Map<string, number>();
 	const organismCodes = new Map<string, number>();
 	const dates = new Map<string, number>();
+	const intern = interner();
 	for (let i = 0; i < n; i++) {
-		const [entry, centre, protein, em, ph, t, kind, method, organism, publicFrom, group] =
-			loaded[i]!;
+		const [
+			entry,
+			centre,
+			protein,
+			em,
+			ph,
+			t,
+			kind,
+			method,
+			organism,
+			publicFrom,
+			group,
+			proteinName,
+			centreLabel,
+			couple
+		] = loaded[i]!;
+		c.proteinName[i] = intern(proteinName);
+		c.centreLabel[i] = intern(centreLabel);
+		c.couple[i] = intern(couple);
 		c.entryId[i] = entry;
 		c.centreId[i] = centre;
 		c.proteinId[i] = protein;
@@ -209,6 +291,17 @@ export interface IndexResult {
 	total: number;
 	/** Entry ids of the requested page, in display order. */
 	page: number[];
+	/** Matching rows before the page's first row. */
+	offset: number;
+	/** Sort keys of the page's first and last rows (for the cursors), null when it is empty. */
+	first: RowKey | null;
+	last: RowKey | null;
+}
+
+/** The rows of one query's order, by position (without materialising sorted orders). */
+interface Sequence {
+	length: number;
+	at: (position: number) => number;
 }
 
 /** While a bulk write runs, rebuilds are this far apart at least (and 10 × a rebuild's time). */
@@ -248,6 +341,11 @@ export class PotentialIndex {
 				this.refreshing = null;
 			});
 		await this.refreshing;
+	}
+
+	/** The catalogue revision the columns were built at (-1 before the first build). */
+	get builtRevision(): number {
+		return this.revision;
 	}
 
 	private get data(): Columns {
@@ -291,33 +389,163 @@ export class PotentialIndex {
 			(!hasT || (!Number.isNaN(c.temperature[r]) && within(c.temperature[r]!, f.tMin, f.tMax)));
 	}
 
+	/** The query's order as positions: a sorted order read forwards or backwards, or the ranking. */
+	private sequence(query: IndexQuery, scores: Map<number, number> | null): Sequence {
+		const c = this.data;
+		if (query.sort === 'relevance' && scores) {
+			// Centres best first (ties by id), a centre's rows by accession; desc reverses it all.
+			const ranked = [...scores].sort((a, b) => b[1] - a[1] || a[0] - b[0]);
+			const rows: number[] = [];
+			for (const [centre] of ranked) rows.push(...(c.rowsOfCentre.get(centre) ?? []));
+			if (query.order === 'desc') rows.reverse();
+			return { length: rows.length, at: (i) => rows[i]! };
+		}
+		const key: OrderKey = query.sort === 'relevance' ? 'protein' : query.sort;
+		const { rows, nonNull } = c.orders.get(key) ?? { rows: new Int32Array(0), nonNull: 0 };
+		const n = rows.length;
+		if (query.order === 'asc') return { length: n, at: (i) => rows[i]! };
+		// Descending: known values from the top, then the missing ones, ties by accession descending.
+		return {
+			length: n,
+			at: (i) => (i < nonNull ? rows[nonNull - 1 - i]! : rows[n - 1 - (i - nonNull)]!)
+		};
+	}
+
+	/** A row's sort key in the query's sort (see catalogue/potentials.ts for the shapes). */
+	private keyOf(sort: PotentialSort, r: number, scores: Map<number, number> | null): RowKey {
+		const c = this.data;
+		const id = c.entryId[r]!;
+		const orNull = (v: number) => (Number.isNaN(v) ? null : v);
+		const kind = () => c.kinds[c.kind[r]!]!;
+		switch (sort === 'relevance' && !scores ? 'protein' : sort) {
+			case 'accession':
+				return { key: [], id };
+			case 'em':
+				return { key: [c.em[r]!], id };
+			case 'ph':
+				return { key: [orNull(c.ph[r]!)], id };
+			case 'temperature':
+				return { key: [orNull(c.temperature[r]!)], id };
+			case 'protein':
+				return { key: [c.proteinName[r]!, c.centreLabel[r]!, c.couple[r]!], id };
+			case 'centre':
+				return { key: [c.centreLabel[r]!, c.proteinName[r]!], id };
+			case 'kind':
+				return { key: [kind(), c.proteinName[r]!, c.centreLabel[r]!], id };
+			case 'couple':
+				return { key: [c.couple[r]!], id };
+			case 'method':
+				return { key: [c.methods[c.method[r]!]!], id };
+			case 'relevance':
+				return { key: [scores?.get(c.centreId[r]!) ?? 0, c.centreId[r]!], id };
+		}
+	}
+
+	/**
+	 * Where a row stands against a key in the query's order: negative before it, 0 the same row,
+	 * positive after it. Agrees with `sequence`: values ascending (the score descending for
+	 * relevance), missing values last, then the accession; desc turns every part round but
+	 * keeps missing values last.
+	 */
+	private compareToKey(
+		query: IndexQuery,
+		scores: Map<number, number> | null,
+		r: number,
+		at: RowKey
+	): number {
+		const sign = query.order === 'desc' ? -1 : 1;
+		const own = this.keyOf(query.sort, r, scores);
+		const relevance = query.sort === 'relevance' && scores !== null;
+		for (let i = 0; i < own.key.length; i++) {
+			const a = own.key[i] ?? null;
+			const b = at.key[i] ?? null;
+			if (a === null || b === null) {
+				if (a !== b) return a === null ? 1 : -1;
+				continue;
+			}
+			const d = compareValues(a, b) * (relevance && i === 0 ? -1 : 1);
+			if (d !== 0) return d * sign;
+		}
+		return (own.id - at.id) * sign;
+	}
+
 	/** Total matches and the entry ids of one page. Call ensureCurrent() first. */
 	query(query: IndexQuery, visible: RowVisibility): IndexResult {
 		const c = this.data;
 		const test = this.predicate(query, visible);
-		const page: number[] = [];
-		let total = 0;
-		const take = (r: number) => {
-			if (!test(r)) return;
-			if (total >= query.offset && page.length < query.limit) page.push(c.entryId[r]!);
-			total++;
-		};
-		if (query.sort === 'relevance' && query.rankedCentres) {
-			const ranked =
-				query.order === 'desc' ? [...query.rankedCentres].reverse() : query.rankedCentres;
-			for (const centre of ranked) for (const r of c.rowsOfCentre.get(centre) ?? []) take(r);
-		} else {
-			const key: OrderKey = query.sort === 'relevance' ? 'protein' : query.sort;
-			const { rows, nonNull } = c.orders.get(key) ?? { rows: new Int32Array(0), nonNull: 0 };
-			if (query.order === 'asc') {
-				for (let i = 0; i < rows.length; i++) take(rows[i]!);
-			} else {
-				// Descending: known values from the top, then the missing ones, ties by accession descending.
-				for (let i = nonNull - 1; i >= 0; i--) take(rows[i]!);
-				for (let i = rows.length - 1; i >= nonNull; i--) take(rows[i]!);
+		const scores = query.rankedCentres
+			? new Map(query.rankedCentres.map((r) => [r.id, r.score]))
+			: null;
+		const seq = this.sequence(query, scores);
+		/** The first position whose row is past the key (or, `orSame`, at it). */
+		const boundary = (at: RowKey, orSame: boolean) => {
+			let lo = 0;
+			let hi = seq.length;
+			while (lo < hi) {
+				const mid = (lo + hi) >>> 1;
+				const d = this.compareToKey(query, scores, seq.at(mid), at);
+				if (d > 0 || (orSame && d === 0)) hi = mid;
+				else lo = mid + 1;
 			}
+			return lo;
+		};
+		const limit = query.limit;
+		let total = 0;
+		let before = 0;
+		let page: number[] = [];
+		if (query.after) {
+			// Matches ahead of the key are counted; the page is the first `limit` past it.
+			const start = boundary(query.after, false);
+			for (let i = 0; i < start; i++) if (test(seq.at(i))) before++;
+			total = before;
+			for (let i = start; i < seq.length; i++) {
+				const r = seq.at(i);
+				if (!test(r)) continue;
+				total++;
+				if (page.length < limit) page.push(r);
+			}
+		} else if (query.before) {
+			// The last `limit` matches ahead of the key; if fewer than a page remain, the first page
+			// instead (see sqlKeyset's restartsAtFirstPage).
+			const start = boundary(query.before, true);
+			for (let i = 0; i < start; i++) {
+				const r = seq.at(i);
+				if (!test(r)) continue;
+				before++;
+				page.push(r);
+				if (page.length > 2 * limit) page = page.slice(-limit);
+			}
+			page = page.slice(-limit);
+			total = before;
+			for (let i = start; i < seq.length; i++) {
+				const r = seq.at(i);
+				if (!test(r)) continue;
+				total++;
+				if (page.length < limit) page.push(r);
+			}
+			// `page` is now at least the rows before the key; a short one becomes the first page.
+			if (before < limit) before = 0;
+			else {
+				page = page.slice(0, limit);
+				before -= limit;
+			}
+		} else {
+			const offset = query.offset ?? 0;
+			for (let i = 0; i < seq.length; i++) {
+				const r = seq.at(i);
+				if (!test(r)) continue;
+				if (total >= offset && page.length < limit) page.push(r);
+				total++;
+			}
+			before = Math.min(offset, total);
 		}
-		return { total, page };
+		return {
+			total,
+			offset: before,
+			page: page.map((r) => c.entryId[r]!),
+			first: page.length > 0 ? this.keyOf(query.sort, page[0]!, scores) : null,
+			last: page.length > 0 ? this.keyOf(query.sort, page.at(-1)!, scores) : null
+		};
 	}
 
 	/** Visible potentials per cofactor kind, organism and method, most first. */

@@ -3,6 +3,7 @@ import { setImmediate } from 'node:timers/promises';
 import type { Kysely } from 'kysely';
 import type { CsvLimits } from '$lib/catalogue/csvRecords';
 import { UPLOAD_COLUMNS, columnForHeader } from '$lib/catalogue/uploadColumns';
+import { publicFieldName } from '$lib/kinds/publicNames';
 import { KINDS, type UploadKind } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { UploadIssue } from '$lib/schemas/curationResponses';
@@ -118,10 +119,10 @@ export async function checkUpload(
 	for (const c of UPLOAD_COLUMNS[kind]) {
 		if (c.required && !present.has(c.name)) {
 			missing.add(c.name);
-			issue(1, c.name, '', `missing column "${c.name}" (${c.label}); every row needs it`);
+			issue(1, c.header, '', `missing column "${c.header}" (${c.label}); every row needs it`);
 		}
 	}
-	const headerOf = (field: string) => seen.get(field) ?? field;
+	const headerOf = (field: string) => seen.get(field) ?? publicFieldName(field);
 
 	const ctx = (header: string) => ({
 		decimalComma: table.delimiter === ';',

@@ -1,7 +1,7 @@
-import { centreCsvRow } from '$lib/catalogue/csvRows';
+import { CENTRE_CSV } from '$lib/catalogue/csvRows';
 import { centreApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
-import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
+import { badQuery, cursorOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
 import { listCentres } from '$lib/server/kinds/centre';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
@@ -14,8 +14,8 @@ export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
 	const page = await listCentres(
 		db,
 		filter,
-		{ sort, order, limit, offset: offsetOf(cursor) },
+		{ sort, order, limit, cursor: cursorOf(cursor) },
 		locals.viewer
 	);
-	return respondWithPage(url, page, format, centreCsvRow, 'centres');
+	return respondWithPage(url, page, format, CENTRE_CSV, 'centres');
 });

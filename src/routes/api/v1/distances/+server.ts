@@ -1,7 +1,7 @@
-import { distanceCsvRow } from '$lib/catalogue/csvRows';
+import { DISTANCE_CSV } from '$lib/catalogue/csvRows';
 import { distanceApiQuery } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
-import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
+import { badQuery, cursorOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
 import { listDistances } from '$lib/server/kinds/distance';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
@@ -14,8 +14,8 @@ export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
 	const page = await listDistances(
 		db,
 		filter,
-		{ sort, order, limit, offset: offsetOf(cursor) },
+		{ sort, order, limit, cursor: cursorOf(cursor) },
 		locals.viewer
 	);
-	return respondWithPage(url, page, format, distanceCsvRow, 'distances');
+	return respondWithPage(url, page, format, DISTANCE_CSV, 'distances');
 });

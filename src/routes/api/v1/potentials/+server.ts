@@ -1,7 +1,7 @@
-import { potentialCsvRow } from '$lib/catalogue/csvRows';
+import { POTENTIAL_CSV } from '$lib/catalogue/csvRows';
 import { potentialApiQuery } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
-import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
+import { badQuery, cursorOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
 import { listPotentials } from '$lib/server/catalogue/potentials';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
@@ -14,8 +14,8 @@ export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
 	const page = await listPotentials(
 		db,
 		filter,
-		{ sort, order, limit, offset: offsetOf(cursor) },
+		{ sort, order, limit, cursor: cursorOf(cursor) },
 		locals.viewer
 	);
-	return respondWithPage(url, page, format, potentialCsvRow, 'potentials');
+	return respondWithPage(url, page, format, POTENTIAL_CSV, 'potentials');
 });

@@ -1,7 +1,7 @@
-import { proteinCsvRow } from '$lib/catalogue/csvRows';
+import { PROTEIN_CSV } from '$lib/catalogue/csvRows';
 import { proteinApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
-import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
+import { badQuery, cursorOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
 import { listProteins } from '$lib/server/kinds/protein';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
@@ -14,8 +14,8 @@ export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
 	const page = await listProteins(
 		db,
 		filter,
-		{ sort, order, limit, offset: offsetOf(cursor) },
+		{ sort, order, limit, cursor: cursorOf(cursor) },
 		locals.viewer
 	);
-	return respondWithPage(url, page, format, proteinCsvRow, 'proteins');
+	return respondWithPage(url, page, format, PROTEIN_CSV, 'proteins');
 });

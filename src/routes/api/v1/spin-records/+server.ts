@@ -1,7 +1,7 @@
-import { spinRecordCsvRow } from '$lib/catalogue/csvRows';
+import { SPIN_RECORD_CSV } from '$lib/catalogue/csvRows';
 import { spinRecordApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
-import { badQuery, offsetOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
+import { badQuery, cursorOf, parseApiQuery, respondWithPage } from '$lib/server/api/respond';
 import { listSpinRecords } from '$lib/server/kinds/spinRecord';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
@@ -14,8 +14,8 @@ export const GET: RequestHandler = apiHandler(async ({ url, locals }) => {
 	const page = await listSpinRecords(
 		db,
 		filter,
-		{ sort, order, limit, offset: offsetOf(cursor) },
+		{ sort, order, limit, cursor: cursorOf(cursor) },
 		locals.viewer
 	);
-	return respondWithPage(url, page, format, spinRecordCsvRow, 'spin-records');
+	return respondWithPage(url, page, format, SPIN_RECORD_CSV, 'spin-records');
 });

@@ -1,5 +1,6 @@
 import { json } from '@sveltejs/kit';
 import type { SubmissionCreated } from '$lib/schemas/curationResponses';
+import { fromPublicFields, publicFieldName } from '$lib/kinds/publicNames';
 import { addFieldErrors } from '$lib/schemas/fieldErrors';
 import {
 	apiSubmissionSchema,
@@ -26,11 +27,16 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 	const user = event.locals.user;
 	const body = await parseJsonBody(event.request, apiSubmissionSchema);
 	if (!body.ok) return body.response;
-	const { kind, data, edit, changeNote, submit } = body.data;
-	const entry = parseEntryInput(kind, data);
+	const { kind, edit, changeNote, submit } = body.data;
+	// Ångström fields may be named edgeToEdgeAngstrom or edgeToEdgeA (kinds/publicNames.ts).
+	const data = fromPublicFields(body.data.data);
+	const entry = data.ok
+		? parseEntryInput(kind, data.data)
+		: { ok: false as const, fields: data.fields };
 	const visibility = parseVisibilityRequest(body.data.visibility, 'visibility.');
 	const fields: Record<string, string[]> = {};
-	if (!entry.ok) for (const [k, v] of Object.entries(entry.fields)) fields[`data.${k}`] = v;
+	if (!entry.ok)
+		for (const [k, v] of Object.entries(entry.fields)) fields[`data.${publicFieldName(k)}`] = v;
 	if (!visibility.ok) addFieldErrors(fields, visibility.fields);
 	if (!entry.ok || !visibility.ok) {
 		return apiError('bad_request', `Invalid field(s): ${Object.keys(fields).join(', ')}`, fields);

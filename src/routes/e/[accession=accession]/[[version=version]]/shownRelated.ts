@@ -27,7 +27,10 @@ export interface ShownRelated {
 		}
 	>;
 	distances: RelatedPage<
-		Shown<DistanceDto, 'accession' | 'centreToCentreA' | 'edgeToEdgeA' | 'structureId'> & {
+		Shown<
+			DistanceDto,
+			'accession' | 'centreToCentreAngstrom' | 'edgeToEdgeAngstrom' | 'structureId'
+		> & {
 			centreA: Label;
 			centreB: Label;
 		}
@@ -76,8 +79,8 @@ export function shownRelated(related: RelatedRecords): ShownRelated {
 			accession: d.accession,
 			centreA: label(d.centreA),
 			centreB: label(d.centreB),
-			centreToCentreA: d.centreToCentreA,
-			edgeToEdgeA: d.edgeToEdgeA,
+			centreToCentreAngstrom: d.centreToCentreAngstrom,
+			edgeToEdgeAngstrom: d.edgeToEdgeAngstrom,
 			structureId: d.structureId
 		}))
 	};

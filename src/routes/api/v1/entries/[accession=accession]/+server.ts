@@ -1,4 +1,5 @@
 import type { EntryView } from '$lib/catalogue/dto';
+import { toPublicFields } from '$lib/kinds/publicNames';
 import { permalinkPath } from '$lib/schemas/accession';
 import { entryApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
@@ -30,7 +31,8 @@ function frozenAnswer(view: EntryView, url: URL) {
 		changeNote: view.changeNote,
 		title: view.title,
 		isDemo: view.isDemo,
-		data: view.data,
+		// The version's stored fields under their public names (kinds/publicNames.ts).
+		data: toPublicFields(view.data),
 		references: Object.fromEntries(
 			Object.entries(view.references).map(([field, r]) => [
 				field,

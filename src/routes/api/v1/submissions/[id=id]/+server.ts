@@ -1,4 +1,5 @@
 import { json } from '@sveltejs/kit';
+import { publicFieldName, toPublicFields } from '$lib/kinds/publicNames';
 import { assertRole } from '$lib/server/auth/roles';
 import { apiHandler } from '$lib/server/api/handler';
 import { db } from '$lib/server/db';
@@ -8,5 +9,15 @@ import type { RequestHandler } from './$types';
 /** GET /api/v1/submissions/{id} — a submission with its versions, warnings, reviews and comments (its contributor or a curator). */
 export const GET: RequestHandler = apiHandler(async (event) => {
 	assertRole(event.locals.user, 'contributor');
-	return json(await loadSubmissionView(db, event.locals.user, Number(event.params.id)));
+	const view = await loadSubmissionView(db, event.locals.user, Number(event.params.id));
+	// Stored field names are mapped to their public ones (kinds/publicNames.ts).
+	return json({
+		...view,
+		versions: view.versions.map((v) => ({
+			...v,
+			data: toPublicFields(v.data),
+			current: v.current && { ...v.current, data: toPublicFields(v.current.data) },
+			changes: v.changes.map((c) => ({ ...c, field: publicFieldName(c.field) }))
+		}))
+	});
 });
