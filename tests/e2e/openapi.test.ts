@@ -251,6 +251,9 @@ describe('answers of every operation validate against the document', () => {
 		expect((await sample('checkUpload', '/api/v1/uploads/check?format=xml', upload())).status).toBe(
 			400
 		);
+		// Its query is parsed by its schema like every other: an unknown parameter is an error.
+		const unknown = await sample('checkUpload', '/api/v1/uploads/check?colour=red', upload());
+		expect(unknown.status).toBe(400);
 	});
 
 	it('covered every operation of the document', () => {
