@@ -155,7 +155,12 @@ describe('hidden entries, read from outside their group', () => {
 				const api = await get(`/api/v1/entries/${accession}`, cookie);
 				expect(api.status).toBe(404);
 				expect(blank(await api.text(), accession)).toBe(apiText);
-				for (const path of [`/e/${accession}/v1`, `/e/${accession}/compare?from=1&to=1`])
+				for (const path of [
+					`/e/${accession}/v1`,
+					`/e/${accession}/compare?from=1&to=1`,
+					`/e/${accession}/v1/cite.bib`,
+					`/e/${accession}/cite.ris`
+				])
 					expect((await get(path, cookie)).status, path).toBe(404);
 				// Filters naming a hidden entry answer as for an unknown one: nothing.
 				for (const filter of ['centre', 'protein']) {
@@ -180,6 +185,9 @@ describe('hidden entries, read from outside their group', () => {
 				`/e/${fx.publicProtein}`,
 				`/e/${fx.potentialCitingHiddenSource}`,
 				`/e/${fx.potentialCitingHiddenSource}/v1`,
+				`/e/${fx.potentialCitingHiddenSource}/v1/cite.bib`,
+				`/e/${fx.potentialCitingHiddenSource}/v1/cite.ris`,
+				`/e/${fx.potentialCitingHiddenSource}/v1/cite.json`,
 				`/search`,
 				`/search?q=${fx.publicCentre}`,
 				`/proteins`,

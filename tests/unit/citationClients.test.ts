@@ -92,7 +92,8 @@ describe('citation-js reads the RIS', () => {
 	});
 });
 
-describe('citeproc-js renders the CSL-JSON', () => {
+// Building an engine compiles the style; APA's 66 kB took 4–6 s on the shared machine.
+describe('citeproc-js renders the CSL-JSON', { timeout: 60_000 }, () => {
 	const items = JSON.parse(citations.cslJson) as { id: string }[];
 	const locale = readFileSync('tests/fixtures/csl/locales-en-US.xml', 'utf8');
 
