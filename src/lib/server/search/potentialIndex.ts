@@ -26,7 +26,8 @@ import { bulkWriteInProgress, readCatalogueRevision } from '../db/revision';
  * query's order where a row's key comes after the cursor's, found by binary search — each order
  * is sorted by its key, so the comparison below must agree with the order exactly. Text keys
  * compare by Unicode code point, which is how SQLite's BINARY collation orders UTF-8 (the text
- * orders come from SQLite); the index keeps the three text columns it sorts by for this.
+ * orders come from SQLite); the index keeps the text it sorts by for this: each protein's name
+ * and centre's label once, and the couples as codes.
  *
  * Who may see a row is not decided here: callers pass the reader's test
  * (`potentialRowVisibility` in catalogue/visibility.ts, beside its SQL twin), so this folder
@@ -67,10 +68,11 @@ export interface Columns {
 	kinds: string[];
 	methods: string[];
 	organisms: string[];
-	/** Text sort keys per row (each distinct string held once). */
-	proteinName: string[];
-	centreLabel: string[];
-	couple: string[];
+	/** Text sort keys: names by protein, labels by centre, couples coded per row. */
+	proteinNames: Map<number, string>;
+	centreLabels: Map<number, string>;
+	couple: Int32Array;
+	couples: string[];
 	rowsOfCentre: Map<number, number[]>;
 	orders: Map<OrderKey, { rows: Int32Array; nonNull: number }>;
 }
@@ -108,8 +110,7 @@ function codeOf(values: string[], codes: Map<string, number>, value: string): nu
 
 /**
  * One potential as the rebuild reads it: entry, centre and protein ids, Em (mV vs SHE), pH,
- * temperature (K), cofactor kind, method, organism, public_from, group_id, protein name, centre
- * label and couple.
+ * temperature (K), cofactor kind, method, organism, public_from, group_id and couple.
  */
 type LoadedRow = [
 	number,
@@ -123,21 +124,8 @@ type LoadedRow = [
 	string,
 	string | null,
 	number | null,
-	string,
-	string,
 	string
 ];
-
-/** The same string for equal values, so that 100 000 rows hold each name once. */
-function interner() {
-	const seen = new Map<string, string>();
-	return (value: string) => {
-		const known = seen.get(value);
-		if (known !== undefined) return known;
-		seen.set(value, value);
-		return value;
-	};
-}
 
 /**
  * Text in SQLite's BINARY order (UTF-8 bytes, that is Unicode code points): JavaScript's `<`
@@ -190,7 +178,7 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	// keeps NULLs and every digit of the numbers. The order is explicit: by entry id.
 	const { rows } = await sql<{ potentials: string | null }>`select json_group_array(
 		json_array(entry_id, centre_entry_id, protein_entry_id, em_mv_she, ph, temperature_k,
-			cofactor_kind, method, organism, public_from, group_id, protein_name, centre_label, couple)
+			cofactor_kind, method, organism, public_from, group_id, couple)
 		order by entry_id) as potentials
 		from potential`.execute(db);
 	const loaded = JSON.parse(rows[0]?.potentials ?? '[]') as LoadedRow[];
@@ -211,9 +199,10 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 		kinds: [],
 		methods: [],
 		organisms: [],
-		proteinName: new Array<string>(n),
-		centreLabel: new Array<string>(n),
-		couple: new Array<string>(n),
+		proteinNames: new Map(),
+		centreLabels: new Map(),
+		couple: new Int32Array(n),
+		couples: [],
 		rowsOfCentre: new Map(),
 		orders: new Map()
 	};
@@ -221,27 +210,11 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	const methodCodes = new Map<string, number>();
 	const organismCodes = new Map<string, number>();
 	const dates = new Map<string, number>();
-	const intern = interner();
+	const coupleCodes = new Map<string, number>();
 	for (let i = 0; i < n; i++) {
-		const [
-			entry,
-			centre,
-			protein,
-			em,
-			ph,
-			t,
-			kind,
-			method,
-			organism,
-			publicFrom,
-			group,
-			proteinName,
-			centreLabel,
-			couple
-		] = loaded[i]!;
-		c.proteinName[i] = intern(proteinName);
-		c.centreLabel[i] = intern(centreLabel);
-		c.couple[i] = intern(couple);
+		const [entry, centre, protein, em, ph, t, kind, method, organism, publicFrom, group, couple] =
+			loaded[i]!;
+		c.couple[i] = codeOf(c.couples, coupleCodes, couple);
 		c.entryId[i] = entry;
 		c.centreId[i] = centre;
 		c.proteinId[i] = protein;
@@ -269,6 +242,20 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	}
 	for (const rowsOfCentre of c.rowsOfCentre.values())
 		rowsOfCentre.sort((a, b) => c.entryId[a]! - c.entryId[b]!);
+
+	// The names the text orders sort by, as the potential rows carry them (one per protein and
+	// centre: refreshPotentialRows keeps every row of one in step).
+	const { rows: names } = await sql<{
+		protein: number;
+		centre: number;
+		protein_name: string;
+		centre_label: string;
+	}>`select protein_entry_id as protein, centre_entry_id as centre, protein_name, centre_label
+		from potential group by centre_entry_id`.execute(db);
+	for (const r of names) {
+		c.proteinNames.set(r.protein, r.protein_name);
+		c.centreLabels.set(r.centre, r.centre_label);
+	}
 
 	c.orders.set('accession', numericOrder(n, c.entryId, c.entryId));
 	c.orders.set('em', numericOrder(n, c.em, c.entryId));
@@ -417,6 +404,9 @@ export class PotentialIndex {
 		const id = c.entryId[r]!;
 		const orNull = (v: number) => (Number.isNaN(v) ? null : v);
 		const kind = () => c.kinds[c.kind[r]!]!;
+		const protein = () => c.proteinNames.get(c.proteinId[r]!) ?? '';
+		const centre = () => c.centreLabels.get(c.centreId[r]!) ?? '';
+		const couple = () => c.couples[c.couple[r]!]!;
 		switch (sort === 'relevance' && !scores ? 'protein' : sort) {
 			case 'accession':
 				return { key: [], id };
@@ -427,13 +417,13 @@ export class PotentialIndex {
 			case 'temperature':
 				return { key: [orNull(c.temperature[r]!)], id };
 			case 'protein':
-				return { key: [c.proteinName[r]!, c.centreLabel[r]!, c.couple[r]!], id };
+				return { key: [protein(), centre(), couple()], id };
 			case 'centre':
-				return { key: [c.centreLabel[r]!, c.proteinName[r]!], id };
+				return { key: [centre(), protein()], id };
 			case 'kind':
-				return { key: [kind(), c.proteinName[r]!, c.centreLabel[r]!], id };
+				return { key: [kind(), protein(), centre()], id };
 			case 'couple':
-				return { key: [c.couple[r]!], id };
+				return { key: [couple()], id };
 			case 'method':
 				return { key: [c.methods[c.method[r]!]!], id };
 			case 'relevance':
