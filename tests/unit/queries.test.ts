@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { LIST_KEYS, potentialApiQuery, potentialPageQuery } from '$lib/schemas/catalogueQuery';
 import { parseSearchParams } from '$lib/schemas/searchParams';
-import { apiParamsForPage, searchHref } from '$lib/catalogue/searchUrl';
-import { decodeCursor } from '$lib/schemas/pagination';
+import { apiParamsForPage, exportParamsForPage, searchHref } from '$lib/catalogue/searchUrl';
+import { decodeCursor, encodeCursor } from '$lib/schemas/pagination';
 
 const parse = (qs: string) =>
 	parseSearchParams(potentialApiQuery, new URLSearchParams(qs), LIST_KEYS);
@@ -44,6 +44,31 @@ describe('search page URL state', () => {
 		expect(api.get('limit')).toBe('50');
 		expect(decodeCursor(api.get('cursor') ?? '')).toEqual({ kind: 'offset', offset: 100 });
 		expect(api.getAll('kind')).toEqual(['fe4s4']);
+	});
+	it('passes the page cursor to the API, and drops it when anything but the page changes', () => {
+		const cursor = encodeCursor({
+			list: 'potentials',
+			sort: 'em',
+			order: 'asc',
+			direction: 'next',
+			key: [-200],
+			id: 12
+		});
+		const r = parseSearchParams(
+			potentialPageQuery,
+			new URLSearchParams(`kind=fe4s4&sort=em&cursor=${cursor}`),
+			LIST_KEYS
+		);
+		expect(r.ok).toBe(true);
+		if (!r.ok) return;
+		expect(apiParamsForPage(r.data).get('cursor')).toBe(cursor);
+		expect(exportParamsForPage(r.data).toString()).toBe('kind=fe4s4&sort=em');
+		const current = new URL(`http://x/search?kind=fe4s4&sort=em&cursor=${cursor}`);
+		expect(searchHref(current, { order: 'desc' })).toBe('/search?kind=fe4s4&sort=em&order=desc');
+		expect(searchHref(current, { cursor: 'def' })).toBe('/search?kind=fe4s4&sort=em&cursor=def');
+		expect(searchHref(current, { hide: 'organism', cursor })).toBe(
+			`/search?kind=fe4s4&sort=em&hide=organism&cursor=${cursor}`
+		);
 	});
 	it('returns to page 1 when a filter changes', () => {
 		const href = searchHref(new URL('http://x/search?q=rox&page=4'), { sort: 'em' });

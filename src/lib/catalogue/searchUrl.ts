@@ -57,7 +57,7 @@ export function searchHref(current: URL, changes: Record<string, ParamChange>): 
 		if (Array.isArray(value)) for (const v of value) next.append(key, v);
 		else next.set(key, String(value));
 	}
-	next.delete('page');
+	if (!('page' in changes)) next.delete('page');
 	if (!('cursor' in changes)) next.delete('cursor');
 	const search = next.toString();
 	return `${current.pathname}${search ? `?${search}` : ''}`;
