@@ -169,6 +169,11 @@ describe('answers of every operation validate against the document', () => {
 
 	it('facets, the index and the calculators with the document’s examples', async () => {
 		expect((await sample('getFacets', '/api/v1/facets')).status).toBe(200);
+		const exported = await sample('exportPotentials', '/api/v1/potentials/export?kind=fe4s4');
+		expect(exported.status).toBe(200);
+		const csv = (await exported.text()).trim().split(/\r?\n/);
+		expect(csv.length - 1).toBe(Number(exported.headers.get('x-total-count')));
+		expect((await sample('exportPotentials', '/api/v1/potentials/export?sort=x')).status).toBe(400);
 		const index = await sample('getIndex', '/api/v1');
 		expect(((await index.json()) as { endpoints: unknown[] }).endpoints).toHaveLength(
 			Object.values(doc.paths).flatMap((i) => Object.keys(i)).length

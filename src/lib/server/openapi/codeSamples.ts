@@ -23,6 +23,8 @@ interface SampleRequest {
 	needsToken: boolean;
 	/** A JSON page of rows (items), which pandas and R turn into a table. */
 	isList: boolean;
+	/** The answer is CSV, read as a table. */
+	isCsv: boolean;
 }
 
 function requestOf(op: ApiOperation, apiBase: string): SampleRequest {
@@ -39,7 +41,8 @@ function requestOf(op: ApiOperation, apiBase: string): SampleRequest {
 		query: Object.entries(example).filter(([name]) => !pathNames.has(name)),
 		body: op.body,
 		needsToken: op.access === 'contributor',
-		isList: op.success.schema?.endsWith('Page') ?? false
+		isList: op.success.schema?.endsWith('Page') ?? false,
+		isCsv: op.success.csvOnly !== undefined
 	};
 }
 
@@ -102,7 +105,8 @@ export function pythonLiteral(value: unknown, indent = 0): string {
 function python(r: SampleRequest): string {
 	const imports = ['import requests'];
 	if (r.needsToken) imports.unshift('import os');
-	if (r.isList) imports.push('import pandas as pd');
+	if (r.isList || r.isCsv) imports.push('import pandas as pd');
+	if (r.isCsv) imports.unshift('import io');
 	const args = [JSON.stringify(r.url)];
 	if (r.query.length) {
 		const params = Object.fromEntries(r.query.map(([k, v]) => [k, Array.isArray(v) ? [...v] : v]));
@@ -133,7 +137,10 @@ function python(r: SampleRequest): string {
 		lines.push(...call);
 	}
 	lines.push('r.raise_for_status()');
-	if (r.isList) {
+	if (r.isCsv) {
+		lines.push('df = pd.read_csv(io.StringIO(r.text))');
+		lines.push('print(r.headers["X-Total-Count"], "rows;", len(df), "read")');
+	} else if (r.isList) {
 		lines.push('page = r.json()');
 		lines.push('# one row per item; nested fields become columns such as centre.label');
 		lines.push('df = pd.json_normalize(page["items"])');
@@ -171,7 +178,10 @@ function r(r: SampleRequest): string {
 		lines.push(`  req_body_multipart(${parts.join(', ')}) |>`);
 	}
 	lines.push('  req_perform()');
-	if (r.isList) {
+	if (r.isCsv) {
+		lines.push('rows <- read.csv(text = resp_body_string(resp))');
+		lines.push('cat(resp_header(resp, "X-Total-Count"), "rows;", NROW(rows), "read\\n")');
+	} else if (r.isList) {
 		lines.push(
 			'# a data frame, one row per item; nested fields flattened into columns such as centre.label'
 		);

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import { ENTRY_KINDS, KINDS, type EntryKind } from '$lib/kinds';
+import { publicFieldName } from '$lib/kinds/publicNames';
 import { LIST_KEYS } from '$lib/schemas/catalogueQuery';
 import { config } from '../config';
 import { codeSamples } from './codeSamples';
@@ -96,17 +97,33 @@ export function dataSchemaName(kind: EntryKind): string {
 	return `${kind.replace(/(^|_)([a-z])/g, (_, __, c: string) => c.toUpperCase())}Data`;
 }
 
+/** An object schema with its properties (and required list) under their public names. */
+function withPublicNames(schema: JsonSchema): JsonSchema {
+	const properties = schema.properties as Record<string, JsonSchema> | undefined;
+	if (!properties) return schema;
+	return {
+		...schema,
+		properties: Object.fromEntries(
+			Object.entries(properties).map(([name, p]) => [publicFieldName(name), p])
+		),
+		...(Array.isArray(schema.required)
+			? { required: (schema.required as string[]).map(publicFieldName) }
+			: {})
+	};
+}
+
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 
 function components(): OpenApiDocument['components'] {
 	const schemas: Record<string, JsonSchema> = componentSchemas(RESPONSE_SCHEMAS);
 	// An entry's data is in its kind's stored schema: one component per kind, tied to `kind`.
 	// Read as a stored version is read back: a field added to a kind later, with a default, may
-	// be missing from versions approved before.
+	// be missing from versions approved before. Fields go out under their public names
+	// (kinds/publicNames.ts), as the routes send them.
 	for (const kind of ENTRY_KINDS) {
 		schemas[dataSchemaName(kind)] = {
 			description: `What a version of a ${KINDS[kind].label.toLowerCase()} stores.`,
-			...storedSchema(KINDS[kind].schema)
+			...withPublicNames(storedSchema(KINDS[kind].schema))
 		};
 	}
 	schemas.Entry = {
@@ -201,6 +218,21 @@ function parameters(op: ApiOperation): OpenApiParameter[] {
 function successResponse(op: ApiOperation): OpenApiResponse {
 	const { success } = op;
 	const example = typeof success.example === 'function' ? success.example() : success.example;
+	if (success.csvOnly)
+		return {
+			description: success.description,
+			content: { 'text/csv': { schema: { type: 'string', description: success.csvOnly } } },
+			...(success.headers
+				? {
+						headers: Object.fromEntries(
+							Object.entries(success.headers).map(([name, description]) => [
+								name,
+								{ description, schema: { type: 'string' } }
+							])
+						)
+					}
+				: {})
+		};
 	const content: Record<string, OpenApiMedia> = {
 		'application/json': {
 			schema: success.schema

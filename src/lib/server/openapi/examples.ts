@@ -67,8 +67,13 @@ export const EXAMPLES = {
 	potentialPage: {
 		items: [potential],
 		total: 12,
+		offset: 0,
 		nextCursor: 'bzo1MA',
-		links: { next: next('potentials?kind=fe4s4&emMin=-400&emMax=-200&sort=em&limit=50') }
+		prevCursor: null,
+		links: {
+			next: next('potentials?kind=fe4s4&emMin=-400&emMax=-200&sort=em&limit=50'),
+			prev: null
+		}
 	},
 	proteinPage: {
 		items: [
@@ -100,8 +105,10 @@ export const EXAMPLES = {
 			} satisfies CentreDto
 		],
 		total: 2,
+		offset: 0,
 		nextCursor: null,
-		links: { next: null }
+		prevCursor: null,
+		links: { next: null, prev: null }
 	},
 	spinRecordPage: {
 		items: [

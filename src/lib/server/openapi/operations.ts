@@ -31,6 +31,7 @@ import {
 	distanceApiQuerySchema,
 	entryApiQuerySchema,
 	potentialApiQuerySchema,
+	potentialExportQuerySchema,
 	proteinApiQuerySchema,
 	spinRecordApiQuerySchema
 } from '$lib/schemas/catalogueQuery';
@@ -102,6 +103,8 @@ export interface ApiOperation {
 		schema: ResponseSchemaName | null;
 		/** The answer also comes as CSV (with ?format=csv), described so. */
 		csv?: string;
+		/** The answer is CSV only (no JSON), described so. */
+		csvOnly?: string;
 		headers?: Record<string, string>;
 		/** An example of the answer; the calculators' are computed by the calculators (a function). */
 		example?: unknown;
@@ -294,6 +297,26 @@ export const OPERATIONS: readonly ApiOperation[] = [
 			headers: csvHeaders
 		},
 		errors: [400]
+	},
+	{
+		operationId: 'exportPotentials',
+		method: 'get',
+		path: '/potentials/export',
+		tag: 'Catalogue',
+		summary: 'Every matching potential, as CSV',
+		description:
+			'All potentials matching the filters, in the chosen order, as one CSV streamed from one read snapshot (approvals during the download change neither count nor rows). The number of rows comes first, in `X-Total-Count`; the body holds the header row and exactly that many rows. Refused with 400 above EXPORT_MAX_ROWS rows, 503 with `Retry-After` while too many exports run.',
+		access: 'anyone',
+		query: potentialExportQuerySchema,
+		example: { kind: ['fe4s4'], sort: 'em' },
+		success: {
+			status: 200,
+			description: 'Every matching potential as CSV.',
+			schema: null,
+			csvOnly: 'One row per potential after the header row, the columns of the list as CSV.',
+			headers: { 'X-Total-Count': 'Rows in the body after the header row.' }
+		},
+		errors: [400, 503]
 	},
 	{
 		operationId: 'listProteins',
