@@ -1,5 +1,6 @@
 import { ZERO_CELSIUS_K } from '$lib/science/constants';
 import { KINDS, type EntryKind } from '$lib/kinds';
+import { readDecimal } from '$lib/schemas/decimal';
 
 /*
  * How the strings of an entry form (laid out by the kind's module, src/lib/kinds) become the
@@ -14,14 +15,9 @@ export interface FormReading {
 	errors: Record<string, string[]>;
 }
 
-/** The trade writes minus signs and decimal points several ways; read them all. */
+/** A number typed into an entry form or a CSV cell (decimal commas are handled by the caller). */
 export function readNumber(text: string): number | null {
-	const normalised = text
-		.trim()
-		.replace(/[\u2212\u2012\u2013]/g, '-')
-		.replace(/\s+/g, '');
-	if (!/^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(normalised)) return null;
-	return Number(normalised);
+	return readDecimal(text, { decimalComma: false });
 }
 
 export function readTemperature(text: string): number | null {
