@@ -1,4 +1,10 @@
-import { REFERENCE_ELECTRODES, REFERENCE_ELECTRODE_LABELS } from '$lib/science/referenceElectrodes';
+import { STANDARD_TEMPERATURE_K } from '$lib/science/constants';
+import {
+	REFERENCE_ELECTRODES,
+	REFERENCE_ELECTRODE_LABELS,
+	describeTemperatureRange,
+	electrodeTemperatureProblem
+} from '$lib/science/referenceElectrodes';
 import { POTENTIAL_UNITS } from '$lib/science/units';
 import { normalisePotential, potentialInputSchema, potentialSchema } from '$lib/schemas/potential';
 import {
@@ -25,7 +31,8 @@ const FIELDS = [
 	field('reportedUnit', 'select', { required: true, options: options(POTENTIAL_UNITS) }),
 	field('referenceElectrode', 'select', {
 		required: true,
-		options: options(REFERENCE_ELECTRODES, REFERENCE_ELECTRODE_LABELS)
+		options: options(REFERENCE_ELECTRODES, REFERENCE_ELECTRODE_LABELS),
+		hint: `converted to SHE at the temperature given: SCE ${describeTemperatureRange('SCE')}, Ag/AgCl ${describeTemperatureRange('AgAgCl_sat')} (a 25 °C offset), SHE and NHE at any temperature (NHE taken as SHE)`
 	}),
 	field('ph', 'number'),
 	field('temperatureK', 'temperature', { unit: 'K', hint: TEMPERATURE_HINT }),
@@ -48,6 +55,13 @@ export const potential = defineKind({
 	input: {
 		schema: potentialInputSchema,
 		toData(input) {
+			// Each electrode's conversion holds over a stated range of temperatures only
+			// (referenceElectrodes.ts, TEMPERATURE_RANGES: Bard & Faulkner Table C.2 for the SCE).
+			const problem = electrodeTemperatureProblem(
+				input.referenceElectrode,
+				input.temperatureK ?? STANDARD_TEMPERATURE_K
+			);
+			if (problem !== null) return { ok: false, fields: { temperatureK: [problem] } };
 			const data = normalisePotential(input);
 			if (EM_FIELD.safeParse(data.emMvShe).success) return { ok: true, data };
 			// The contributor typed the reported value: the error belongs there, with the likely cause.
