@@ -17,10 +17,7 @@ import {
  * electrode's range (referenceElectrodes.ts, TEMPERATURE_RANGES). Derived from the version's own
  * data only, so it reads the same for as long as the version exists.
  */
-export function conversionNote(
-	electrode: ReferenceElectrode,
-	temperatureK: number | null
-): string {
+export function conversionNote(electrode: ReferenceElectrode, temperatureK: number | null): string {
 	const t = temperatureK ?? STANDARD_TEMPERATURE_K;
 	const at = `${Number((t - ZERO_CELSIUS_K).toFixed(2))} °C${temperatureK === null ? ' (no temperature given: 25 °C assumed)' : ''}`;
 	const label = REFERENCE_ELECTRODE_LABELS[electrode];

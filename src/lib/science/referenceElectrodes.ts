@@ -91,7 +91,8 @@ export interface ElectrodeTemperatureRange {
 const HYDROGEN_RANGE: ElectrodeTemperatureRange = {
 	minC: null,
 	maxC: null,
-	basis: 'zero at every temperature by convention (IUPAC Green Book, 3rd ed. 2007, §2.13, from memory)'
+	basis:
+		'zero at every temperature by convention (IUPAC Green Book, 3rd ed. 2007, §2.13, from memory)'
 };
 const AGAGCL_RANGE: ElectrodeTemperatureRange = {
 	minC: 15,
@@ -107,7 +108,8 @@ export const TEMPERATURE_RANGES: Record<ReferenceElectrode, ElectrodeTemperature
 	SCE: {
 		minC: 0,
 		maxC: 70,
-		basis: 'the temperature law of Bard & Faulkner (2001), Table C.2 (from memory), applied from 0 to 70 °C'
+		basis:
+			'the temperature law of Bard & Faulkner (2001), Table C.2 (from memory), applied from 0 to 70 °C'
 	},
 	AgAgCl_sat: AGAGCL_RANGE,
 	'AgAgCl_3.5M': AGAGCL_RANGE,
@@ -202,7 +204,9 @@ export function hydrogenElectrodePressureShiftMv(
 	if (!(Number.isFinite(temperatureK) && temperatureK > 0)) {
 		throw new RangeError(`temperatureK must be a positive number, got ${String(temperatureK)}`);
 	}
-	return ((-GAS_J_PER_MOL_K * temperatureK) / (2 * FARADAY_C_PER_MOL)) * Math.log(pressureBar) * 1000;
+	return (
+		((-GAS_J_PER_MOL_K * temperatureK) / (2 * FARADAY_C_PER_MOL)) * Math.log(pressureBar) * 1000
+	);
 }
 
 /**

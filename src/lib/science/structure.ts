@@ -2,10 +2,23 @@
  * Reading atoms from PDB and PDBx/mmCIF coordinate files, grouping cofactor atoms into redox
  * centres, and measuring edge-to-edge and centre-to-centre distances between them (Å).
  *
- * References: wwPDB, *Atomic Coordinate Entry Format Description*, v3.3 (ATOM/HETATM columns);
- * wwPDB PDBx/mmCIF dictionary, category atom_site; residue names from the wwPDB Chemical
- * Component Dictionary (listed in COFACTOR_RESIDUES). Only the first model is read; for atoms
- * with alternate locations the first location met is kept; waters are never cofactors.
+ * References: wwPDB, *Atomic Coordinate Entry Format Description*, v3.3 (2011), section
+ * "Coordinate Section", records ATOM and HETATM (fixed columns; atom-name alignment); wwPDB
+ * PDBx/mmCIF dictionary, category atom_site; R. W. Grosse-Kunstleve, T. C. Terwilliger & P. D.
+ * Adams, "hybrid-36" (cctbx, 2007), the encoding of residue numbers beyond 9999 in the PDB
+ * format's 4 columns; residue names from the wwPDB Chemical Component Dictionary (listed in
+ * COFACTOR_RESIDUES).
+ *
+ * Choices, each with its reason:
+ * - Only the first model is read (an NMR ensemble's first model stands for it).
+ * - Alternate locations: per residue (chain, number, insertion code), the conformer with the
+ *   highest mean occupancy is kept, ties going to "A", then to the alphabetically first
+ *   identifier; atoms without an alternate location are always kept. The first location met
+ *   is not necessarily the better determined one (PDB v3.3, ATOM: altLoc and occupancy).
+ * - The element comes from the element column (PDB columns 77–78, mmCIF type_symbol); when it is
+ *   blank it is read from the atom name's alignment (`elementFromPdbName`).
+ * - mmCIF files need not carry _atom_site.group_PDB (the dictionary does not require it);
+ *   without it every row of the first model is read and `hetero` is null (not stated).
  */
 
 export interface Atom {
@@ -20,7 +33,12 @@ export interface Atom {
 	x: number;
 	y: number;
 	z: number;
-	hetero: boolean;
+	/** HETATM (true) or ATOM (false); null when an mmCIF file has no group_PDB column. */
+	hetero: boolean | null;
+	/** Alternate location identifier ('' when none). */
+	altLoc: string;
+	/** Occupancy (0–1); null when the file gives none. */
+	occupancy: number | null;
 }
 
 /** Cofactor residue names of the wwPDB Chemical Component Dictionary, by family. */
@@ -58,12 +76,88 @@ const ISOALLOXAZINE = new Set([
 	'C10'
 ]);
 
-function guessElement(atomName: string): string {
-	const letters = atomName.replace(/[^A-Za-z]/g, '').toUpperCase();
-	for (const two of ['FE', 'CU', 'NI', 'MO', 'ZN', 'MG', 'MN', 'CO', 'CL', 'SE']) {
-		if (letters.startsWith(two) && atomName.trim().toUpperCase().startsWith(two)) return two;
+/** Element symbols of two letters (IUPAC periodic table), upper case. */
+const TWO_LETTER_ELEMENTS = new Set(
+	(
+		'HE LI BE NE NA MG AL SI CL AR CA SC TI CR MN FE CO NI CU ZN GA GE AS SE BR KR RB SR ZR NB ' +
+		'MO TC RU RH PD AG CD IN SN SB TE XE CS BA LA CE PR ND PM SM EU GD TB DY HO ER TM YB LU HF ' +
+		'TA RE OS IR PT AU HG TL PB BI PO AT RN FR RA AC TH PA NP PU AM CM BK CF ES FM MD NO LR'
+	).split(' ')
+);
+
+/**
+ * The element of a PDB atom whose element column is blank, from its 4-column name (columns
+ * 13–16) as PDB v3.3 aligns it (ATOM record, "Atom names"): a one-letter element starts in
+ * column 14 (" CA " is an alpha carbon), a two-letter element in column 13 ("CA  " is calcium,
+ * "FE1 " iron). A digit in column 13 (old hydrogen names such as "1HG1") also means a one-letter
+ * element in column 14. A name filling all four columns starts in column 13 whatever its
+ * element; there, a name starting with H is a hydrogen ("HG12", "HD21": v3.3 writes four-letter
+ * hydrogen names so), not mercury or another two-letter element.
+ * @example elementFromPdbName(' CA ') // 'C'
+ * @example elementFromPdbName('CA  ') // 'CA'
+ */
+export function elementFromPdbName(name: string): string {
+	const columns = name.padEnd(4).slice(0, 4).toUpperCase();
+	const first = columns[0]!;
+	const second = columns[1]!;
+	if (first === ' ' || /[0-9]/.test(first)) return /[A-Z]/.test(second) ? second : '';
+	if (!/[A-Z]/.test(first)) return '';
+	const fillsAll = columns[3] !== ' ';
+	if (fillsAll && first === 'H') return 'H';
+	if (/[A-Z]/.test(second) && TWO_LETTER_ELEMENTS.has(first + second)) return first + second;
+	return first;
+}
+
+/**
+ * The element of an mmCIF atom without type_symbol, from its name alone (mmCIF keeps no column
+ * alignment): a single-atom component named as its element (CA in CA, FE in FE: the Chemical
+ * Component Dictionary's ions) is that element; a name starting with a metal or halogen symbol
+ * (FE1, CU, CL1) outside the standard amino acids is that element; otherwise the first letter.
+ */
+function elementFromCifName(name: string, resName: string): string {
+	const upper = name.toUpperCase();
+	if (upper === resName.toUpperCase() && TWO_LETTER_ELEMENTS.has(upper)) return upper;
+	const letters = upper.replace(/[^A-Z]/g, '');
+	if (!AMINO_ACIDS.has(resName.toUpperCase())) {
+		for (const two of ['FE', 'CU', 'NI', 'MO', 'ZN', 'MG', 'MN', 'CO', 'CL', 'SE', 'BR']) {
+			if (upper.startsWith(two)) return two;
+		}
 	}
 	return letters.slice(0, 1);
+}
+
+/** The 20 standard amino acids and selenomethionine, whose atoms are C, N, O, S, Se or H. */
+const AMINO_ACIDS = new Set(
+	'ALA ARG ASN ASP CYS GLN GLU GLY HIS ILE LEU LYS MET PHE PRO SER THR TRP TYR VAL'.split(' ')
+);
+
+const DIGITS_UPPER = '0123456789ABCDEFGHIJKLMNOPQRSTUVWXYZ';
+const DIGITS_LOWER = '0123456789abcdefghijklmnopqrstuvwxyz';
+
+/**
+ * Reads a hybrid-36 number of `width` characters (4 for residue numbers, 5 for atom serials):
+ * plain decimal up to 10^width − 1; then upper-case base 36 starting at "A000" (= 10^width),
+ * then lower-case base 36 starting at "a000" (Grosse-Kunstleve, Terwilliger & Adams, hybrid-36).
+ * For width 4: "9999" → 9999, "A000" → 10000, "ZZZZ" → 1 223 055, "a000" → 1 223 056.
+ * @throws {RangeError} for text that is neither decimal nor a valid hybrid-36 number.
+ * @example readHybrid36('A001', 4) // 10001
+ */
+export function readHybrid36(text: string, width: number): number {
+	const s = text.trim();
+	if (s === '') throw new RangeError('empty number');
+	if (/^-?\d+$/.test(s)) return Number(s);
+	if (s.length !== width)
+		throw new RangeError(`"${s}" is not a ${width}-character hybrid-36 number`);
+	const upper = /^[A-Z][0-9A-Z]*$/.test(s);
+	const lower = /^[a-z][0-9a-z]*$/.test(s);
+	if (!upper && !lower) throw new RangeError(`"${s}" is not a hybrid-36 number`);
+	const digits = upper ? DIGITS_UPPER : DIGITS_LOWER;
+	let value = 0;
+	for (const ch of s) value = value * 36 + digits.indexOf(ch);
+	// "A000…" is 10·36^(width−1) in base 36 and stands for 10^width.
+	const offset = 10 * 36 ** (width - 1);
+	const span = 26 * 36 ** (width - 1);
+	return value - offset + 10 ** width + (lower ? span : 0);
 }
 
 function number(text: string, what: string, line: number): number {
@@ -74,22 +168,52 @@ function number(text: string, what: string, line: number): number {
 	return value;
 }
 
-function keepFirstAltLoc(): (key: string, altLoc: string) => boolean {
-	const seen = new Map<string, string>();
-	return (key, altLoc) => {
-		if (altLoc === '' || altLoc === '.' || altLoc === '?') return true;
-		const first = seen.get(key);
-		if (first === undefined) {
-			seen.set(key, altLoc);
-			return true;
+/** An optional number (occupancy): null when blank or "?"/"."; the line named when malformed. */
+function optionalNumber(text: string, what: string, line: number): number | null {
+	const t = text.trim();
+	if (t === '' || t === '?' || t === '.') return null;
+	return number(t, what, line);
+}
+
+/**
+ * Keeps, per residue, the atoms without an alternate location and those of one conformer: the
+ * highest mean occupancy, then "A", then the alphabetically first identifier (see the module
+ * notes). Order of the atoms is kept.
+ */
+function chooseAltLocs(atoms: Atom[]): Atom[] {
+	const residueKey = (a: Atom) => `${a.chainId}|${a.resSeq}|${a.insertionCode}`;
+	const stats = new Map<string, Map<string, { sum: number; known: number }>>();
+	for (const a of atoms) {
+		if (a.altLoc === '') continue;
+		const key = residueKey(a);
+		let byAlt = stats.get(key);
+		if (!byAlt) stats.set(key, (byAlt = new Map()));
+		const s = byAlt.get(a.altLoc) ?? { sum: 0, known: 0 };
+		if (a.occupancy !== null) {
+			s.sum += a.occupancy;
+			s.known++;
 		}
-		return first === altLoc;
-	};
+		byAlt.set(a.altLoc, s);
+	}
+	const chosen = new Map<string, string>();
+	for (const [key, byAlt] of stats) {
+		const ranked = [...byAlt].map(([alt, s]) => ({
+			alt,
+			mean: s.known > 0 ? s.sum / s.known : -Infinity
+		}));
+		ranked.sort(
+			(p, q) =>
+				q.mean - p.mean ||
+				(p.alt === 'A' ? -1 : q.alt === 'A' ? 1 : 0) ||
+				(p.alt < q.alt ? -1 : p.alt > q.alt ? 1 : 0)
+		);
+		chosen.set(key, ranked[0]!.alt);
+	}
+	return atoms.filter((a) => a.altLoc === '' || chosen.get(residueKey(a)) === a.altLoc);
 }
 
 function parsePdb(text: string): Atom[] {
 	const atoms: Atom[] = [];
-	const keep = keepFirstAltLoc();
 	let modelsSeen = 0;
 	const lines = text.split(/\r?\n/);
 	for (let i = 0; i < lines.length; i++) {
@@ -102,30 +226,36 @@ function parsePdb(text: string): Atom[] {
 		}
 		if (record === 'ENDMDL' && modelsSeen > 0) break;
 		if (record !== 'ATOM' && record !== 'HETATM') continue;
-		const name = line.slice(12, 16).trim();
+		// Columns of PDB v3.3, ATOM/HETATM: name 13–16, altLoc 17, resName 18–20, chainID 22,
+		// resSeq 23–26 (hybrid-36 beyond 9999), iCode 27, x y z 31–54, occupancy 55–60,
+		// element 77–78.
+		const nameColumns = line.slice(12, 16);
+		const name = nameColumns.trim();
 		const resName = line.slice(17, 20).trim();
-		const chainId = line.slice(21, 22).trim();
-		const resSeq = number(line.slice(22, 26), 'residue number', i + 1);
-		const insertionCode = line.slice(26, 27).trim();
-		if (
-			!keep(`${chainId}|${resSeq}|${insertionCode}|${resName}|${name}`, line.slice(16, 17).trim())
-		)
-			continue;
-		const element = line.slice(76, 78).trim().toUpperCase() || guessElement(name);
+		const seqText = line.slice(22, 26);
+		let resSeq: number;
+		try {
+			resSeq = readHybrid36(seqText, 4);
+		} catch {
+			throw new RangeError(`line ${i + 1}: residue number "${seqText.trim()}" is not a number`);
+		}
+		const element = line.slice(76, 78).trim().toUpperCase() || elementFromPdbName(nameColumns);
 		atoms.push({
 			name,
 			element,
 			resName,
-			chainId,
+			chainId: line.slice(21, 22).trim(),
 			resSeq,
-			insertionCode,
+			insertionCode: line.slice(26, 27).trim(),
 			x: number(line.slice(30, 38), 'x', i + 1),
 			y: number(line.slice(38, 46), 'y', i + 1),
 			z: number(line.slice(46, 54), 'z', i + 1),
-			hetero: record === 'HETATM'
+			hetero: record === 'HETATM',
+			altLoc: line.slice(16, 17).trim(),
+			occupancy: optionalNumber(line.slice(54, 60), 'occupancy', i + 1)
 		});
 	}
-	return atoms;
+	return chooseAltLocs(atoms);
 }
 
 /** Splits an mmCIF data line into tokens, honouring single and double quotes. */
@@ -152,9 +282,13 @@ function parseMmcif(text: string): Atom[] {
 		i++;
 	}
 	const col = (name: string) => columns.indexOf(name);
-	const required = ['group_PDB', 'Cartn_x', 'Cartn_y', 'Cartn_z'];
-	for (const r of required)
+	// Only the coordinates and an atom name are indispensable; group_PDB is optional in the
+	// PDBx/mmCIF dictionary and many programs leave it out.
+	for (const r of ['Cartn_x', 'Cartn_y', 'Cartn_z'])
 		if (col(r) < 0) throw new RangeError(`the atom_site loop lacks _atom_site.${r}`);
+	if (col('auth_atom_id') < 0 && col('label_atom_id') < 0)
+		throw new RangeError('the atom_site loop lacks _atom_site.label_atom_id (and auth_atom_id)');
+	const hasGroup = col('group_PDB') >= 0;
 	const pick = (row: string[], ...names: string[]) => {
 		for (const n of names) {
 			const c = col(n);
@@ -163,7 +297,6 @@ function parseMmcif(text: string): Atom[] {
 		return '';
 	};
 	const atoms: Atom[] = [];
-	const keep = keepFirstAltLoc();
 	let firstModel: string | null = null;
 	let pending: string[] = [];
 	for (; i < lines.length; i++) {
@@ -189,32 +322,27 @@ function parseMmcif(text: string): Atom[] {
 		const model = pick(row, 'pdbx_PDB_model_num');
 		if (firstModel === null) firstModel = model;
 		if (model !== firstModel) break;
-		const group = pick(row, 'group_PDB');
-		if (group !== 'ATOM' && group !== 'HETATM') continue;
+		const group = hasGroup ? pick(row, 'group_PDB') : null;
+		if (group !== null && group !== 'ATOM' && group !== 'HETATM') continue;
 		const name = pick(row, 'auth_atom_id', 'label_atom_id');
 		const resName = pick(row, 'auth_comp_id', 'label_comp_id');
-		const chainId = pick(row, 'auth_asym_id', 'label_asym_id');
 		const seqText = pick(row, 'auth_seq_id', 'label_seq_id');
-		const resSeq = seqText === '' ? 0 : number(seqText, 'residue number', i + 1);
-		const insertionCode = pick(row, 'pdbx_PDB_ins_code');
-		if (
-			!keep(`${chainId}|${resSeq}|${insertionCode}|${resName}|${name}`, pick(row, 'label_alt_id'))
-		)
-			continue;
 		atoms.push({
 			name,
-			element: (pick(row, 'type_symbol') || guessElement(name)).toUpperCase(),
+			element: (pick(row, 'type_symbol') || elementFromCifName(name, resName)).toUpperCase(),
 			resName,
-			chainId,
-			resSeq,
-			insertionCode,
+			chainId: pick(row, 'auth_asym_id', 'label_asym_id'),
+			resSeq: seqText === '' ? 0 : number(seqText, 'residue number', i + 1),
+			insertionCode: pick(row, 'pdbx_PDB_ins_code'),
 			x: number(pick(row, 'Cartn_x'), 'Cartn_x', i + 1),
 			y: number(pick(row, 'Cartn_y'), 'Cartn_y', i + 1),
 			z: number(pick(row, 'Cartn_z'), 'Cartn_z', i + 1),
-			hetero: group === 'HETATM'
+			hetero: group === null ? null : group === 'HETATM',
+			altLoc: pick(row, 'label_alt_id'),
+			occupancy: optionalNumber(pick(row, 'occupancy'), 'occupancy', i + 1)
 		});
 	}
-	return atoms;
+	return chooseAltLocs(atoms);
 }
 
 /**
@@ -235,6 +363,10 @@ export interface CofactorGroup {
 	family: string;
 	chainId: string;
 	resSeq: number;
+	/** PDB insertion code ('' when none): SF4 A101 and SF4 A101A are two groups. */
+	insertionCode: string;
+	/** How the group is named to people: residue name, chain, number and insertion code, e.g. "SF4 A101A". */
+	label: string;
 	atoms: Atom[];
 }
 
@@ -253,6 +385,8 @@ export function cofactorGroups(atoms: Atom[]): CofactorGroup[] {
 				family,
 				chainId: atom.chainId,
 				resSeq: atom.resSeq,
+				insertionCode: atom.insertionCode,
+				label: `${atom.resName} ${atom.chainId}${atom.resSeq}${atom.insertionCode}`,
 				atoms: []
 			};
 			groups.set(key, group);
