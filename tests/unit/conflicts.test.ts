@@ -1,20 +1,36 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
-	conflictsForShown,
-	potentialConflict,
+	CONFLICT_HEADING,
 	CONFLICT_RULES,
+	conflictWarning,
+	conflictsForShown,
+	describeConflictRule,
+	potentialConflict,
 	type ListedPotential
 } from '$lib/catalogue/conflicts';
+import { warningText } from '$lib/schemas/versionWarning';
 
-describe('conflicting potentials', () => {
+describe('values that differ beyond their stated uncertainties', () => {
 	const base = { couple: 'Fe3+/Fe2+', emMvShe: 100, uncertaintyMv: 3, ph: 7, temperatureK: 298.15 };
-	it('conflict beyond √(u₁² + u₂²): a 3–4–5 triangle sits exactly on the line', () => {
-		expect(potentialConflict(base, { ...base, emMvShe: 105, uncertaintyMv: 4 })).toBeNull();
-		const c = potentialConflict(base, { ...base, emMvShe: 105.1, uncertaintyMv: 4 });
+	// JCGM 100:2008 (GUM): u_c of a difference of two uncorrelated values is √(u₁² + u₂²)
+	// (§5.1.2, sensitivity coefficients ±1); the limit is k·u_c with k = 2 (§6.2.1, §6.3.3).
+	it('flags beyond 2·√(u₁² + u₂²): a 3–4–5 triangle puts the line at 10 mV', () => {
+		expect(potentialConflict(base, { ...base, emMvShe: 110, uncertaintyMv: 4 })).toBeNull();
+		const c = potentialConflict(base, { ...base, emMvShe: 110.1, uncertaintyMv: 4 });
 		expect(c?.combinedUncertaintyMv).toBe(5);
-		expect(c?.differenceMv).toBeCloseTo(-5.1, 6);
+		expect(c?.limitMv).toBe(10);
+		expect(c?.differenceMv).toBeCloseTo(-10.1, 6);
+		expect(c?.message).toBe('differs by 10.1 mV, more than 2 × √(u₁² + u₂²) = 10 mV');
 	});
+	// The case of issue 13: k = 1 flagged it (30 > 28.3 mV); k = 2 puts the line at 56.6 mV.
+	it('does not flag two replicates 30 mV apart with ±20 mV each', () => {
+		const a = { ...base, uncertaintyMv: 20 };
+		expect(potentialConflict(a, { ...a, emMvShe: 130 })).toBeNull();
+		expect(potentialConflict(a, { ...a, emMvShe: 156 })).toBeNull();
+		expect(potentialConflict(a, { ...a, emMvShe: 157 })?.limitMv).toBe(56.6);
+	});
+	it('uses k = 2', () => expect(CONFLICT_RULES.coverageFactor).toBe(2));
 	it('compares only comparable conditions', () => {
 		const far = { ...base, emMvShe: 300 };
 		expect(potentialConflict(base, { ...far, ph: 7 + CONFLICT_RULES.phWindow + 0.1 })).toBeNull();
@@ -23,14 +39,29 @@ describe('conflicting potentials', () => {
 		expect(potentialConflict(base, { ...far, couple: 'other' })).toBeNull();
 		expect(potentialConflict(base, far)).not.toBeNull();
 	});
-	it('assumes the default uncertainty where none is given', () => {
-		const a = { ...base, uncertaintyMv: null };
-		const limit = Math.hypot(
-			CONFLICT_RULES.defaultUncertaintyMv,
-			CONFLICT_RULES.defaultUncertaintyMv
-		);
-		expect(potentialConflict(a, { ...a, emMvShe: 100 + limit - 0.2 })).toBeNull();
-		expect(potentialConflict(a, { ...a, emMvShe: 100 + limit + 0.2 })).not.toBeNull();
+	// Decision (conflicts.ts): "beyond their stated uncertainties" needs both to be stated; an
+	// assumed 15 mV (the earlier rule) was a number with no source.
+	it('never compares a value without a stated uncertainty, however far', () => {
+		const none = { ...base, uncertaintyMv: null };
+		expect(potentialConflict(none, { ...base, emMvShe: 900 })).toBeNull();
+		expect(potentialConflict({ ...base, emMvShe: 900 }, none)).toBeNull();
+		expect(potentialConflict(none, { ...none, emMvShe: 900 })).toBeNull();
+	});
+	it('states the rule with its coverage factor and what happens without an uncertainty', () => {
+		expect(describeConflictRule()).toContain('k = 2');
+		expect(describeConflictRule()).toContain('JCGM 100:2008');
+		expect(describeConflictRule()).toContain('without a stated uncertainty are not compared');
+	});
+	it('words a warning neutrally, with the rule as its source', () => {
+		const c = potentialConflict(base, { ...base, emMvShe: 200, uncertaintyMv: 4 });
+		const w = conflictWarning({ accession: 'HL000012', emMvShe: 200 }, c!);
+		expect(w).toEqual({
+			message:
+				'Approved HL000012 (200 mV vs SHE, at comparable pH and temperature): differs by 100 mV, more than 2 × √(u₁² + u₂²) = 10 mV.',
+			source: describeConflictRule(),
+			accession: 'HL000012'
+		});
+		expect(`${w.message} ${CONFLICT_HEADING}`).not.toMatch(/conflict/i);
 	});
 	it('flags both sides, and never across centres', () => {
 		const list = [
@@ -91,5 +122,32 @@ describe('conflicting potentials', () => {
 				}
 			)
 		);
+	});
+});
+
+describe('conflict warnings stored under the earlier rule (frozen with their rows)', () => {
+	// Text as written by the CSV check before k = 2 (tests/integration/versionWarnings.test.ts).
+	const old = {
+		kind: 'conflict' as const,
+		field: 'reportedValue',
+		message:
+			'conflicts with approved HL000012: differs by 500 mV, more than the combined uncertainty of 21 mV',
+		accession: 'HL000012'
+	};
+	it('are shown as written, with the rule that made them', () =>
+		expect(warningText(old)).toBe(
+			`${old.message} (flagged under the earlier rule: difference beyond √(u₁² + u₂²) (k = 1), 15 mV assumed where no uncertainty was stated)`
+		));
+	it('new ones carry the current rule and need no note', () => {
+		const c = potentialConflict(
+			{ couple: 'x', emMvShe: 0, uncertaintyMv: 5, ph: 7, temperatureK: 298.15 },
+			{ couple: 'x', emMvShe: 500, uncertaintyMv: 20, ph: 7, temperatureK: 298.15 }
+		)!;
+		const w = {
+			kind: 'conflict' as const,
+			field: 'reportedValue',
+			...conflictWarning({ accession: 'HL000012', emMvShe: 500 }, c)
+		};
+		expect(warningText(w)).toBe(w.message);
 	});
 });

@@ -1,19 +1,37 @@
 /*
- * When two potentials of the same centre and couple disagree. They are compared only when their
- * conditions are comparable (pH within CONFLICT_RULES.phWindow, temperature within
- * temperatureWindowK), and conflict when they differ by more than their combined standard
- * uncertainty, √(u₁² + u₂²), times the coverage factor.
+ * When two potentials of the same centre and couple differ beyond their stated uncertainties.
+ * The one rule, used by entry pages (flags), curation checks (form warnings, the API's warnings)
+ * and CSV checks (stored warnings) alike:
+ *
+ * - compared only when their conditions are comparable: the same couple, pH within
+ *   CONFLICT_RULES.phWindow (both stated, or both unstated), temperature within
+ *   temperatureWindowK (unstated taken as 25 °C, as the normalisation to SHE does);
+ * - compared only when both values state an uncertainty: "differ beyond their stated
+ *   uncertainties" cannot be said of a value that states none, and any number put in its place
+ *   would be invented. Such values are never flagged, and their pages say so;
+ * - flagged when |E₁ − E₂| > k·u_c, with u_c = √(u₁² + u₂²) the combined standard uncertainty of
+ *   the difference of two uncorrelated values (JCGM 100:2008, GUM, §5.1.2, sensitivity
+ *   coefficients ±1) and k = 2 the coverage factor, which gives an interval of about 95 % for a
+ *   normal distribution (GUM §6.2.1, §6.3.3). The stated uncertainties are read as standard
+ *   uncertainties, as the entry form asks ("one standard uncertainty").
+ *
+ * Two replicate values 30 mV apart with ±20 mV each (u_c = 28.3 mV, k·u_c = 56.6 mV) are
+ * therefore not flagged; before this rule used k = 1 and an assumed 15 mV for missing
+ * uncertainties, and called them conflicting. Warnings stored with CSV rows under that earlier
+ * rule are kept as written (a stored warning is part of the row's record); they carry no `source`,
+ * which is how `warningText` (schemas/versionWarning.ts) tells them apart and names their rule.
  */
 export const CONFLICT_RULES = {
 	phWindow: 0.5,
 	temperatureWindowK: 10,
-	/** Stands in for a missing uncertainty (common practice, no source: redox titrations are usually quoted to ±10–20 mV). */
-	defaultUncertaintyMv: 15,
-	/** 1: disagreement beyond the combined uncertainty itself, as the registry's rule states. */
-	coverageFactor: 1,
+	/** Coverage factor k (≈95 % for a normal distribution; JCGM 100:2008 §6.2.1, §6.3.3). */
+	coverageFactor: 2,
 	/** Unstated temperatures are taken as 25 °C, as the normalisation to SHE does. */
 	defaultTemperatureK: 298.15
 } as const;
+
+/** The heading of a flag, in neutral words (a difference to look at, not an error). */
+export const CONFLICT_HEADING = 'Values differ beyond their stated uncertainties';
 
 export interface ComparablePotential {
 	couple: string;
@@ -24,10 +42,16 @@ export interface ComparablePotential {
 }
 
 export interface PotentialConflict {
+	/** a − b, mV, rounded to 0.1. */
 	differenceMv: number;
+	/** u_c = √(u₁² + u₂²), mV, rounded to 0.1. */
 	combinedUncertaintyMv: number;
+	/** k·u_c, mV, rounded to 0.1: the limit the difference exceeds. */
+	limitMv: number;
 	message: string;
 }
+
+type ConflictSizes = Omit<PotentialConflict, 'message'>;
 
 /** Whether two potentials' conditions allow a comparison at all. */
 export function comparableConditions(a: ComparablePotential, b: ComparablePotential): boolean {
@@ -42,27 +66,30 @@ export function comparableConditions(a: ComparablePotential, b: ComparablePotent
 }
 
 /**
- * The rounded difference a − b (mV) and the combined uncertainty when the two conflict, or null.
- * Allocation-free apart from its result, for scanning many candidates.
+ * The sizes of the difference when the two differ beyond k·u_c, or null (agreeing, not
+ * comparable, or an uncertainty not stated). Allocation-free apart from its result, for scanning
+ * many candidates.
  */
-function conflictSizes(
-	a: ComparablePotential,
-	b: ComparablePotential
-): { differenceMv: number; combinedUncertaintyMv: number } | null {
+function conflictSizes(a: ComparablePotential, b: ComparablePotential): ConflictSizes | null {
+	if (a.uncertaintyMv === null || b.uncertaintyMv === null) return null;
 	if (!comparableConditions(a, b)) return null;
-	const ua = a.uncertaintyMv ?? CONFLICT_RULES.defaultUncertaintyMv;
-	const ub = b.uncertaintyMv ?? CONFLICT_RULES.defaultUncertaintyMv;
-	const combinedUncertaintyMv = Math.round(Math.hypot(ua, ub) * 10) / 10;
-	const differenceMv = Math.round((a.emMvShe - b.emMvShe) * 10) / 10;
-	if (Math.abs(differenceMv) <= CONFLICT_RULES.coverageFactor * combinedUncertaintyMv) return null;
-	return { differenceMv, combinedUncertaintyMv };
+	const uc = Math.hypot(a.uncertaintyMv, b.uncertaintyMv);
+	const difference = a.emMvShe - b.emMvShe;
+	// Compared unrounded; rounded only for display.
+	if (Math.abs(difference) <= CONFLICT_RULES.coverageFactor * uc) return null;
+	const round = (x: number) => Math.round(x * 10) / 10;
+	return {
+		differenceMv: round(difference),
+		combinedUncertaintyMv: round(uc),
+		limitMv: round(CONFLICT_RULES.coverageFactor * uc)
+	};
 }
 
-function conflictMessage(c: { differenceMv: number; combinedUncertaintyMv: number }): string {
-	return `differs by ${Math.abs(c.differenceMv)} mV; combined uncertainty ±${c.combinedUncertaintyMv} mV`;
+function conflictMessage(c: ConflictSizes): string {
+	return `differs by ${Math.abs(c.differenceMv)} mV, more than ${CONFLICT_RULES.coverageFactor} × √(u₁² + u₂²) = ${c.limitMv} mV`;
 }
 
-/** The conflict between two potentials, or null when they agree or cannot be compared. */
+/** The difference between two potentials when it exceeds the rule, or null. */
 export function potentialConflict(
 	a: ComparablePotential,
 	b: ComparablePotential
@@ -71,10 +98,25 @@ export function potentialConflict(
 	return c ? { ...c, message: conflictMessage(c) } : null;
 }
 
-/** The rule in words, shown beside every conflict flag. */
+/** The rule in words, shown beside every flag and stored as the `source` of new warnings. */
 export function describeConflictRule(): string {
 	const r = CONFLICT_RULES;
-	return `same centre and couple, pH within ${r.phWindow}, temperature within ${r.temperatureWindowK} K, difference beyond √(u₁² + u₂²); ${r.defaultUncertaintyMv} mV assumed where no uncertainty is given (common practice, no source)`;
+	return `same centre and couple, pH within ${r.phWindow}, temperature within ${r.temperatureWindowK} K; flagged when the difference exceeds k·√(u₁² + u₂²) with coverage factor k = ${r.coverageFactor} (about 95 %, JCGM 100:2008 GUM §6.2–6.3); values without a stated uncertainty are not compared`;
+}
+
+/**
+ * The warning a proposed value gets for an approved one it differs from (forms, the API and
+ * CSV checks word it alike): message, the rule as its source, and the approved accession.
+ */
+export function conflictWarning(
+	other: { accession: string; emMvShe: number },
+	conflict: PotentialConflict
+): { message: string; source: string; accession: string } {
+	return {
+		message: `Approved ${other.accession} (${other.emMvShe} mV vs SHE, at comparable pH and temperature): ${conflict.message}.`,
+		source: describeConflictRule(),
+		accession: other.accession
+	};
 }
 
 /** A potential as listed with its centre, enough to compare it with its neighbours. */
@@ -152,10 +194,7 @@ export function conflictsForShown(
 			window = b.withPh.slice(from, to);
 		}
 		// The `listed` largest differences, kept sorted (largest first) as the scan goes.
-		const top: {
-			other: ListedPotential;
-			sizes: { differenceMv: number; combinedUncertaintyMv: number };
-		}[] = [];
+		const top: { other: ListedPotential; sizes: ConflictSizes }[] = [];
 		let count = 0;
 		for (const other of window) {
 			if (other.accession === p.accession) continue;

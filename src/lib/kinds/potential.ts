@@ -61,7 +61,10 @@ export const potential = defineKind({
 				input.referenceElectrode,
 				input.temperatureK ?? STANDARD_TEMPERATURE_K
 			);
-			if (problem !== null) return { ok: false, fields: { temperatureK: [problem] } };
+			if (problem !== null) {
+				const fields: Record<string, string[]> = { temperatureK: [problem] };
+				return { ok: false, fields };
+			}
 			const data = normalisePotential(input);
 			if (EM_FIELD.safeParse(data.emMvShe).success) return { ok: true, data };
 			// The contributor typed the reported value: the error belongs there, with the likely cause.

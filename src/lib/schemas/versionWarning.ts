@@ -11,7 +11,7 @@ import { z } from 'zod';
 export const VERSION_WARNING_KINDS = [
 	/** Outside the typical range of the cofactor kind and couple. */
 	'range',
-	/** Disagrees with an approved value at comparable conditions. */
+	/** Differs from an approved value at comparable conditions beyond their stated uncertainties. */
 	'conflict',
 	/** The same value is in the registry already. */
 	'duplicate',
@@ -27,7 +27,7 @@ export const versionWarningSchema = z.object({
 	message: z.string(),
 	/** Where the rule or the range comes from. */
 	source: z.string().optional(),
-	/** The approved entry the value repeats or disagrees with. */
+	/** The approved entry the value repeats or differs from. */
 	accession: z.string().optional()
 });
 export type VersionWarning = z.infer<typeof versionWarningSchema>;
@@ -53,7 +53,20 @@ export function storeWarnings(warnings: readonly VersionWarning[]): string | nul
 	return warnings.length ? JSON.stringify(warnings) : null;
 }
 
-/** A warning as one line of text, as CSV checks and batch rows show it. */
+/**
+ * The rule conflict warnings stored before the coverage factor k = 2 (catalogue/conflicts.ts)
+ * were made under. They carry no `source` (new ones carry the rule there); shown beside them so
+ * that a stored warning is read under the rule that made it, its own text unchanged.
+ */
+export const EARLIER_CONFLICT_RULE =
+	'flagged under the earlier rule: difference beyond √(u₁² + u₂²) (k = 1), 15 mV assumed where no uncertainty was stated';
+
+/**
+ * A warning as one line of text, as CSV checks and batch rows show it. A conflict warning stored
+ * without a source was made under the earlier rule (k = 1): it says so, its text unchanged.
+ */
 export function warningText(w: VersionWarning): string {
-	return w.kind === 'range' && w.source ? `${w.message} (range source: ${w.source})` : w.message;
+	if (w.kind === 'range' && w.source) return `${w.message} (range source: ${w.source})`;
+	if (w.kind === 'conflict' && !w.source) return `${w.message} (${EARLIER_CONFLICT_RULE})`;
+	return w.message;
 }

@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import { describeConflictRule, potentialConflict } from '$lib/catalogue/conflicts';
+import { conflictWarning, potentialConflict } from '$lib/catalogue/conflicts';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
 import type { EntryData } from '$lib/schemas/entryData';
 import type { VersionWarning } from '$lib/schemas/versionWarning';
@@ -62,13 +62,12 @@ export async function warningsForVersion(
 			ph: other.ph,
 			temperatureK: other.temperature_k
 		});
+		// The one rule of entry pages and CSV checks (conflicts.ts: k = 2, GUM §6.2–6.3).
 		if (conflict) {
 			warnings.push({
 				kind: 'conflict',
 				field: 'reportedValue',
-				accession: other.accession,
-				message: `Disagrees with approved ${other.accession} (${other.em_mv_she} mV vs SHE at comparable pH and temperature): ${conflict.message}.`,
-				source: `Hopline rule: ${describeConflictRule()}`
+				...conflictWarning({ accession: other.accession, emMvShe: other.em_mv_she }, conflict)
 			});
 		}
 	}

@@ -3,7 +3,7 @@ import { COUPLES_BY_KIND, type CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
 import { InvalidEntryDataError } from '../catalogue/errors';
 import { potentialContext } from '../catalogue/potentialRows';
-import { potentialConflict } from '$lib/catalogue/conflicts';
+import { conflictWarning, potentialConflict } from '$lib/catalogue/conflicts';
 import { checkTypicalRange } from '$lib/catalogue/typicalRanges';
 import { UPLOAD_COLUMNS } from '$lib/catalogue/uploadColumns';
 import { potentialIsVisible } from '../catalogue/visibility';
@@ -212,15 +212,16 @@ export const potential: KindOnServer<'potential'> = {
 						accession: p.accession
 					});
 				else {
+					// The one rule of entry pages and form checks (conflicts.ts: k = 2, GUM §6.2–6.3);
+					// the rule is stored with the warning as its source.
 					const c = potentialConflict(d, p);
-					if (c)
-						r.warn(
-							'conflict',
-							'reportedValue',
-							value,
-							`conflicts with approved ${p.accession}: ${c.message}`,
-							{ accession: p.accession }
-						);
+					if (c) {
+						const w = conflictWarning(p, c);
+						r.warn('conflict', 'reportedValue', value, w.message, {
+							source: w.source,
+							accession: w.accession
+						});
+					}
 				}
 			}
 			return true;

@@ -67,6 +67,7 @@ export const load: PageServerLoad = async ({
 		chainNote: chain.note,
 		conflicts: conflicts.flags,
 		conflictsTruncated: conflicts.truncated,
+		notCompared: conflicts.notCompared,
 		conflictRule: describeConflictRule(),
 		canPropose: locals.user !== null && roleAtLeast(locals.user.role, 'contributor'),
 		pinned: params.version !== undefined
