@@ -56,7 +56,8 @@ export const potential = defineKind({
 		schema: potentialInputSchema,
 		toData(input) {
 			// Each electrode's conversion holds over a stated range of temperatures only
-			// (referenceElectrodes.ts, TEMPERATURE_RANGES: Bard & Faulkner Table C.2 for the SCE).
+			// (referenceElectrodes.ts, TEMPERATURE_RANGES: the SCE law of Bard & Faulkner 2001,
+			// Table C.2; Ag/AgCl 25 °C offsets within ±10 K, Sawyer et al. 1995, Table 5.1).
 			const problem = electrodeTemperatureProblem(
 				input.referenceElectrode,
 				input.temperatureK ?? STANDARD_TEMPERATURE_K
