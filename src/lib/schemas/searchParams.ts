@@ -68,8 +68,8 @@ function readQueryValue(value: unknown): unknown {
  * a bound that is not obvious (it is added to the message and should name its source).
  */
 export function queryNumber(min: number, max: number, unit = '', why?: string) {
-	const bounds = `from ${min}${unit} to ${max}${unit}${why ? ` (${why})` : ''}`;
-	const message = `expected a number ${bounds}`;
+	const bounds = `from ${min}${unit} to ${max}${unit}`;
+	const message = `expected a number ${bounds}${why ? ` (${why})` : ''}`;
 	return z.preprocess(
 		readQueryValue,
 		z

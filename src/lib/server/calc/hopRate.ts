@@ -105,7 +105,7 @@ export const RATE_VALIDITY = [
 	{
 		model: 'Marcus (nonadiabatic)',
 		text:
-			'assumes weak coupling (H_DA well below k_BT) and classical nuclear motion, so it underestimates rates deep in the inverted region; ' +
+			'assumes weak electronic coupling (well below k_BT) and classical nuclear motion, so it underestimates rates deep in the inverted region; ' +
 			'it is only as good as the coupling assumed (by default calibrated to the ruler at contact, 10¹³ s⁻¹ at 3.6 Å).'
 	}
 ] as const;
