@@ -25,7 +25,7 @@ export const hopRateQuerySchema = z.object({
 		MIN_HOP_DISTANCE_A,
 		MAX_HOP_DISTANCE_A,
 		' Å',
-		`${MIN_HOP_DISTANCE_A} Å is van der Waals contact of the edge atoms, where both models reach their contact rate (Moser et al. 1992); centres in contact are entered as ${MIN_HOP_DISTANCE_A}`
+		`${MIN_HOP_DISTANCE_A} Å is van der Waals contact of the edge atoms, where both models reach their contact rate, Moser et al. 1992; enter centres in contact as ${MIN_HOP_DISTANCE_A}`
 	),
 	dG: queryNumber(-5, 5, ' eV'),
 	lambda: queryNumber(0.01, 5, ' eV'),
