@@ -36,6 +36,48 @@ describe('calculator API over HTTP', () => {
 		]);
 		expect(body.error.fields?.dG?.[0]).toMatch(/^required/);
 	});
+	// Regressions: distance=0 gave log k = 15.1 under Marcus (above the ruler's 10¹³ s⁻¹ at contact,
+	// Moser et al., Nature 355, 796 (1992)); distance=0x10 was read as 16 Å.
+	it('hop rate refuses distances below contact and numbers that are not plain decimals', async () => {
+		for (const distance of ['0', '3.5', '0x10', 'Infinity', '1e400', '']) {
+			const res = await fetch(
+				`${base}/api/v1/calc/hop-rate?distance=${distance}&dG=-0.1&lambda=0.7&model=marcus`
+			);
+			expect(res.status, distance).toBe(400);
+			const body = (await res.json()) as ApiErrorBody;
+			expect(body.error.fields?.distance?.[0], distance).toMatch(
+				distance === '' ? /^required/ : /3\.6 Å to 100 Å/
+			);
+		}
+		const zero = (await (
+			await fetch(`${base}/api/v1/calc/hop-rate?distance=0&dG=-0.1&lambda=0.7`)
+		).json()) as ApiErrorBody;
+		expect(zero.error.fields?.distance?.[0]).toMatch(/van der Waals contact/);
+	});
+	it('hop rate reads the Unicode minus and a decimal comma in every parameter', async () => {
+		const typed = new URLSearchParams({
+			distance: '10,5',
+			dG: '\u22120,12',
+			lambda: '0,7',
+			temperature: '310,5',
+			packing: '0,7',
+			h0: '0,02',
+			beta: '1,3',
+			model: 'marcus'
+		});
+		const res = await fetch(`${base}/api/v1/calc/hop-rate?${typed}`);
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.inputs).toMatchObject({
+			distance: 10.5,
+			dG: -0.12,
+			lambda: 0.7,
+			temperature: 310.5,
+			packing: 0.7,
+			h0: 0.02,
+			beta: 1.3
+		});
+	});
 	it('titration fit recovers a synthetic Em', async () => {
 		const points = Array.from({ length: 31 }, (_, i) => {
 			const e = -500 + i * 15;

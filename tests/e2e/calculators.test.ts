@@ -27,8 +27,40 @@ describe('calculators in Chromium', () => {
 	});
 	it('hop rate: a bad value is named beside its field', async () => {
 		await page.goto('/calc/hop-rate?distance=-3&dG=0&lambda=0.7');
-		expect(await page.locator('[data-field-error=distance]').textContent()).toMatch(/0 Å to 100 Å/);
+		expect(await page.locator('[data-field-error=distance]').textContent()).toMatch(
+			/3\.6 Å to 100 Å \(.*van der Waals contact/
+		);
+		await page.goto('/calc/hop-rate?distance=0x10&dG=0&lambda=0.7');
+		expect(await page.locator('[data-field-error=distance]').textContent()).toMatch(
+			/plain decimal number/
+		);
 	});
+	// The values typed (a typeset minus, decimal commas) are read, and stay in the form as typed
+	// after the run, whether the browser runs the page's JavaScript or not.
+	for (const javaScriptEnabled of [true, false]) {
+		it(`hop rate: typed values are read and kept (JavaScript ${javaScriptEnabled ? 'on' : 'off'})`, async () => {
+			const context = await browser.newContext({ baseURL: base, javaScriptEnabled });
+			const p = await context.newPage();
+			await p.goto('/calc/hop-rate');
+			const typed: [string, string, string][] = [
+				['distance', 'Edge-to-edge distance (Å)', '11,5'],
+				['dG', 'ΔG° of the hop (eV, negative downhill)', '\u22120,2'],
+				['lambda', 'Reorganization energy λ (eV)', '0,7'],
+				['temperature', 'Temperature (K)', '310,5'],
+				['packing', 'Packing density ρ (0–1)', '0,7']
+			];
+			for (const [, label, value] of typed) await p.getByLabel(label).fill(value);
+			await p.getByRole('button', { name: 'Calculate' }).click();
+			await p.getByTestId('hop-results').waitFor();
+			for (const [name, , value] of typed)
+				expect(await p.locator(`input[name=${name}]`).inputValue(), name).toBe(value);
+			expect(await p.getByTestId('detailed-balance').textContent()).toMatch(
+				/at 310\.5 K: 3\.25 decades/
+			);
+			expect(await p.getByTestId('rate-validity').textContent()).toMatch(/order of magnitude/);
+			await context.close();
+		});
+	}
 	it('titration: pasted points give Em with its standard error and plots', async () => {
 		await page.goto('/calc/titration');
 		const rows = ['potential_mv;signal'];

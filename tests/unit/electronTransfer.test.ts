@@ -4,6 +4,8 @@ import {
 	BOLTZMANN_EV_PER_K,
 	couplingAtDistance,
 	deltaGFromPotentials,
+	detailedBalanceDecades,
+	hopRatePair,
 	marcusRate,
 	moserDuttonLog10Rate,
 	moserDuttonRate,
@@ -31,12 +33,48 @@ describe('Moser–Dutton ruler', () => {
 				.log10Rate;
 		expect(at(8) - at(9)).toBeCloseTo(1.2, 12);
 	});
-	// Page et al. (1999) eq. 2: the uphill rate is the downhill one times 10^(−ΔG°/0.06).
-	it('endergonic rate is the exergonic one over 10^(ΔG°/0.06)', () => {
+	// Page, Moser, Chen & Dutton, Nature 402, 47–52 (1999), eq. 2: the published endergonic form
+	// 13 − (1.2 − 0.8ρ)(R − 3.6) − 3.1(−ΔG° + λ)²/λ − ΔG°/0.06, written out here by hand. It is
+	// detailed balance at the T where k_B·T·ln 10 = 0.06 eV (k_B = 8.617333262e-5 eV/K, CODATA 2018:
+	// T = 302.39 K); there the ruler, which uses detailed balance at the stated T, must agree with it.
+	it('reproduces the published endergonic form at T where k_B T ln 10 = 0.06 eV', () => {
+		const t = 0.06 / (8.617333262e-5 * Math.LN10);
+		expect(t).toBeCloseTo(302.39, 2);
+		for (const [r, dg, lambda] of [
+			[9, 0.12, 0.7],
+			[5, 0.4, 1.1],
+			[14, 0.05, 0.5]
+		] as const) {
+			const published =
+				13 - (1.2 - 0.8 * 0.76) * (r - 3.6) - (3.1 * (-dg + lambda) ** 2) / lambda - dg / 0.06;
+			const ours = moserDuttonLog10Rate({
+				edgeDistanceA: r,
+				deltaGEv: dg,
+				lambdaEv: lambda,
+				temperatureK: t
+			}).log10Rate;
+			expect(ours).toBeCloseTo(published, 9);
+		}
+	});
+	// Detailed balance at 298.15 K: 1/(k_B T ln 10) = 16.9035 decades per eV (CODATA 2018 k_B);
+	// the published 1/0.06 = 16.6667, so the two differ by 0.2368 decades per eV (the 0.24).
+	it('uses detailed balance at the stated temperature for the uphill direction', () => {
 		const base = { edgeDistanceA: 9, lambdaEv: 0.7 };
 		const down = moserDuttonLog10Rate({ ...base, deltaGEv: -0.12 }).log10Rate;
 		const up = moserDuttonLog10Rate({ ...base, deltaGEv: 0.12 }).log10Rate;
-		expect(down - up).toBeCloseTo(0.12 / 0.06, 12);
+		expect(down - up).toBeCloseTo(0.12 * 16.9035, 3);
+		expect(down - up - 0.12 / 0.06).toBeCloseTo(0.12 * 0.2368, 4);
+		const up77 = moserDuttonLog10Rate({ ...base, deltaGEv: 0.12, temperatureK: 77 }).log10Rate;
+		expect(down - up77).toBeCloseTo(0.12 / (8.617333262e-5 * 77 * Math.LN10), 9);
+	});
+	// The ruler has no temperature in it (Page et al. 1999, eq. 1): only the uphill term moves.
+	it('gives a downhill rate that does not depend on temperature', () => {
+		const at = (t: number) =>
+			moserDuttonLog10Rate({ edgeDistanceA: 9, deltaGEv: -0.2, lambdaEv: 0.7, temperatureK: t });
+		expect(at(77).log10Rate).toBe(at(298.15).log10Rate);
+		expect(at(400).log10Rate).toBe(at(298.15).log10Rate);
+		expect(at(77).warnings.join()).toMatch(/no temperature in it/);
+		expect(at(298.15).warnings).toEqual([]);
 	});
 	it('is continuous at ΔG° = 0', () => {
 		const base = { edgeDistanceA: 9, lambdaEv: 0.7 };
@@ -147,4 +185,59 @@ describe('couplings, driving forces and reverse rates', () => {
 		expect(reverseRate(1e6, 0)).toBe(1e6);
 		expect(reverseRate(1e6, (-0.0591596 * Math.log(10)) / Math.LN10, 298.15)).toBeCloseTo(1e5, -1);
 	});
+	// k_B·T·ln 10 at 298.15 K with k_B = 1.380649e-23 J/K and e = 1.602176634e-19 C (CODATA 2018,
+	// exact): 0.0591593 eV, so 0.1 eV is 1.69035 decades.
+	it('detailedBalanceDecades is |ΔG°|/(k_B T ln 10)', () => {
+		const kTln10 = ((1.380649e-23 * 298.15) / 1.602176634e-19) * Math.log(10);
+		expect(kTln10).toBeCloseTo(0.0591593, 7);
+		expect(detailedBalanceDecades(0.1, 298.15)).toBeCloseTo(0.1 / kTln10, 12);
+		expect(detailedBalanceDecades(-0.1, 298.15)).toBeCloseTo(0.1 / kTln10, 12);
+		expect(() => detailedBalanceDecades(0.1, 0)).toThrow(RangeError);
+	});
+});
+
+describe('hopRatePair: both directions of a hop, one uphill rule', () => {
+	const coupling = { h0Ev: 0.01, betaPerA: 1.4 };
+	// The Marcus expression (Marcus & Sutin 1985, eq. 26) obeys detailed balance by itself, so the
+	// pair's uphill rate must equal marcusRate evaluated uphill.
+	it('Marcus: the uphill rate equals the Marcus expression evaluated uphill', () => {
+		for (const t of [77, 298.15, 400]) {
+			const pair = hopRatePair({
+				model: 'marcus',
+				edgeDistanceA: 8,
+				deltaGEv: 0.15,
+				lambdaEv: 0.8,
+				temperatureK: t,
+				coupling
+			});
+			const direct = marcusRate({
+				couplingEv: couplingAtDistance({ ...coupling, distanceA: 8 }),
+				deltaGEv: 0.15,
+				lambdaEv: 0.8,
+				temperatureK: t
+			});
+			expect(pair.log10Forward).toBeCloseTo(direct.log10Rate, 9);
+		}
+	});
+	it('Moser–Dutton: both directions are the ruler at ±ΔG° and the stated T', () => {
+		const pair = hopRatePair({
+			model: 'moser-dutton',
+			edgeDistanceA: 10,
+			deltaGEv: -0.1,
+			lambdaEv: 0.7,
+			temperatureK: 350
+		});
+		const ruler = (dg: number) =>
+			moserDuttonLog10Rate({ edgeDistanceA: 10, deltaGEv: dg, lambdaEv: 0.7, temperatureK: 350 });
+		expect(pair.log10Forward).toBe(ruler(-0.1).log10Rate);
+		expect(pair.log10Backward).toBeCloseTo(ruler(0.1).log10Rate, 12);
+		expect(pair.log10Forward - pair.log10Backward).toBeCloseTo(
+			detailedBalanceDecades(0.1, 350),
+			12
+		);
+	});
+	it('refuses a Marcus hop without its coupling', () =>
+		expect(() =>
+			hopRatePair({ model: 'marcus', edgeDistanceA: 8, deltaGEv: 0, lambdaEv: 0.8 })
+		).toThrow(TypeError));
 });

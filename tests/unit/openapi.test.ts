@@ -87,7 +87,14 @@ describe('the OpenAPI document', () => {
 		const distance = doc.paths['/calc/hop-rate']?.get?.parameters?.find(
 			(p) => p.name === 'distance'
 		);
-		expect(distance).toMatchObject({ required: true, schema: { minimum: 0, maximum: 100 } });
+		expect(distance).toMatchObject({ required: true, schema: { minimum: 3.6, maximum: 100 } });
+		expect(distance?.description).toMatch(/van der Waals contact/);
+		// Query numbers are read through a preprocessing step (readDecimal); their defaults stay stated.
+		const temperature = doc.paths['/calc/hop-rate']?.get?.parameters?.find(
+			(p) => p.name === 'temperature'
+		);
+		expect(temperature?.schema).toMatchObject({ type: 'number', default: 298.15, minimum: 1 });
+		expect(doc.info.description).toMatch(/decimal comma/);
 	});
 
 	it('describes every parameter, operation and answer', () => {
@@ -198,7 +205,7 @@ describe('readings of the document', () => {
 		const hop = ops.find((o) => o.path === '/api/v1/calc/hop-rate');
 		expect(hop?.fields.find((f) => f.name === 'distance')).toMatchObject({
 			required: true,
-			type: 'number from 0 to 100'
+			type: 'number from 3.6 to 100'
 		});
 		const submissions = ops.find((o) => o.path === '/api/v1/submissions');
 		expect(submissions?.fields.find((f) => f.name === 'kind')?.type).toBe(

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MOSER_DUTTON_CONTACT_A } from '$lib/science/electronTransfer';
 import { queryNumber } from './searchParams';
 
 /*
@@ -8,8 +9,24 @@ import { queryNumber } from './searchParams';
 
 export const RATE_MODELS = ['moser-dutton', 'marcus'] as const;
 
+/*
+ * The shortest edge-to-edge distance the hop rate accepts: 3.6 Å, van der Waals contact of the
+ * edge atoms, where the Moser–Dutton ruler is anchored (its 10¹³ s⁻¹ at contact; Moser et al.,
+ * Nature 355, 796 (1992)) and where the default Marcus coupling is calibrated to it. Neither
+ * model says anything closer: the ruler was held at its contact value below it, and the Marcus
+ * coupling H₀·exp(−β(R − 3.6)/2) grew past its contact value (distance 0 gave log k = 15.1).
+ * Centres found closer in a structure are in contact: enter 3.6.
+ */
+export const MIN_HOP_DISTANCE_A = MOSER_DUTTON_CONTACT_A;
+export const MAX_HOP_DISTANCE_A = 100;
+
 export const hopRateQuerySchema = z.object({
-	distance: queryNumber(0, 100, ' Å'),
+	distance: queryNumber(
+		MIN_HOP_DISTANCE_A,
+		MAX_HOP_DISTANCE_A,
+		' Å',
+		`${MIN_HOP_DISTANCE_A} Å is van der Waals contact of the edge atoms, where both models reach their contact rate, Moser et al. 1992; enter centres in contact as ${MIN_HOP_DISTANCE_A}`
+	),
 	dG: queryNumber(-5, 5, ' eV'),
 	lambda: queryNumber(0.01, 5, ' eV'),
 	model: z

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { fieldErrorsSchema } from './apiError';
+import { NOT_A_DECIMAL, readDecimal } from './decimal';
 
 /** Field errors as the API and forms report them: field name → messages. */
 export type FieldErrors = z.infer<typeof fieldErrorsSchema>;
@@ -49,22 +50,41 @@ export function parseSearchParams<S extends z.ZodObject>(
 /*
  * Bounds are zod's own checks (min, max, int) rather than refinements, so that the JSON Schema
  * made from these schemas (the OpenAPI document, src/lib/server/openapi) states them too.
- * Infinity and NaN are refused by z.number() itself.
+ *
+ * Text is read by `readDecimal`, the one reader of typed numbers (decimal.ts): a Unicode minus,
+ * a decimal comma and digit-group spaces are read; hexadecimal ("0x10" is not 16), binary and
+ * octal prefixes, "Infinity" and out-of-range exponents ("1e400") are not numbers here. (zod's
+ * coercion is Number(), which reads all of those.) Text the reader refuses stays text, so the
+ * number schema refuses it with the field's message. The preprocessing step is invisible to
+ * the JSON Schema of requests: zod describes a preprocessed value by its target schema.
  */
 
-/** A number from a query string, within bounds, with a message that names them. */
-export function queryNumber(min: number, max: number, unit = '') {
-	const message = `expected a number from ${min}${unit} to ${max}${unit}`;
-	return z.coerce.number({ error: message }).min(min, message).max(max, message);
+function readQueryValue(value: unknown): unknown {
+	return typeof value === 'string' ? (readDecimal(value) ?? value) : value;
+}
+
+/**
+ * A number from a query string, within bounds, with a message that names them. `why` explains
+ * a bound that is not obvious (it is added to the message and should name its source).
+ */
+export function queryNumber(min: number, max: number, unit = '', why?: string) {
+	const bounds = `from ${min}${unit} to ${max}${unit}`;
+	const message = `expected a number ${bounds}${why ? ` (${why})` : ''}`;
+	return z.preprocess(
+		readQueryValue,
+		z
+			.number({ error: `${NOT_A_DECIMAL}, ${bounds}` })
+			.min(min, message)
+			.max(max, message)
+	);
 }
 
 /** A whole number from a query string, within bounds. */
 export function queryInteger(min: number, max: number) {
 	const message = `expected a whole number from ${min} to ${max}`;
 	// A fraction is named once, not again by a bound it also misses.
-	return z.coerce
-		.number({ error: message })
-		.int({ message, abort: true })
-		.min(min, message)
-		.max(max, message);
+	return z.preprocess(
+		readQueryValue,
+		z.number({ error: message }).int({ message, abort: true }).min(min, message).max(max, message)
+	);
 }

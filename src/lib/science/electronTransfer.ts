@@ -28,6 +28,25 @@ function fromLog10(log10Rate: number, warnings: string[]): RateResult {
 /** The van der Waals contact distance at which the Moser–Dutton ruler is anchored, Å. */
 export const MOSER_DUTTON_CONTACT_A = 3.6;
 
+/**
+ * How many decades a hop's uphill rate lies below its downhill rate, by detailed balance
+ * (microscopic reversibility) at temperature T:
+ *
+ *   log10(k_down / k_up) = |ΔG°| / (k_B T ln 10)
+ *
+ * the one uphill rule of Hopline (the hop-rate calculator, the ruler and the chain kinetics).
+ * At 298.15 K one decade is 59.16 mV; the published ruler's 0.06 eV per decade is this rule at
+ * T = 0.06 eV / (k_B ln 10) ≈ 302.4 K (Page et al. 1999).
+ * References: detailed balance, k_f/k_b = exp(−ΔG°/k_BT); k_B and e from CODATA 2018.
+ * @throws {TypeError} for non-finite input. @throws {RangeError} for T ≤ 0.
+ * @example detailedBalanceDecades(0.1, 298.15) // ≈ 1.690
+ */
+export function detailedBalanceDecades(deltaGEv: number, temperatureK: number): number {
+	requireFinite(deltaGEv, 'deltaGEv');
+	requirePositive(temperatureK, 'temperatureK');
+	return Math.abs(deltaGEv) / (BOLTZMANN_EV_PER_K * temperatureK * Math.LN10);
+}
+
 export interface MoserDuttonInput {
 	/** Edge-to-edge distance between the redox cofactors, Å. */
 	edgeDistanceA: number;
@@ -37,30 +56,46 @@ export interface MoserDuttonInput {
 	lambdaEv: number;
 	/** Fraction of the space between the centres filled by protein atoms. @default 0.76 */
 	packingDensity?: number;
+	/**
+	 * Temperature of the uphill direction's detailed balance, K. The downhill (exergonic) rate
+	 * does not depend on it: the ruler has no temperature in it. @default 298.15
+	 */
+	temperatureK?: number;
 }
+
+/** Away from room temperature by more than this (K), the ruler is an extrapolation. */
+const RULER_TEMPERATURE_SPAN_K = 30;
 
 /**
  * The Moser–Dutton ruler, log10 k in s⁻¹:
  *
  *   exergonic (ΔG° ≤ 0): 13 − (1.2 − 0.8ρ)(R − 3.6) − 3.1 (ΔG° + λ)²/λ
- *   endergonic (ΔG° > 0): 13 − (1.2 − 0.8ρ)(R − 3.6) − 3.1 (−ΔG° + λ)²/λ − ΔG°/0.06
+ *   endergonic (ΔG° > 0): the exergonic rate of the reverse hop (−ΔG°), lowered by detailed
+ *     balance at T: − ΔG°/(k_B T ln 10)
  *
- * with R the edge-to-edge distance (Å), ρ the packing density, ΔG° and λ in eV. The endergonic
- * form is the downhill rate of the reverse hop times the Boltzmann factor at room temperature
- * (0.06 eV ≈ kT·ln10), as published. Empirical; fitted at room temperature.
+ * with R the edge-to-edge distance (Å), ρ the packing density, ΔG° and λ in eV. The downhill
+ * rate does not depend on temperature (an empirical fit to rates measured near room
+ * temperature; a warning is given beyond ±30 K of 298.15 K). The published endergonic form
+ * uses −ΔG°/0.06, i.e. detailed balance at ≈302 K; here the uphill term uses the stated T, as
+ * the chain kinetics and the hop-rate calculator do (`detailedBalanceDecades`), so at
+ * T = 0.06 eV/(k_B ln 10) ≈ 302.4 K the two agree exactly and at 298.15 K they differ by
+ * 0.24 decades per eV of ΔG°. Empirical; fitted at room temperature.
  * References: C. C. Moser, J. M. Keske, K. Warncke, R. S. Farid & P. L. Dutton, Nature 355, 796
- * (1992); C. C. Page, C. C. Moser, X. Chen & P. L. Dutton, Nature 402, 47 (1999), eqs. 1–2.
+ * (1992); C. C. Page, C. C. Moser, X. Chen & P. L. Dutton, Nature 402, 47–52 (1999), eqs. 1–2
+ * (the room-temperature endergonic form this reproduces at ≈302 K).
  * @throws {TypeError} for non-finite input. @throws {RangeError} for λ ≤ 0, ρ outside 0–1,
- * a negative distance.
+ * a negative distance, T ≤ 0.
  * @example moserDuttonLog10Rate({ edgeDistanceA: 3.6, deltaGEv: -0.7, lambdaEv: 0.7 }).log10Rate // 13
  */
 export function moserDuttonLog10Rate(input: MoserDuttonInput): RateResult {
 	const { edgeDistanceA: r, deltaGEv: dg, lambdaEv: lambda } = input;
 	const rho = input.packingDensity ?? 0.76;
+	const t = input.temperatureK ?? STANDARD_TEMPERATURE_K;
 	requireFinite(r, 'edgeDistanceA');
 	requireFinite(dg, 'deltaGEv');
 	requirePositive(lambda, 'lambdaEv');
 	requireInRange(rho, 'packingDensity', 0, 1);
+	requirePositive(t, 'temperatureK');
 	if (r < 0) throw new RangeError(`edgeDistanceA must not be negative, got ${r}`);
 
 	const warnings: string[] = [];
@@ -83,16 +118,20 @@ export function moserDuttonLog10Rate(input: MoserDuttonInput): RateResult {
 			`λ = ${lambda} eV lies outside 0.3–1.5 eV, the range typical of protein cofactors.`
 		);
 	}
-	if (-dg > 2 * lambda) {
+	if (Math.abs(dg) > 2 * lambda) {
 		warnings.push(
 			'Driving force exceeds 2λ: deep in the inverted region the empirical parabola is least reliable.'
 		);
 	}
+	if (Math.abs(t - STANDARD_TEMPERATURE_K) > RULER_TEMPERATURE_SPAN_K) {
+		warnings.push(
+			`The ruler was calibrated on rates near room temperature and its downhill rate has no temperature in it: at ${t} K it is an extrapolation (only the uphill direction uses T, by detailed balance).`
+		);
+	}
 	const decay = (1.2 - 0.8 * rho) * (distance - MOSER_DUTTON_CONTACT_A);
-	const log10Rate =
-		dg <= 0
-			? 13 - decay - (3.1 * (dg + lambda) ** 2) / lambda
-			: 13 - decay - (3.1 * (-dg + lambda) ** 2) / lambda - dg / 0.06;
+	const downhill = -Math.abs(dg);
+	const log10Downhill = 13 - decay - (3.1 * (downhill + lambda) ** 2) / lambda;
+	const log10Rate = dg <= 0 ? log10Downhill : log10Downhill - detailedBalanceDecades(dg, t);
 	return fromLog10(log10Rate, warnings);
 }
 
@@ -178,6 +217,84 @@ export function couplingAtDistance(input: {
 	if (input.betaPerA < 0)
 		throw new RangeError(`betaPerA must not be negative, got ${input.betaPerA}`);
 	return input.h0Ev * Math.exp((-input.betaPerA * (input.distanceA - r0)) / 2);
+}
+
+export type RateModel = 'moser-dutton' | 'marcus';
+
+export interface HopRatePairInput {
+	model: RateModel;
+	/** Edge-to-edge distance, Å. */
+	edgeDistanceA: number;
+	/** Driving force of the forward hop, eV; negative downhill. */
+	deltaGEv: number;
+	/** Reorganization energy, eV. */
+	lambdaEv: number;
+	/** @default 298.15 */
+	temperatureK?: number;
+	/** Moser–Dutton only. @default 0.76 */
+	packingDensity?: number;
+	/** Marcus only (required for it): coupling at r0A and its distance decay. */
+	coupling?: { h0Ev: number; betaPerA: number; r0A?: number };
+}
+
+export interface HopRatePair {
+	/** s⁻¹ (0 below 1e-300). */
+	forward: number;
+	backward: number;
+	log10Forward: number;
+	log10Backward: number;
+	/** The model's warnings for the hop (evaluated on its downhill direction). */
+	warnings: string[];
+}
+
+/**
+ * Both directions of one hop: the downhill direction from the rate model, the uphill one from
+ * it by detailed balance at T (`detailedBalanceDecades`). For Marcus this equals the Marcus
+ * expression evaluated uphill (it obeys detailed balance by itself); for the ruler it is the
+ * ruler's endergonic form with the stated T in place of the published 0.06 eV per decade.
+ * References: as moserDuttonLog10Rate, marcusRate and couplingAtDistance.
+ * @throws {TypeError} for non-finite input or a Marcus hop without coupling.
+ * @throws {RangeError} as the model functions.
+ * @example hopRatePair({ model: 'moser-dutton', edgeDistanceA: 10, deltaGEv: 0.1, lambdaEv: 0.7 })
+ */
+export function hopRatePair(input: HopRatePairInput): HopRatePair {
+	const t = input.temperatureK ?? STANDARD_TEMPERATURE_K;
+	const downhill = -Math.abs(input.deltaGEv);
+	let down: RateResult;
+	if (input.model === 'moser-dutton') {
+		down = moserDuttonLog10Rate({
+			edgeDistanceA: input.edgeDistanceA,
+			deltaGEv: downhill,
+			lambdaEv: input.lambdaEv,
+			packingDensity: input.packingDensity,
+			temperatureK: t
+		});
+	} else {
+		if (!input.coupling) throw new TypeError('a Marcus hop needs its coupling (h0Ev, betaPerA)');
+		down = marcusRate({
+			couplingEv: couplingAtDistance({ ...input.coupling, distanceA: input.edgeDistanceA }),
+			deltaGEv: downhill,
+			lambdaEv: input.lambdaEv,
+			temperatureK: t
+		});
+	}
+	const log10Up = down.log10Rate - detailedBalanceDecades(downhill, t);
+	const up = fromLog10(log10Up, []).rate;
+	return input.deltaGEv <= 0
+		? {
+				forward: down.rate,
+				backward: up,
+				log10Forward: down.log10Rate,
+				log10Backward: log10Up,
+				warnings: down.warnings
+			}
+		: {
+				forward: up,
+				backward: down.rate,
+				log10Forward: log10Up,
+				log10Backward: down.log10Rate,
+				warnings: down.warnings
+			};
 }
 
 /**

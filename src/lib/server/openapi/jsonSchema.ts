@@ -19,9 +19,29 @@ function embedded(schema: JsonSchema): JsonSchema {
 	return rest;
 }
 
+/**
+ * zod drops the default of a schema that transforms its input (`io: 'input'`), since a default
+ * usually belongs to the output type. The query numbers (`queryNumber`, `queryInteger`: a
+ * preprocessing step that reads text, then a number schema) accept their own default as input
+ * too, so for them the default is stated again, where zod would have put it.
+ */
+function keepQueryNumberDefault(ctx: { zodSchema: unknown; jsonSchema: JsonSchema }): void {
+	const schema = ctx.zodSchema as z.ZodType;
+	if (!(schema instanceof z.ZodDefault) || 'default' in ctx.jsonSchema) return;
+	const inner = schema.unwrap();
+	if (!(inner instanceof z.ZodPipe) || !(inner.in instanceof z.ZodTransform)) return;
+	const value: unknown = schema.def.defaultValue;
+	if (!inner.safeParse(value).success) return;
+	const rest = { ...ctx.jsonSchema };
+	for (const key of Object.keys(rest)) delete ctx.jsonSchema[key];
+	Object.assign(ctx.jsonSchema, { default: value }, rest);
+}
+
 /** A request's schema (query parameter, path parameter or body), inline. */
 export function requestSchema(schema: z.ZodType): JsonSchema {
-	return embedded(z.toJSONSchema(schema, { target: TARGET, io: 'input' }));
+	return embedded(
+		z.toJSONSchema(schema, { target: TARGET, io: 'input', override: keepQueryNumberDefault })
+	);
 }
 
 /** A stored shape read back (an entry's data): optional where a default fills it in. */

@@ -208,11 +208,13 @@ export const PARAMETER_TEXT: Record<string, string> = {
 	cursor: 'Where the next page starts: `nextCursor` of the previous page, passed back unchanged.',
 	format: 'json, or csv for a CSV download of the same rows.',
 	version: 'A version number; the latest approved version when omitted.',
-	distance: 'Edge-to-edge distance between the two centres, Å.',
+	distance:
+		'Edge-to-edge distance between the two centres, Å; at least 3.6 Å, van der Waals contact of the edge atoms, where both models reach their contact rate (Moser et al., Nature 355, 796 (1992)): enter centres in contact as 3.6.',
 	dG: 'Driving force ΔG° of the forward hop, eV (negative downhill).',
 	lambda: 'Reorganization energy λ, eV.',
 	model: 'moser-dutton (empirical ruler) or marcus (nonadiabatic Marcus theory).',
-	temperature: 'Temperature, K.',
+	temperature:
+		'Temperature, K: the uphill direction follows from the downhill one by detailed balance at T. The Moser–Dutton downhill rate does not depend on it.',
 	packing: 'Protein packing density ρ between the centres, 0–1 (0.76 is the ruler’s average).',
 	h0: 'Marcus only: electronic coupling at contact, eV (default: the Moser–Dutton calibration).',
 	beta: 'Marcus only: distance decay of the coupling, Å⁻¹ (default ln10·(1.2 − 0.8ρ)).'
@@ -445,7 +447,7 @@ export const OPERATIONS: readonly ApiOperation[] = [
 		tag: 'Calculators',
 		summary: 'Electron hop rate between two centres',
 		description:
-			'Forward rate from ΔG° under the Moser–Dutton ruler or nonadiabatic Marcus theory, backward rate by detailed balance at T. Runs on the request thread (a closed form).',
+			'The downhill direction from the Moser–Dutton ruler or nonadiabatic Marcus theory, the uphill one by detailed balance at T (for the ruler this replaces the published −ΔG°/0.06 term, which is the same rule at about 302 K; Page et al., Nature 402, 47–52 (1999)). Runs on the request thread (a closed form).',
 		access: 'anyone',
 		query: hopRateQuerySchema,
 		example: { distance: 9.4, dG: -0.1, lambda: 0.7 },
