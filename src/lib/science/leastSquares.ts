@@ -133,8 +133,8 @@ export function normalEquations(
 		const r = residuals[i]!;
 		for (let a = 0; a < p; a++) {
 			const ja = jacobian[row + a]!;
-			jtr[a] += ja * r;
-			for (let b = 0; b <= a; b++) jtj[a * p + b] += ja * jacobian[row + b]!;
+			jtr[a] = jtr[a]! + ja * r;
+			for (let b = 0; b <= a; b++) jtj[a * p + b] = jtj[a * p + b]! + ja * jacobian[row + b]!;
 		}
 	}
 	for (let a = 0; a < p; a++) for (let b = 0; b < a; b++) jtj[b * p + a] = jtj[a * p + b]!;
@@ -169,7 +169,7 @@ function boundedStep(
 		free.forEach((a, i) => {
 			rhs[i] = jtr[a]!;
 			free.forEach((b, j) => (damped[i * q + j] = jtj[a * p + b]!));
-			damped[i * q + i] += lambda * Math.max(d[a]!, 1e-300);
+			damped[i * q + i] = damped[i * q + i]! + lambda * Math.max(d[a]!, 1e-300);
 		});
 		const solved = solvePositiveDefinite(damped, rhs, q);
 		if (!solved) return null;
