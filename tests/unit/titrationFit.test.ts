@@ -333,208 +333,217 @@ describe('fitNernst', () => {
  * Levenberg–Marquardt). Before the fix, over these scales and offsets, Em moved by up to 1 % of
  * itself (2.5 standard errors) for one component and 7 % (6.6 SE) for two.
  */
-describe('fitNernst is invariant to the units and offset of the signal and of the potentials', () => {
-	const cases: [string, TitrationPoint[], FitOptions][] = [
-		[
-			'one component, n fixed',
-			synthetic([{ emMv: -275, n: 1, amplitude: 1 }], { noise: 0.02, seed: 5 }),
-			{ components: 1, n: 1 }
-		],
-		[
-			'one component, n fitted',
-			synthetic([{ emMv: -275, n: 1, amplitude: 1 }], { noise: 0.02, seed: 6 }),
-			{ components: 1 }
-		],
-		[
-			'two components, n fixed',
-			synthetic(
-				[
-					{ emMv: -380, n: 1, amplitude: 0.6 },
-					{ emMv: -230, n: 1, amplitude: 0.4 }
-				],
-				{ noise: 0.02, seed: 7, count: 60 }
-			),
-			{ components: 2, n: 1 }
-		]
-	];
-	const close = (a: number, b: number) => Math.abs(a - b) <= 1e-6 * Math.abs(b);
-	for (const [label, points, options] of cases) {
-		it(`${label}: signal × 1e-6 … 1e6, offset 0 … 1e3 (in amplitude units)`, () => {
-			const reference = fitted(fitNernst(points, options));
-			for (const scale of [1e-6, 1e-3, 1e3, 1e6]) {
-				for (const offset of [0, 1, 1e3]) {
+describe(
+	'fitNernst is invariant to the units and offset of the signal and of the potentials',
+	{ timeout: 30_000 },
+	() => {
+		const cases: [string, TitrationPoint[], FitOptions][] = [
+			[
+				'one component, n fixed',
+				synthetic([{ emMv: -275, n: 1, amplitude: 1 }], { noise: 0.02, seed: 5 }),
+				{ components: 1, n: 1 }
+			],
+			[
+				'one component, n fitted',
+				synthetic([{ emMv: -275, n: 1, amplitude: 1 }], { noise: 0.02, seed: 6 }),
+				{ components: 1 }
+			],
+			[
+				'two components, n fixed',
+				synthetic(
+					[
+						{ emMv: -380, n: 1, amplitude: 0.6 },
+						{ emMv: -230, n: 1, amplitude: 0.4 }
+					],
+					{ noise: 0.02, seed: 7, count: 60 }
+				),
+				{ components: 2, n: 1 }
+			]
+		];
+		const close = (a: number, b: number) => Math.abs(a - b) <= 1e-6 * Math.abs(b);
+		for (const [label, points, options] of cases) {
+			it(`${label}: signal × 1e-6 … 1e6, offset 0 … 1e3 (in amplitude units)`, () => {
+				const reference = fitted(fitNernst(points, options));
+				for (const scale of [1e-6, 1e-3, 1e3, 1e6]) {
+					for (const offset of [0, 1, 1e3]) {
+						const fit = fitted(
+							fitNernst(
+								points.map((p) => ({
+									potentialMv: p.potentialMv,
+									signal: scale * (p.signal + offset)
+								})),
+								options
+							)
+						);
+						fit.components.forEach((c, i) => {
+							const r = reference.components[i]!;
+							expect(close(c.emMv, r.emMv), `Em at ×${scale} +${offset}`).toBe(true);
+							expect(close(c.emSeMv, r.emSeMv), `SE at ×${scale} +${offset}`).toBe(true);
+							expect(close(c.amplitude, scale * r.amplitude)).toBe(true);
+							if (r.nSe !== null) expect(close(c.nSe!, r.nSe)).toBe(true);
+						});
+						expect(close(fit.rmsd, scale * reference.rmsd)).toBe(true);
+					}
+				}
+			});
+			it(`${label}: potentials moved by −1000 … 1000 mV (another reference electrode)`, () => {
+				const reference = fitted(fitNernst(points, options));
+				for (const shift of [-1000, 197, 1000]) {
 					const fit = fitted(
 						fitNernst(
-							points.map((p) => ({
-								potentialMv: p.potentialMv,
-								signal: scale * (p.signal + offset)
-							})),
+							points.map((p) => ({ potentialMv: p.potentialMv + shift, signal: p.signal })),
 							options
 						)
 					);
 					fit.components.forEach((c, i) => {
 						const r = reference.components[i]!;
-						expect(close(c.emMv, r.emMv), `Em at ×${scale} +${offset}`).toBe(true);
-						expect(close(c.emSeMv, r.emSeMv), `SE at ×${scale} +${offset}`).toBe(true);
-						expect(close(c.amplitude, scale * r.amplitude)).toBe(true);
-						if (r.nSe !== null) expect(close(c.nSe!, r.nSe)).toBe(true);
+						expect(Math.abs(c.emMv - shift - r.emMv)).toBeLessThan(1e-6 * Math.abs(r.emMv));
+						expect(close(c.emSeMv, r.emSeMv)).toBe(true);
 					});
-					expect(close(fit.rmsd, scale * reference.rmsd)).toBe(true);
 				}
-			}
-		});
-		it(`${label}: potentials moved by −1000 … 1000 mV (another reference electrode)`, () => {
-			const reference = fitted(fitNernst(points, options));
-			for (const shift of [-1000, 197, 1000]) {
-				const fit = fitted(
-					fitNernst(
-						points.map((p) => ({ potentialMv: p.potentialMv + shift, signal: p.signal })),
-						options
-					)
-				);
-				fit.components.forEach((c, i) => {
-					const r = reference.components[i]!;
-					expect(Math.abs(c.emMv - shift - r.emMv)).toBeLessThan(1e-6 * Math.abs(r.emMv));
-					expect(close(c.emSeMv, r.emSeMv)).toBe(true);
+			});
+		}
+		// Before the fix, at amplitude 1e-4 the fit stopped up to 2.8 SE from this minimum with a sum
+		// of squares 26 % above it (50 seeds; 1.8 times it at amplitude 1e-6).
+		it('at amplitude 1e-4 ends at the least-squares minimum of the independent computation', () => {
+			for (let seed = 1; seed <= 20; seed++) {
+				const points = synthetic([{ emMv: -275, n: 1, amplitude: 1e-4 }], {
+					offset: 1e-5,
+					noise: 2e-6,
+					seed
 				});
+				const fit = fitted(fitNernst(points, { components: 1, n: 1 }));
+				const reference = exhaustive(points, { components: 1, n: 1 }, 5, []);
+				const c = fit.components[0]!;
+				expect(Math.abs(c.emMv - reference.ems[0]!) / c.emSeMv).toBeLessThan(1e-3);
+				expect(ssrOf(fit) / reference.ssr).toBeLessThan(1 + 1e-9);
 			}
 		});
 	}
-	// Before the fix, at amplitude 1e-4 the fit stopped up to 2.8 SE from this minimum with a sum
-	// of squares 26 % above it (50 seeds; 1.8 times it at amplitude 1e-6).
-	it('at amplitude 1e-4 ends at the least-squares minimum of the independent computation', () => {
-		for (let seed = 1; seed <= 20; seed++) {
-			const points = synthetic([{ emMv: -275, n: 1, amplitude: 1e-4 }], {
-				offset: 1e-5,
-				noise: 2e-6,
-				seed
-			});
-			const fit = fitted(fitNernst(points, { components: 1, n: 1 }));
-			const reference = exhaustive(points, { components: 1, n: 1 }, 5, []);
-			const c = fit.components[0]!;
-			expect(Math.abs(c.emMv - reference.ems[0]!) / c.emSeMv).toBeLessThan(1e-3);
-			expect(ssrOf(fit) / reference.ssr).toBeLessThan(1 + 1e-9);
-		}
-	});
-});
+);
 
-describe('fitNernst finds the least-squares optimum of the independent computation', () => {
-	const nGrid = Array.from({ length: 12 }, (_, i) => 0.25 * (i + 1));
-	const cases: [string, TitrationPoint[], FitOptions, number][] = [
-		// A semiquinone-like bell (the signal of the middle state): one start ended far from it.
-		[
-			'a bell-shaped signal, two components, n fixed (seed 1)',
-			synthetic(
-				[
-					{ emMv: -350, n: 1, amplitude: -1 },
-					{ emMv: -150, n: 1, amplitude: 1 }
-				],
-				{ noise: 0.01, seed: 1, count: 60 }
-			),
-			{ components: 2, n: 1 },
-			5
-		],
-		[
-			'a bell-shaped signal, two components, n fixed (seed 3)',
-			synthetic(
-				[
-					{ emMv: -350, n: 1, amplitude: -1 },
-					{ emMv: -150, n: 1, amplitude: 1 }
-				],
-				{ noise: 0.01, seed: 3, count: 60 }
-			),
-			{ components: 2, n: 1 },
-			5
-		],
-		[
-			'a bell-shaped signal, two components, n fitted',
-			synthetic(
-				[
-					{ emMv: -350, n: 1, amplitude: -1 },
-					{ emMv: -150, n: 1, amplitude: 1 }
-				],
-				{ noise: 0.01, seed: 2, count: 30 }
-			),
-			{ components: 2 },
-			20
-		],
-		[
-			'two components of n = 2 and n = 1, n fitted',
-			synthetic(
-				[
-					{ emMv: -380, n: 2, amplitude: 0.5 },
-					{ emMv: -200, n: 1, amplitude: 0.5 }
-				],
-				{ noise: 0.01, seed: 1, count: 30 }
-			),
-			{ components: 2 },
-			20
-		],
-		[
-			'one component, n fitted (n = 0.5)',
-			synthetic([{ emMv: -250, n: 0.5, amplitude: 1 }], { noise: 0.01, seed: 2 }),
-			{ components: 1 },
-			2
-		]
-	];
-	for (const [label, points, options, emStep] of cases) {
-		it(label, () => {
-			const fit = fitted(fitNernst(points, options));
-			const reference = exhaustive(points, options, emStep, nGrid);
-			// The fit is at least as good as the reference, and the reference confirms it.
-			expect(ssrOf(fit) / reference.ssr).toBeLessThan(1 + 1e-9);
-			expect(reference.ssr / ssrOf(fit)).toBeLessThan(1 + 1e-7);
-			fit.components.forEach((c, i) => {
-				expect(Math.abs(c.emMv - reference.ems[i]!)).toBeLessThan(0.01 * c.emSeMv);
-				expect(Math.abs(c.n - reference.ns[i]!)).toBeLessThan(1e-3);
+// The reference's exhaustive grids take seconds on a busy machine: a generous time-out, no timing.
+describe(
+	'fitNernst finds the least-squares optimum of the independent computation',
+	{ timeout: 60_000 },
+	() => {
+		const nGrid = Array.from({ length: 12 }, (_, i) => 0.25 * (i + 1));
+		const cases: [string, TitrationPoint[], FitOptions, number][] = [
+			// A semiquinone-like bell (the signal of the middle state): one start ended far from it.
+			[
+				'a bell-shaped signal, two components, n fixed (seed 1)',
+				synthetic(
+					[
+						{ emMv: -350, n: 1, amplitude: -1 },
+						{ emMv: -150, n: 1, amplitude: 1 }
+					],
+					{ noise: 0.01, seed: 1, count: 60 }
+				),
+				{ components: 2, n: 1 },
+				5
+			],
+			[
+				'a bell-shaped signal, two components, n fixed (seed 3)',
+				synthetic(
+					[
+						{ emMv: -350, n: 1, amplitude: -1 },
+						{ emMv: -150, n: 1, amplitude: 1 }
+					],
+					{ noise: 0.01, seed: 3, count: 60 }
+				),
+				{ components: 2, n: 1 },
+				5
+			],
+			[
+				'a bell-shaped signal, two components, n fitted',
+				synthetic(
+					[
+						{ emMv: -350, n: 1, amplitude: -1 },
+						{ emMv: -150, n: 1, amplitude: 1 }
+					],
+					{ noise: 0.01, seed: 2, count: 30 }
+				),
+				{ components: 2 },
+				20
+			],
+			[
+				'two components of n = 2 and n = 1, n fitted',
+				synthetic(
+					[
+						{ emMv: -380, n: 2, amplitude: 0.5 },
+						{ emMv: -200, n: 1, amplitude: 0.5 }
+					],
+					{ noise: 0.01, seed: 1, count: 30 }
+				),
+				{ components: 2 },
+				20
+			],
+			[
+				'one component, n fitted (n = 0.5)',
+				synthetic([{ emMv: -250, n: 0.5, amplitude: 1 }], { noise: 0.01, seed: 2 }),
+				{ components: 1 },
+				2
+			]
+		];
+		for (const [label, points, options, emStep] of cases) {
+			it(label, () => {
+				const fit = fitted(fitNernst(points, options));
+				const reference = exhaustive(points, options, emStep, nGrid);
+				// The fit is at least as good as the reference, and the reference confirms it.
+				expect(ssrOf(fit) / reference.ssr).toBeLessThan(1 + 1e-9);
+				expect(reference.ssr / ssrOf(fit)).toBeLessThan(1 + 1e-7);
+				fit.components.forEach((c, i) => {
+					expect(Math.abs(c.emMv - reference.ems[i]!)).toBeLessThan(0.01 * c.emSeMv);
+					expect(Math.abs(c.n - reference.ns[i]!)).toBeLessThan(1e-3);
+				});
 			});
+		}
+
+		it('reports other minima of similar fit quality (identifiability), each checked independently', () => {
+			const points = synthetic(
+				[
+					{ emMv: -351, n: 0.5, amplitude: 0.41 },
+					{ emMv: -305, n: 1, amplitude: 0.38 }
+				],
+				{ noise: 0.01, seed: 183, count: 30 }
+			);
+			const fit = fitted(fitNernst(points, { components: 2 }));
+			expect(fit.alternatives.length).toBeGreaterThan(0);
+			expect(fit.warnings.map((w) => w.code)).toContain('several_minima');
+			expect(fit.warnings.find((w) => w.code === 'several_minima')!.message).toMatch(
+				/do not single out one solution/
+			);
+			const best = exhaustive(points, { components: 2 }, 20, nGrid);
+			expect(best.ssr / ssrOf(fit)).toBeLessThan(1 + 1e-7);
+			const variance = best.ssr / (points.length - 7);
+			for (const alternative of fit.alternatives) {
+				const start = {
+					ems: alternative.components.map((c) => c.emMv),
+					ns: alternative.components.map((c) => c.n),
+					ssr: projectedSsr(
+						points,
+						alternative.components.map((c) => c.emMv),
+						alternative.components.map((c) => c.n)
+					)
+				};
+				// A local minimum: compass search from it stays there.
+				const local = compass(points, { components: 2 }, start, 1, 0.01);
+				local.ems.forEach((em, i) => expect(Math.abs(em - start.ems[i]!)).toBeLessThan(0.5));
+				expect(local.ssr / start.ssr).toBeGreaterThan(1 - 1e-6);
+				// Of similar quality: within χ²₁(95 %) = 3.84 variances of the best.
+				expect((start.ssr - best.ssr) / variance).toBeLessThan(3.85);
+				// And distinct: more than a standard error from the best in some Em or n.
+				const distinct = fit.components.some(
+					(c, i) =>
+						Math.abs(c.emMv - start.ems[i]!) > c.emSeMv || Math.abs(c.n - start.ns[i]!) > c.nSe!
+				);
+				expect(distinct).toBe(true);
+			}
 		});
 	}
+);
 
-	it('reports other minima of similar fit quality (identifiability), each checked independently', () => {
-		const points = synthetic(
-			[
-				{ emMv: -351, n: 0.5, amplitude: 0.41 },
-				{ emMv: -305, n: 1, amplitude: 0.38 }
-			],
-			{ noise: 0.01, seed: 183, count: 30 }
-		);
-		const fit = fitted(fitNernst(points, { components: 2 }));
-		expect(fit.alternatives.length).toBeGreaterThan(0);
-		expect(fit.warnings.map((w) => w.code)).toContain('several_minima');
-		expect(fit.warnings.find((w) => w.code === 'several_minima')!.message).toMatch(
-			/do not single out one solution/
-		);
-		const best = exhaustive(points, { components: 2 }, 20, nGrid);
-		expect(best.ssr / ssrOf(fit)).toBeLessThan(1 + 1e-7);
-		const variance = best.ssr / (points.length - 7);
-		for (const alternative of fit.alternatives) {
-			const start = {
-				ems: alternative.components.map((c) => c.emMv),
-				ns: alternative.components.map((c) => c.n),
-				ssr: projectedSsr(
-					points,
-					alternative.components.map((c) => c.emMv),
-					alternative.components.map((c) => c.n)
-				)
-			};
-			// A local minimum: compass search from it stays there.
-			const local = compass(points, { components: 2 }, start, 1, 0.01);
-			local.ems.forEach((em, i) => expect(Math.abs(em - start.ems[i]!)).toBeLessThan(0.5));
-			expect(local.ssr / start.ssr).toBeGreaterThan(1 - 1e-6);
-			// Of similar quality: within χ²₁(95 %) = 3.84 variances of the best.
-			expect((start.ssr - best.ssr) / variance).toBeLessThan(3.85);
-			// And distinct: more than a standard error from the best in some Em or n.
-			const distinct = fit.components.some(
-				(c, i) =>
-					Math.abs(c.emMv - start.ems[i]!) > c.emSeMv || Math.abs(c.n - start.ns[i]!) > c.nSe!
-			);
-			expect(distinct).toBe(true);
-		}
-	});
-});
-
-describe('fitNernst gives no Em where the data show no transition', () => {
+describe('fitNernst gives no Em where the data show no transition', { timeout: 30_000 }, () => {
 	// The issue's example: noise only gave "Em = −114 ± 701 mV".
 	// Pure noise still gives an Em now and then: the fit searches Em over the whole range and keeps
 	// the best-looking wiggle. Measured: 4 of 400 such runs (1 %) pass the 3-SE rule.

@@ -159,21 +159,24 @@ function boundedStep(
 ): Float64Array | null {
 	const p = theta.length;
 	const held = new Array<boolean>(p).fill(false);
+	const free: number[] = [];
 	for (let round = 0; round <= p; round++) {
-		const free = held.flatMap((h, j) => (h ? [] : [j]));
+		free.length = 0;
+		for (let j = 0; j < p; j++) if (!held[j]) free.push(j);
 		const q = free.length;
 		const step = new Float64Array(p);
 		if (q === 0) return step;
 		const damped = new Float64Array(q * q);
 		const rhs = new Float64Array(q);
-		free.forEach((a, i) => {
+		for (let i = 0; i < q; i++) {
+			const a = free[i]!;
 			rhs[i] = jtr[a]!;
-			free.forEach((b, j) => (damped[i * q + j] = jtj[a * p + b]!));
+			for (let j = 0; j < q; j++) damped[i * q + j] = jtj[a * p + free[j]!]!;
 			damped[i * q + i] = damped[i * q + i]! + lambda * Math.max(d[a]!, 1e-300);
-		});
+		}
 		const solved = solvePositiveDefinite(damped, rhs, q);
 		if (!solved) return null;
-		free.forEach((a, i) => (step[a] = solved[i]!));
+		for (let i = 0; i < q; i++) step[free[i]!] = solved[i]!;
 		let more = false;
 		for (let j = 0; j < p; j++) {
 			if (held[j]) continue;
@@ -239,14 +242,19 @@ export function minimiseLeastSquares(
 				lambda *= 10;
 				continue;
 			}
-			const trial = theta.map((v, j) => Math.min(upper[j]!, Math.max(lower[j]!, v + step[j]!)));
+			const trial = new Array<number>(p);
+			let small = true;
+			for (let j = 0; j < p; j++) {
+				trial[j] = Math.min(upper[j]!, Math.max(lower[j]!, theta[j]! + step[j]!));
+				if (
+					Math.abs(trial[j]! - theta[j]!) >
+					stepTolerance * Math.max(Math.abs(theta[j]!), typical[j]!)
+				)
+					small = false;
+			}
 			problem.evaluate(trial, trialResiduals);
 			const trialSsr = sumOfSquares(trialResiduals);
 			if (Number.isFinite(trialSsr) && trialSsr < ssr) {
-				const small = trial.every(
-					(v, j) =>
-						Math.abs(v - theta[j]!) <= stepTolerance * Math.max(Math.abs(theta[j]!), typical[j]!)
-				);
 				converged = ssr - trialSsr <= relativeTolerance * ssr || small;
 				theta = trial;
 				ssr = trialSsr;

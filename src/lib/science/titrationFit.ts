@@ -206,22 +206,26 @@ function scaledProblem(
 		lower,
 		upper,
 		evaluate(theta, residuals, jacobian) {
-			const parts = unpack(theta, l);
 			const p = l.count;
+			const per = l.perComponent;
+			const fixedN = l.fixedN;
 			for (let i = 0; i < x.length; i++) {
 				let model = theta[0]!;
 				if (jacobian) jacobian[i * p] = 1;
-				for (let c = 0; c < parts.length; c++) {
-					const { a, m, n } = parts[c]!;
+				for (let c = 0; c < l.components; c++) {
+					const base = 1 + c * per;
+					const a = theta[base]!;
+					const m = theta[base + 1]!;
+					const n = fixedN ?? theta[base + 2]!;
 					const dx = x[i]! - m;
 					const s = reduced(n * k * dx);
 					model += a * s;
 					if (jacobian) {
-						const base = i * p + 1 + c * l.perComponent;
+						const at = i * p + base;
 						const slope = s * (1 - s);
-						jacobian[base] = s;
-						jacobian[base + 1] = a * slope * n * k;
-						if (l.fixedN === null) jacobian[base + 2] = -a * slope * k * dx;
+						jacobian[at] = s;
+						jacobian[at + 1] = a * slope * n * k;
+						if (fixedN === null) jacobian[at + 2] = -a * slope * k * dx;
 					}
 				}
 				residuals[i] = y[i]! - model;
