@@ -67,14 +67,25 @@ export const MAX_POTENTIAL_SAMPLES = 500;
 
 export const titrationRequestSchema = z.strictObject({
 	points: z
-		.array(z.strictObject({ potentialMv: finite(-3000, 3000, ' mV'), signal: finite(-1e12, 1e12) }))
+		.array(
+			z.strictObject({
+				potentialMv: finite(-3000, 3000, ' mV').describe(
+					'Ambient potential, mV vs SHE (convert values measured against another electrode first).'
+				),
+				signal: finite(-1e12, 1e12).describe(
+					'The signal, in any unit; the fit does not depend on it.'
+				)
+			})
+		)
 		.min(4, 'at least 4 points are needed')
 		.max(
 			MAX_TITRATION_POINTS,
 			`at most ${MAX_TITRATION_POINTS} points (a titration needs tens to a few hundred)`
 		),
 	components: z.union([z.literal(1), z.literal(2)], { error: 'expected 1 or 2' }).default(1),
-	n: finite(0.1, 4).optional(),
+	n: finite(0.1, 4)
+		.optional()
+		.describe('Electrons per component; leave out to fit the apparent n.'),
 	temperatureK: finite(1, 1000, ' K').default(298.15)
 });
 export type TitrationRequest = z.infer<typeof titrationRequestSchema>;

@@ -12,8 +12,11 @@ const MINUS_SIGNS = /[\u2212\u2012\u2013\uFE63\uFF0D]/g;
 /** Spaces people put between digit groups: ordinary, no-break, thin, narrow no-break. */
 const GROUP_SPACES = /[\s\u00A0\u2009\u202F]+/g;
 const PLAIN_DECIMAL = /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i;
-/** "1,000" could be one thousand or one: refused rather than guessed. */
-const AMBIGUOUS_COMMA = /^[-+]?\d{1,3},\d{3}$/;
+/**
+ * "1,000" could be one thousand or one: refused rather than guessed. A leading zero is never a
+ * digit group, so "0,980" (a signal written with a decimal comma) is 0.98.
+ */
+const AMBIGUOUS_COMMA = /^[-+]?[1-9]\d{0,2},\d{3}$/;
 
 export interface DecimalOptions {
 	/** Read "1,5" as 1.5 (default true). CSV files with comma separators turn this off. */

@@ -8,6 +8,7 @@ export * from './temperatureDependence';
 export * from './electronTransfer';
 export * from './random';
 export * from './chainKinetics';
+export * from './leastSquares';
 export * from './titrationFit';
 export * from './symmetricEigen';
 export * from './tunnelling';

@@ -1,9 +1,11 @@
-import type { NernstFit } from '$lib/science';
+import type { TitrationResult } from '$lib/science';
 import type { HopRateQuery } from '$lib/schemas/calc';
-import type {
-	HopRateResponse,
-	TitrationResponse,
-	TunnellingResponse
+import {
+	TITRATION_CAUTION,
+	TITRATION_UNITS,
+	type HopRateResponse,
+	type TitrationResponse,
+	type TunnellingResponse
 } from '$lib/schemas/calcResponses';
 import { RATE_CAUTION, runHopRate } from './hopRate';
 import type { TunnellingResult } from './tunnelling';
@@ -35,13 +37,9 @@ export function hopRateAnswer(query: HopRateQuery): HopRateResponse {
 	};
 }
 
-export function titrationAnswer(fit: NernstFit): TitrationResponse {
-	return {
-		...fit,
-		units: { emMv: 'mV (same reference as the potentials sent)', temperatureK: 'K' },
-		caution:
-			'Standard errors assume independent, equal-variance noise and a correct Nernstian model; they do not include systematic errors such as mediator equilibration or electrode calibration.'
-	};
+/** The fit or the reason there is none, with units and the caution. */
+export function titrationAnswer(result: TitrationResult): TitrationResponse {
+	return { ...result, units: TITRATION_UNITS, caution: TITRATION_CAUTION };
 }
 
 export function tunnellingAnswer(result: TunnellingResult): TunnellingResponse {

@@ -1,4 +1,9 @@
-import { fitNernst, type FitOptions, type NernstFit, type TitrationPoint } from '$lib/science';
+import {
+	fitNernst,
+	type FitOptions,
+	type TitrationPoint,
+	type TitrationResult
+} from '$lib/science';
 import type { ChainEstimate } from '$lib/catalogue/chainEstimate';
 import type { TunnellingRequest } from '$lib/schemas/calc';
 import { estimateChain, type LadderChainInput } from './chainEstimate';
@@ -15,7 +20,7 @@ export type CalcJob =
 
 /** The result of each kind of job. */
 export interface CalcResults {
-	titration: NernstFit;
+	titration: TitrationResult;
 	tunnelling: TunnellingResult;
 	chain: ChainEstimate;
 }

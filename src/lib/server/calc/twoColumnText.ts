@@ -1,12 +1,18 @@
 import Papa from 'papaparse';
+import { readDecimal } from '$lib/schemas/decimal';
 
 /**
  * Two numeric columns from pasted or uploaded text (titration points, a sampled potential): an
- * optional header row; comma, semicolon or tab separated (papaparse detects which); a BOM, the
- * unicode minus and, with semicolons, the decimal comma are accepted. Every bad row is reported
- * with its number and the name of the column. Only the first `maxRows` + 1 lines that hold
- * anything (a header may come first) are parsed, so an oversized paste costs no more than a full
- * one.
+ * optional header row; columns separated by tabs, semicolons, commas or spaces. Every number is
+ * read by `readDecimal` (the one reader: Unicode minus, digit-group spaces, the decimal comma
+ * wherever commas do not separate the columns; hexadecimal, "Infinity" and empty cells refused).
+ * Every bad row is reported with its number and the name of the column, one message per row. Only
+ * the first `maxRows` + 1 lines that hold anything (a header may come first) are parsed, so an
+ * oversized paste costs no more than a full one.
+ *
+ * The separator is decided once for the text: a tab if any line has one, else a semicolon if any
+ * line has one, else spaces when every line is words separated by spaces with no comma beside a
+ * space ("−400 0,98", "-400 0.98"), else a comma ("-400,0.98", "-400, 0.98"; quotes as in CSV).
  */
 export function parseTwoColumnText(
 	text: string,
@@ -14,20 +20,24 @@ export function parseTwoColumnText(
 	maxRows: number
 ): { rows: [number, number][]; errors: string[] } {
 	const { head, more } = leadingLines(text.replace(/^\uFEFF/, '').trim(), maxRows + 1);
-	const parsed = Papa.parse<string[]>(head, { skipEmptyLines: 'greedy' });
-	const data = parsed.data;
-	const decimalComma = parsed.meta.delimiter === ';';
-	const toNumber = (cell: string | undefined) => {
-		const cleaned = (cell ?? '').trim().replace(/\u2212/g, '-');
-		return cleaned === '' ? Number.NaN : Number(decimalComma ? cleaned.replace(',', '.') : cleaned);
-	};
+	const separator = separatorOf(head);
+	const data =
+		separator === ' '
+			? head
+					.split(/\r?\n|\r/)
+					.map((line) => line.trim())
+					.filter((line) => line !== '')
+					.map((line) => line.split(/\s+/))
+			: Papa.parse<string[]>(head, { delimiter: separator, skipEmptyLines: 'greedy' }).data;
+	const read = (cell: string | undefined) =>
+		readDecimal(cell ?? '', { decimalComma: separator !== ',' });
 	const rows: [number, number][] = [];
 	const errors: string[] = [];
 	let header = false;
 	data.forEach((row, i) => {
-		const a = toNumber(row[0]);
-		const b = toNumber(row[1]);
-		if (i === 0 && Number.isNaN(a) && Number.isNaN(b)) {
+		const a = read(row[0]);
+		const b = read(row[1]);
+		if (i === 0 && a === null && b === null) {
 			header = true;
 			return;
 		}
@@ -35,15 +45,26 @@ export function parseTwoColumnText(
 			errors.push(
 				`row ${i + 1}: expected two columns (${columns.join(', ')}), found ${row.length}`
 			);
-		else if (!Number.isFinite(a))
-			errors.push(`row ${i + 1}, ${columns[0]}: "${row[0]}" is not a number`);
-		else if (!Number.isFinite(b))
-			errors.push(`row ${i + 1}, ${columns[1]}: "${row[1]}" is not a number`);
+		else if (a === null) errors.push(`row ${i + 1}, ${columns[0]}: "${row[0]}" is not a number`);
+		else if (b === null) errors.push(`row ${i + 1}, ${columns[1]}: "${row[1]}" is not a number`);
 		else rows.push([a, b]);
 	});
 	if (more || data.length - (header ? 1 : 0) > maxRows)
 		errors.push(`at most ${maxRows} rows; the text has more`);
 	return { rows, errors };
+}
+
+type Separator = '\t' | ';' | ',' | ' ';
+
+function separatorOf(text: string): Separator {
+	if (text.includes('\t')) return '\t';
+	if (text.includes(';')) return ';';
+	const lines = text
+		.split(/\r?\n|\r/)
+		.map((line) => line.trim())
+		.filter((line) => !/^[\s,]*$/.test(line));
+	const spaced = (line: string) => /^\S+(\s+\S+)+$/.test(line) && !/,\s|\s,/.test(line);
+	return lines.length > 0 && lines.every(spaced) ? ' ' : ',';
 }
 
 /** The text up to its first `count` lines with content, and whether any content follows. */

@@ -467,17 +467,19 @@ export const OPERATIONS: readonly ApiOperation[] = [
 		tag: 'Calculators',
 		summary: 'Nernst fit of a redox titration',
 		description:
-			'One or two Nernstian components, n fixed or fitted, with standard errors and residuals. Runs in a worker thread: past its time limit the answer is 422, with every worker busy and the queue full 503, and without an account an address may run a limited number of calculations a minute (429); 503 and 429 carry Retry-After.',
+			'One or two Nernstian components, n fixed or fitted (the apparent n), with linearised standard errors and residuals. Potentials are read as mV vs SHE, and Em is given vs SHE. The fit does not depend on the units or offset of the signal. It starts from a grid of Em values across the range (n in 0.5, 1, 2 when fitted), keeps the lowest sum of squares, and warns when other minima fit about as well. When the data show no transition the model can place, the answer has outcome "no_transition" with the reasons, and no Em. Runs in a worker thread: past its time limit the answer is 422, with every worker busy and the queue full 503, and without an account an address may run a limited number of calculations a minute (429); 503 and 429 carry Retry-After.',
 		access: 'anyone',
 		body: {
 			mediaType: 'application/json',
 			schema: titrationRequestSchema,
-			description: 'The titration points (potential in mV, signal) and the model.',
+			description:
+				'The titration points (potential in mV vs SHE, signal in any unit) and the model.',
 			example: TITRATION_EXAMPLE
 		},
 		success: {
 			status: 200,
-			description: 'The fitted components.',
+			description:
+				'The fitted components (outcome "fitted"), or why the data give no Em (outcome "no_transition").',
 			schema: 'TitrationFit',
 			example: () => {
 				const { points, ...options } = titrationRequestSchema.parse(TITRATION_EXAMPLE);
