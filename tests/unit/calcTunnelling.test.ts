@@ -3,7 +3,12 @@ import { tunnellingRequestSchema } from '$lib/schemas/calc';
 import { tunnellingResponseSchema } from '$lib/schemas/calcResponses';
 import { computedJson } from '$lib/server/api/respond';
 import { tunnellingAnswer } from '$lib/server/calc/answers';
-import { roundSignificant, runTunnelling } from '$lib/server/calc/tunnelling';
+import {
+	quarticDoubleWell,
+	roundSignificant,
+	runTunnelling,
+	tunnellingPlot
+} from '$lib/server/calc/tunnelling';
 
 // The calculator service (server/calc/tunnelling.ts) on the API's inputs: what it answers, and
 // that every answer is a valid, finite API body. The science is checked in tunnelling.test.ts.
@@ -79,6 +84,24 @@ describe('tunnelling calculator', () => {
 		const result = run({ potential: wellOf(0.01, 0.05), levels: 4 });
 		expect(result.levels?.energiesKcalMol[0]).toBeCloseTo(1.5527305, 6); // oscillator basis
 		expect(result.levels?.grid.converged).toBe(true);
+	});
+});
+
+describe('the page’s plot', () => {
+	it('samples V(x) from the potential itself and ψ between the grid points, over the grid', () => {
+		const request = tunnellingRequestSchema.parse({ potential: wellOf(6, 0.35), levels: 2 });
+		const levels = runTunnelling(request).levels!;
+		const plot = tunnellingPlot(request, levels)!;
+		expect(plot.xA).toHaveLength(241);
+		expect(plot.xA[0]).toBe(levels.grid.xMinA);
+		expect(plot.xA.at(-1)).toBeCloseTo(levels.grid.xMaxA, 12);
+		const v = quarticDoubleWell(6, 0.35, 0);
+		plot.xA.forEach((x, i) => expect(plot.potentialKcalMol[i]).toBe(v(x)));
+		expect(plot.wavefunctions).toHaveLength(2);
+		// Between its grid points the ground state stays close to its neighbours' values.
+		const j = levels.gridA.findIndex((x) => x > 0.35);
+		const mid = plot.xA.findIndex((x) => x > levels.gridA[j]!);
+		expect(plot.wavefunctions[0]![mid]).toBeCloseTo(levels.wavefunctions[0]![j]!, 1);
 	});
 });
 

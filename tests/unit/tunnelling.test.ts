@@ -13,6 +13,7 @@ import {
 	bellKappa,
 	bellKappaLog10,
 	crossoverTemperatureK,
+	interpolateWavefunction,
 	isotopeEffectFromSplittings,
 	lowestEigenpairs,
 	seededRandom,
@@ -240,6 +241,26 @@ describe('Colbert–Miller DVR', () => {
 			levels: 3
 		});
 		b.energiesKcalMol.forEach((e, i) => expect(e).toBeCloseTo(a.energiesKcalMol[i]!, 3));
+	});
+	// ψ₀(x) = (mω/πħ)^{1/4} exp(−mωx²/2ħ) (any quantum mechanics text, e.g. Griffiths eq. 2.59):
+	// the DVR's sinc interpolation gives it between the grid points too.
+	it('interpolates a wavefunction between grid points in the DVR’s sinc basis', () => {
+		const k = 400;
+		const r = vibrationalLevels({
+			potential: (x) => 0.5 * k * x * x,
+			massAmu: 1,
+			xMinA: -0.8,
+			xMaxA: 0.8,
+			points: 80,
+			levels: 1
+		});
+		const psi = r.wavefunctions[0]!;
+		expect(interpolateWavefunction(r.gridA, psi, r.gridA[17]!)).toBeCloseTo(psi[17]!, 12);
+		const w = hbarOmegaKcal(k, 1);
+		const l2 = (2 * kineticKcalA2(1)) / w; // ħ/mω, Å²
+		const exact = (x: number) => (Math.PI * l2) ** -0.25 * Math.exp(-(x * x) / (2 * l2));
+		for (const x of [-0.213, -0.05, 0.0071, 0.1234])
+			expect(interpolateWavefunction(r.gridA, psi, x)).toBeCloseTo(exact(x), 6);
 	});
 	it('refuses a grid outside the sampled potential', () =>
 		expect(() =>

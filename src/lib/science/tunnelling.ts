@@ -404,6 +404,23 @@ export function vibrationalLevels(input: VibrationalInput): VibrationalLevels {
 	};
 }
 
+/**
+ * A DVR wavefunction between its grid points, in the DVR's own basis: the Colbert–Miller grid
+ * functions are sinc functions, so ψ(x) = Σᵢ ψ(xᵢ) · sinc(π(x − xᵢ)/Δx), which equals ψ(xᵢ) at
+ * every grid point (sinc z = sin z / z).
+ * References: Colbert & Miller (1992), §II.
+ * @param gridA the uniform grid, Å; psi the wavefunction at its points.
+ */
+export function interpolateWavefunction(gridA: number[], psi: number[], xA: number): number {
+	const dx = gridA[1]! - gridA[0]!;
+	let sum = 0;
+	for (let i = 0; i < gridA.length; i++) {
+		const z = (Math.PI * (xA - gridA[i]!)) / dx;
+		sum += psi[i]! * (Math.abs(z) < 1e-12 ? 1 : Math.sin(z) / z);
+	}
+	return sum;
+}
+
 export interface AdaptiveGridInput {
 	/** V(x) in kcal/mol: a function of x in Å, or sampled points. */
 	potential: PotentialKcalMol;
@@ -794,6 +811,9 @@ export interface DoubleWellAssessment {
 	assessment: string;
 }
 
+/** Samples of a potential given as a function, to find its minima and barrier top. */
+const EXTREMA_SAMPLES = 4001;
+
 /** The position where f is smallest on [a, b] (golden-section search; f unimodal there). */
 function goldenMinimum(f: (x: number) => number, a: number, b: number): number {
 	const r = (Math.sqrt(5) - 1) / 2;
@@ -847,8 +867,9 @@ function twoStateSplitting(levels: VibrationalLevels) {
  * tunnelling between localised states (splitting ≪ barrier: vibrationally nonadiabatic, rate
  * governed by the vibronic coupling, about half the splitting).
  *
- * The minima and the top are found on the grid and, given the potential as a function, refined
- * on it (golden-section search), so that the barrier is the potential's own.
+ * The minima and the top are found on the grid or, given the potential as a function, on 4 001
+ * samples of the grid's interval, and then refined on it (golden-section search), so that the
+ * barrier is the potential's own.
  *
  * In a tilted well E₁ − E₀ is mostly the tilt. The splitting is therefore the symmetric part, from
  * a two-state model: the localised states are the combinations of the two lowest levels that
@@ -866,8 +887,17 @@ export function assessDoubleWell(
 	levels: VibrationalLevels,
 	options: { potential?: (xA: number) => number; comparison?: VibrationalLevels } = {}
 ): DoubleWellAssessment {
-	const v = levels.potentialKcalMol;
-	const x = levels.gridA;
+	const f = options.potential;
+	const grid = levels.gridA;
+	// Where to look for the extrema: given the potential as a function, a fine sampling of the
+	// grid's interval (the DVR grid can be coarser than a narrow double well); else the grid.
+	const x = f
+		? Array.from(
+				{ length: EXTREMA_SAMPLES },
+				(_, i) => grid[0]! + ((grid.at(-1)! - grid[0]!) * i) / (EXTREMA_SAMPLES - 1)
+			)
+		: grid;
+	const v = f ? x.map(f) : levels.potentialKcalMol;
 	const minima: number[] = [];
 	for (let i = 1; i < v.length - 1; i++)
 		if (v[i]! <= v[i - 1]! && v[i]! < v[i + 1]!) minima.push(i);
@@ -882,7 +912,6 @@ export function assessDoubleWell(
 		.sort((a, b) => a - b) as [number, number];
 	let top = left;
 	for (let i = left; i <= right; i++) if (v[i]! > v[top]!) top = i;
-	const f = options.potential;
 	const refine = (i: number, sign: 1 | -1) =>
 		f ? goldenMinimum((y) => sign * f(y), x[i - 1]!, x[i + 1]!) : x[i]!;
 	const xL = refine(left, 1);
@@ -894,9 +923,10 @@ export function assessDoubleWell(
 	const barrier = vTop - bottom;
 	const [e0, e1] = levels.energiesKcalMol as [number, number];
 	const { splitting, epsilon } = twoStateSplitting(levels);
-	const dx = x[1]! - x[0]!;
+	const dx = grid[1]! - grid[0]!;
 	const norm =
-		(kineticScale(levels.massAmu) / dx ** 2) * Math.PI ** 2 + Math.max(...v.map(Math.abs));
+		(kineticScale(levels.massAmu) / dx ** 2) * Math.PI ** 2 +
+		Math.max(...levels.potentialKcalMol.map(Math.abs));
 	const splittingChange = options.comparison
 		? Math.abs(twoStateSplitting(options.comparison).splitting - splitting) / splitting
 		: null;

@@ -46,7 +46,7 @@ export function titrationAnswer(fit: NernstFit): TitrationResponse {
 
 /** What the tunnelling answer's numbers leave out, said beside them on the page and in the API. */
 export const TUNNELLING_CAUTION =
-	'One-dimensional model estimates, not measurements. κ models only the barrier top as a parabola: Wigner’s term is within 2 % of it for u ≤ 2, Bell’s infinite parabola holds for u < 2π, and below the crossover temperature the truncated form is an order of magnitude at best. The levels are those of a fixed potential, converged numerically as the grid report says; the error of the model itself (coupling to other coordinates) is not estimated here. The isotope effect, (Δ_H/Δ_D)², is an order of magnitude, and only for vibrationally nonadiabatic transfer.';
+	'These numbers come from one-dimensional models. κ models only the barrier top as a parabola: Wigner’s term is within 2 % of it for u ≤ 2, Bell’s infinite parabola holds for u < 2π, and below the crossover temperature the truncated form is an order of magnitude at best. The levels are those of a fixed potential, converged numerically as the grid report says; the error of the model itself (coupling to other coordinates) is not estimated here. The isotope effect, (Δ_H/Δ_D)², is an order of magnitude, and only for vibrationally nonadiabatic transfer.';
 
 export function tunnellingAnswer(result: TunnellingResult): TunnellingResponse {
 	return {

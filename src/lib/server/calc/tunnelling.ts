@@ -6,6 +6,7 @@ import {
 	barrierFrequencyRatio,
 	bellKappaLog10,
 	crossoverTemperatureK,
+	interpolateWavefunction,
 	isotopeEffectFromSplittings,
 	potentialFunction,
 	wignerKappa,
@@ -173,4 +174,42 @@ function barrierNote(request: TunnellingRequest, a: DoubleWellAssessment): strin
 	if (p?.kind !== 'double-well' || p.asymmetryKcalMol === 0) return null;
 	const upper = a.barrierKcalMol - Math.abs(a.asymmetryKcalMol);
 	return `The barrier entered (${p.barrierKcalMol} kcal/mol) is that of the untilted well. The tilt moves the minima to ${fixed(a.minimaA[0], 3)} and ${fixed(a.minimaA[1], 3)} Å and the top to ${fixed(a.topA, 3)} Å: the barrier is ${fixed(a.barrierKcalMol, 3)} kcal/mol from the lower minimum and ${fixed(upper, 3)} kcal/mol from the upper one.`;
+}
+
+/** Curves to draw: V(x) and the wavefunctions on a fine sampling of the grid's interval. */
+export interface TunnellingPlot {
+	xA: number[];
+	potentialKcalMol: number[];
+	wavefunctions: number[][];
+}
+
+/**
+ * The potential and the wavefunctions between the DVR's grid points, for the page's plot (the
+ * levels converge on far coarser grids than a smooth curve needs): V from the potential itself,
+ * ψ by the DVR's own sinc interpolation. Not part of the API answer.
+ */
+export function tunnellingPlot(
+	request: TunnellingRequest,
+	levels: NonNullable<TunnellingResult['levels']>,
+	samples = 241
+): TunnellingPlot | null {
+	const p = request.potential;
+	if (!p) return null;
+	const { v } = potentialFunction(
+		p.kind === 'double-well'
+			? quarticDoubleWell(p.barrierKcalMol, p.halfSeparationA, p.asymmetryKcalMol)
+			: p.points
+	);
+	const { xMinA, xMaxA } = levels.grid;
+	const xA = Array.from(
+		{ length: samples },
+		(_, i) => xMinA + ((xMaxA - xMinA) * i) / (samples - 1)
+	);
+	return {
+		xA,
+		potentialKcalMol: xA.map((x) => v(x)),
+		wavefunctions: levels.wavefunctions.map((psi) =>
+			xA.map((x) => interpolateWavefunction(levels.gridA, psi, x))
+		)
+	};
 }

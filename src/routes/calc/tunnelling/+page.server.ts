@@ -12,6 +12,7 @@ import type { FieldErrors } from '$lib/schemas/searchParams';
 import { convertEnergy, type EnergyUnit } from '$lib/science/units';
 import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
+import { tunnellingPlot } from '$lib/server/calc/tunnelling';
 import { TUNNELLING_CAUTION } from '$lib/server/calc/answers';
 import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad } from './$types';
@@ -148,10 +149,9 @@ export const actions: Actions = {
 			return fail(400, { values, errors: formErrors(fieldErrors(parsed.error), unit) });
 		}
 		try {
-			return {
-				values,
-				result: await calculate({ kind: 'tunnelling', request: parsed.data }, caller)
-			};
+			const result = await calculate({ kind: 'tunnelling', request: parsed.data }, caller);
+			const plot = result.levels ? tunnellingPlot(parsed.data, result.levels) : null;
+			return { values, result, plot };
 		} catch (e) {
 			return toFormFailure(e, event, values);
 		}
