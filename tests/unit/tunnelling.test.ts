@@ -550,6 +550,20 @@ describe('the grid is chosen from the potential', () => {
 		expect(r.grid.points).toBeLessThanOrEqual(200);
 		expect(r.grid.message).toMatch(/does not confine|cost bound/);
 	});
+	it('stops at the work budget and says so', () => {
+		const flat = Array.from({ length: 21 }, (_, i) => ({ xA: (2 * i) / 20, energyKcalMol: 0 }));
+		const r = adaptiveVibrationalLevels({
+			potential: flat,
+			massAmu: 1,
+			levels: 3,
+			maxPoints: MAX_POINTS,
+			workBudget: 0.5
+		});
+		expect(r.grid.points).toBeLessThan(MAX_POINTS);
+		expect(r.grid.message).toMatch(
+			/stopped at the cost bound \(0\.5 solutions' worth on 600 points\)/
+		);
+	});
 	it('refuses a function without a start interval, and one end without the other', () => {
 		expect(() => adaptiveVibrationalLevels({ potential: quartic(1, 0.3), massAmu: H })).toThrow(
 			/interval to start from/

@@ -443,6 +443,12 @@ export interface AdaptiveGridInput {
 	edgeTolerance?: number;
 	/** Relative change of the levels between successive grids that counts as converged. @default 1e-6 */
 	levelTolerance?: number;
+	/**
+	 * What choosing the grid may cost, in solutions on maxPoints points (600 points: ≈ 0.4 s
+	 * each on a 2-core machine), comparisons included; past it the choice stops and says so.
+	 * @default 4
+	 */
+	workBudget?: number;
 }
 
 export interface GridConvergence {
@@ -508,8 +514,6 @@ const sci = (v: number) => v.toExponential(1);
 
 /** The most points used while looking for the interval (about 40 ms a solution). */
 const COARSE_POINTS = 300;
-/** What choosing a grid may cost, in solutions on maxPoints points (600 points: ≈ 0.4 s each). */
-const WORK_BUDGET = 4;
 
 /**
  * Vibrational levels (as vibrationalLevels) on a grid chosen from the potential:
@@ -558,13 +562,15 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 		throw new RangeError(`points must be at least ${minPoints} for ${levels} levels`);
 	}
 	let solutions = 0;
-	// The cost of a solution grows as n³: the whole choice may cost what WORK_BUDGET solutions
-	// on maxPoints points cost, then it stops and says so.
-	const budget = WORK_BUDGET * maxPoints ** 3;
+	// The cost of a solution grows as n³: the whole choice may cost what workBudget solutions on
+	// maxPoints points cost, then it stops and says so. A step is taken only when the comparison
+	// that may follow it (1/1.25 of its points) fits too.
+	const workBudget = input.workBudget ?? 4;
+	const budget = workBudget * maxPoints ** 3;
 	let spent = 0;
 	let outOfBudget = false;
 	const affordable = (n: number) => {
-		if (spent + n ** 3 <= budget) return true;
+		if (spent + n ** 3 + (n / 1.25) ** 3 <= budget) return true;
 		outOfBudget = true;
 		return false;
 	};
@@ -580,6 +586,8 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 			levels
 		});
 	};
+	/** V within a sampled potential's span (rounding must not step outside it). */
+	const inside = (x: number) => v(Math.min(ceiling, Math.max(floor, x)));
 	const pointsAt = (dx: number) =>
 		Math.min(maxPoints, Math.max(minPoints, Math.round((hi! - lo!) / dx) - 1));
 	/**
@@ -597,7 +605,7 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 		let d = 0;
 		while (d < reach && integral < target) {
 			d = Math.min(reach, d + step);
-			integral += step * Math.sqrt(Math.max(v(x + direction * d) - top, 0) / kinetic);
+			integral += step * Math.sqrt(Math.max(inside(x + direction * d) - top, 0) / kinetic);
 		}
 		return Math.min(reach, Math.max(d, 0.02 * width));
 	};
@@ -611,11 +619,20 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 		const step = (hi! - lo!) / 1000;
 		let exponent = 0;
 		for (let d = 0; d < hi! - lo!; d += step) {
-			const excess = v(x + inward * d) - top;
+			const excess = inside(x + inward * d) - top;
 			if (excess <= 0) break;
 			exponent += step * Math.sqrt(excess / kinetic);
 		}
 		return Math.exp(-exponent);
+	};
+	/** A tail above the tolerance at an end where the WKB estimate has decayed: representation noise. */
+	const ringing = (result: VibrationalLevels) => {
+		const edges = edgeRatios(result);
+		const top = Math.max(...result.energiesKcalMol);
+		return (
+			(edges.left > edgeTolerance && wkbRatio(lo!, 1, top) <= edgeTolerance) ||
+			(edges.right > edgeTolerance && wkbRatio(hi!, -1, top) <= edgeTolerance)
+		);
 	};
 	/** Ends moved while still classically allowed for the top level: three times means unconfined. */
 	const open = { left: 0, right: 0 };
@@ -629,12 +646,12 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 		const right = Math.min(edges.right, wkbRatio(hi!, -1, top));
 		let moved = false;
 		if (left > edgeTolerance && lo! > floor && open.left < 3) {
-			lo = lo! - extension(lo!, -1, left, top);
+			lo = Math.max(floor, lo! - extension(lo!, -1, left, top));
 			open.left = v(lo) <= top ? open.left + 1 : 0;
 			moved = true;
 		}
 		if (right > edgeTolerance && hi! < ceiling && open.right < 3) {
-			hi = hi! + extension(hi!, 1, right, top);
+			hi = Math.min(ceiling, hi! + extension(hi!, 1, right, top));
 			open.right = v(hi) <= top ? open.right + 1 : 0;
 			moved = true;
 		}
@@ -693,8 +710,7 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 				refined = true;
 				// A tail above the tolerance where the WKB estimate has decayed is the grid's
 				// representation error, which more points reduce: refine on.
-				const edges = edgeRatios(result);
-				if (change < levelTolerance && Math.max(edges.left, edges.right) <= edgeTolerance) break;
+				if (change < levelTolerance && !ringing(result)) break;
 			}
 			if (!refined || comparison.gridA.length > Math.round(n / 1.2)) {
 				// At maxPoints (or the cost bound) before a full step of 1.25: compare with a grid
@@ -708,7 +724,7 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 		const [beforeLo, beforeHi] = [lo, hi];
 		if (!extend(result)) break;
 		const next = input.points ?? pointsAt(dx);
-		if (!affordable(next + Math.round(next / 1.25))) {
+		if (!affordable(next)) {
 			[lo, hi] = [beforeLo, beforeHi];
 			break;
 		}
@@ -742,7 +758,7 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 							: unconfined
 								? '; the potential does not confine the levels (the ends stay classically allowed as the interval grows)'
 								: outOfBudget
-									? `; stopped at the cost bound (${WORK_BUDGET} solutions' worth on ${maxPoints} points)`
+									? `; stopped at the cost bound (${workBudget} solutions' worth on ${maxPoints} points)`
 									: `; the interval cannot grow further within ${maxPoints} points`)
 		);
 	}
@@ -751,7 +767,9 @@ export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLev
 			`the levels still change by ${sci(change)} relative against ${comparison.gridA.length} points (wanted < ${sci(levelTolerance)})` +
 				(input.points !== undefined
 					? '; use more points'
-					: `; ${maxPoints} points is the most allowed`)
+					: outOfBudget
+						? `; stopped at the cost bound (${workBudget} solutions' worth on ${maxPoints} points)`
+						: `; ${maxPoints} points is the most allowed`)
 		);
 	}
 	const message = converged
@@ -963,6 +981,18 @@ export function assessDoubleWell(
 }
 
 /**
+ * Why the H transfer's regime allows no isotope effect from splittings, or null when it is
+ * vibrationally nonadiabatic (see isotopeEffectFromSplittings).
+ */
+export function isotopeEffectRefusal(h: DoubleWellAssessment): string | null {
+	return h.regime === 'nonadiabatic'
+		? null
+		: h.regime === 'adiabatic'
+			? 'no isotope effect from splittings: the H ground level lies above the barrier (vibrationally adiabatic transfer), where the rate is not set by the splitting'
+			: 'no isotope effect from splittings: the H splitting is over a tenth of the barrier (intermediate regime), where the rate is not proportional to its square';
+}
+
+/**
  * An H/D kinetic isotope effect estimate for transfer through a double well: the ratio of the
  * squared tunnelling splittings, (Δ_H/Δ_D)², as for a nonadiabatic rate proportional to the
  * squared vibronic coupling (about Δ/2) with similar Franck–Condon terms. Indicative only (an
@@ -975,13 +1005,8 @@ export function isotopeEffectFromSplittings(
 	h: DoubleWellAssessment,
 	d: DoubleWellAssessment
 ): { splittingHCm1: number; splittingDCm1: number; kie: number } {
-	if (h.regime !== 'nonadiabatic') {
-		throw new RangeError(
-			h.regime === 'adiabatic'
-				? 'no isotope effect from splittings: the H ground level lies above the barrier (vibrationally adiabatic transfer), where the rate is not set by the splitting'
-				: 'no isotope effect from splittings: the H splitting is over a tenth of the barrier (intermediate regime), where the rate is not proportional to its square'
-		);
-	}
+	const refusal = isotopeEffectRefusal(h);
+	if (refusal) throw new RangeError(refusal);
 	for (const [name, a] of [
 		['H', h],
 		['D', d]

@@ -8,6 +8,7 @@ import {
 	crossoverTemperatureK,
 	interpolateWavefunction,
 	isotopeEffectFromSplittings,
+	isotopeEffectRefusal,
 	potentialFunction,
 	wignerKappa,
 	type AdaptiveLevels,
@@ -123,17 +124,21 @@ export function runTunnelling(request: TunnellingRequest): TunnellingResult {
 			p.kind === 'double-well'
 				? { xMinA: -2 * p.halfSeparationA, xMaxA: 2 * p.halfSeparationA }
 				: {};
-		const solve = (massAmu: number, count: number): AdaptiveLevels =>
+		// The cost bound, in 600-point solutions: 4 for the levels asked for, 2 for each of the
+		// H and D pairs of the isotope effect (8 in all, ≈ 3 s on a 2-core machine; the
+		// calculation's time limit is CALC_TIME_LIMIT_MS).
+		const solve = (massAmu: number, count: number, workBudget: number): AdaptiveLevels =>
 			adaptiveVibrationalLevels({
 				potential: p.kind === 'double-well' ? v : p.points,
 				massAmu,
 				levels: count,
 				...(given ? { xMinA: request.xMinA, xMaxA: request.xMaxA, fixedRange: true } : start),
 				points: request.points,
-				maxPoints: MAX_GRID_POINTS
+				maxPoints: MAX_GRID_POINTS,
+				workBudget
 			});
 		const massAmu = request.massAmu ?? TRANSFER_MASSES_AMU[request.isotope];
-		const solved = solve(massAmu, request.levels);
+		const solved = solve(massAmu, request.levels, 4);
 		const { comparison: _comparison, ...shown } = solved;
 		levels = shown;
 		if (!solved.grid.converged) notes.push(`The levels are not converged. ${solved.grid.message}`);
@@ -149,10 +154,14 @@ export function runTunnelling(request: TunnellingRequest): TunnellingResult {
 		if (doubleWell) {
 			const reuse = (isotope: 'H' | 'D') =>
 				request.massAmu === undefined && request.isotope === isotope;
-			const h = reuse('H') ? solved : solve(TRANSFER_MASSES_AMU.H, 2);
-			const d = reuse('D') ? solved : solve(TRANSFER_MASSES_AMU.D, 2);
+			const h = reuse('H') ? solved : solve(TRANSFER_MASSES_AMU.H, 2, 2);
 			try {
-				const kie = isotopeEffectFromSplittings(assess(h), assess(d));
+				const hAssessment = assess(h);
+				// Outside the nonadiabatic regime there is no isotope effect to give: no D levels.
+				const refusal = isotopeEffectRefusal(hAssessment);
+				if (refusal) throw new RangeError(refusal);
+				const d = reuse('D') ? solved : solve(TRANSFER_MASSES_AMU.D, 2, 2);
+				const kie = isotopeEffectFromSplittings(hAssessment, assess(d));
 				isotopeEffect = {
 					splittingHCm1: kie.splittingHCm1,
 					splittingDCm1: kie.splittingDCm1,
@@ -207,7 +216,8 @@ export function tunnellingPlot(
 	);
 	return {
 		xA,
-		potentialKcalMol: xA.map((x) => v(x)),
+		// Clamped: rounding must not step outside a sampled potential's span.
+		potentialKcalMol: xA.map((x) => v(Math.min(xMaxA, Math.max(xMinA, x)))),
 		wavefunctions: levels.wavefunctions.map((psi) =>
 			xA.map((x) => interpolateWavefunction(levels.gridA, psi, x))
 		)
