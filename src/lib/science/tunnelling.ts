@@ -517,21 +517,27 @@ const COARSE_POINTS = 300;
 
 /**
  * Vibrational levels (as vibrationalLevels) on a grid chosen from the potential:
- * 1. the interval is extended, at each end where a returned level's wavefunction has not
- *    decayed to edgeTolerance (1e-8) of its peak, by the distance its WKB decay
- *    exp(−∫√(2m(V − E))/ħ dx) needs, on a grid whose spacing π/k_cut resolves momenta up to the
- *    top level's classical ħk = √(2m(E − V_min)) plus three widths of the ground level's;
+ * 1. the interval is extended at each end where a returned level's wavefunction has not decayed
+ *    to edgeTolerance (1e-8) of its peak — measured on the grid, and by its WKB estimate
+ *    exp(−∫√(2m(V − E))/ħ dx) from the outermost turning point, since on a coarse grid the far
+ *    tail is the representation's noise — by the distance that WKB decay needs, on a grid whose
+ *    spacing π/k_cut resolves momenta up to the top level's classical ħk = √(2m(E − V_min))
+ *    plus three widths of the ground level's; an end that stays classically allowed three times
+ *    running is not extended further (the potential does not confine the levels);
  * 2. the points are then multiplied by 1.25 until no level (measured from the potential's
- *    minimum) changes by more than levelTolerance (1e-6) relative, within maxPoints;
+ *    minimum) changes by more than levelTolerance (1e-6) relative, and any tail above the
+ *    tolerance that WKB says has decayed (noise) is gone, within maxPoints and workBudget;
  * 3. the ends are checked again on the final grid (and extended, with step 2 repeated, if needed).
  * A given interval (fixedRange) or number of points is kept, and then only checked: the result
  * always says what was reached (`grid`), compared with a solution on 1/1.25 of the points.
  * A sampled potential cannot be extended beyond its samples.
  * The sinc (Colbert–Miller) DVR converges exponentially with the grid density once the grid
- * resolves the highest momenta, so the comparison overstates the final solution's error.
+ * resolves the highest momenta, so the comparison overstates the final solution's error; where
+ * a wavefunction meets a wall (a sampled potential's end) it converges only algebraically.
  * References: Colbert & Miller (1992) for the DVR; the WKB decay: L. D. Landau & E. M. Lifshitz,
  * *Quantum Mechanics* (3rd ed., 1977), §46.
- * @throws {RangeError} as vibrationalLevels, and for a function potential without a start interval.
+ * @throws {RangeError} as vibrationalLevels, for a function potential without a start interval,
+ * or for one end of the interval without the other.
  */
 export function adaptiveVibrationalLevels(input: AdaptiveGridInput): AdaptiveLevels {
 	const levels = input.levels ?? 6;
