@@ -5,6 +5,8 @@ import {
 	fitNernst,
 	monteCarloChain,
 	nernstFractionReduced,
+	adaptiveVibrationalLevels,
+	bellKappaLog10,
 	seededRandom,
 	vibrationalLevels,
 	type ChainInput
@@ -148,6 +150,24 @@ export function benchScience(): void {
 			points: 400,
 			levels: 6
 		})
+	);
+	// The calculator's grid chosen from the potential (its default well, and 20 levels), and
+	// Bell's truncated factor far below the crossover temperature (10^408).
+	const well = (x: number) => 6 * ((x / 0.35) ** 2 - 1) ** 2;
+	for (const levels of [6, 20]) {
+		time(`adaptiveVibrationalLevels, ${levels} levels`, '≤ 300 ms', 5, () =>
+			adaptiveVibrationalLevels({
+				potential: well,
+				massAmu: 1.00782503,
+				levels,
+				xMinA: -0.7,
+				xMaxA: 0.7,
+				maxPoints: MAX_GRID_POINTS
+			})
+		);
+	}
+	time('bellKappaLog10, 50 K, 500 kJ/mol, 1000 cm⁻¹', '≤ 5 ms', 20, () =>
+		bellKappaLog10(1000, 50, 500)
 	);
 	benchEigenSolvers();
 }

@@ -120,6 +120,44 @@ describe('calculator API over HTTP', () => {
 		expect(body.levels.energiesKcalMol).toHaveLength(4);
 		expect(body.isotopeEffect.kie).toBeGreaterThan(1);
 	});
+	// Regression: κ ≈ 1e408 overflowed to Infinity and the answer was a 500.
+	it('tunnelling far below the crossover temperature answers log₁₀ κ, never a 500', async () => {
+		const res = await post('/api/v1/calc/tunnelling', {
+			imagFreqCm1: 1000,
+			temperatureK: 50,
+			barrierKJmol: 500
+		});
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.kappa.bellTruncated).toBeNull();
+		// 408.3902328452719 by mpmath 1.3.0 at 50 digits (tests/unit/tunnelling.test.ts).
+		expect(body.kappa.bellTruncatedLog10).toBeCloseTo(408.39023, 4);
+		expect(body.kappa.notes.join(' ')).toMatch(/exceeds double precision/);
+	});
+	it('tunnelling reports the grid it chose, or keeps the one given', async () => {
+		const well = { kind: 'double-well', barrierKcalMol: 0.01, halfSeparationA: 0.05 };
+		const chosen = await (
+			await post('/api/v1/calc/tunnelling', { potential: well, levels: 2 })
+		).json();
+		// E₀ = 1.5527 kcal/mol (oscillator-basis reference, tests/unit/tunnelling.test.ts); 7.57 before.
+		expect(chosen.levels.energiesKcalMol[0]).toBeCloseTo(1.55273, 4);
+		expect(chosen.levels.grid).toMatchObject({ converged: true, range: 'automatic' });
+		const given = await (
+			await post('/api/v1/calc/tunnelling', {
+				potential: well,
+				levels: 2,
+				xMinA: -0.125,
+				xMaxA: 0.125,
+				points: 400
+			})
+		).json();
+		expect(given.levels.grid).toMatchObject({ range: 'given', points: 400, converged: false });
+		expect(given.levels.energiesKcalMol[0]).toBeCloseTo(7.5708, 3);
+		expect(given.notes.join(' ')).toMatch(/not converged/);
+		const oneEnd = await post('/api/v1/calc/tunnelling', { potential: well, xMinA: -1 });
+		expect(oneEnd.status).toBe(400);
+		expect(((await oneEnd.json()) as ApiErrorBody).error.fields?.xMaxA?.[0]).toMatch(/both ends/);
+	});
 	it('tunnelling needs a frequency or a potential', async () => {
 		const res = await post('/api/v1/calc/tunnelling', { temperatureK: 300 });
 		expect(res.status).toBe(400);

@@ -86,6 +86,101 @@ describe('calculators in Chromium', () => {
 		await page.getByTestId('level-results').waitFor();
 		expect(await page.getByTestId('kappa-results').textContent()).toContain('κ Wigner');
 		expect(await page.getByTestId('double-well').textContent()).toMatch(/splitting/);
+		expect(await page.getByTestId('grid-report').textContent()).toMatch(/decayed .* both ends/);
+		// (Δ_H/Δ_D)² = 87.7, an order of magnitude: one significant figure.
+		expect(await page.getByTestId('isotope-effect').textContent()).toContain('≈ 9 × 10¹');
 		await page.screenshot({ path: 'test-results/tunnelling.png', fullPage: true });
+	});
+	it('tunnelling: every field has a label', async () => {
+		await page.goto('/calc/tunnelling');
+		const unlabelled = await page
+			.locator('form[aria-label="Tunnelling inputs"]')
+			.evaluate((form) =>
+				[...form.querySelectorAll('input, select, textarea')]
+					.filter(
+						(el) =>
+							!(el as HTMLInputElement).labels?.length &&
+							!el.getAttribute('aria-label') &&
+							!el.getAttribute('aria-labelledby')
+					)
+					.map((el) => el.getAttribute('name'))
+			);
+		expect(unlabelled).toEqual([]);
+		expect(await page.getByLabel(/^Points: x \(Å\), V/).evaluate((el) => el.tagName)).toBe(
+			'TEXTAREA'
+		);
+	});
+	const tunnellingValues = {
+		imagFreqCm1: '900',
+		barrier: '12',
+		temperatureK: '250',
+		wellBarrier: '20',
+		halfSeparationA: '0.4',
+		asymmetry: '1',
+		levels: '3'
+	};
+	const fillTunnelling = async (p: Page) => {
+		await p.goto('/calc/tunnelling');
+		await p.locator('select[name=energyUnit]').selectOption('kJ/mol');
+		for (const [name, value] of Object.entries(tunnellingValues))
+			await p.locator(`[name=${name}]`).fill(value);
+		await p.locator('select[name=isotope]').selectOption('D');
+	};
+	const expectTunnellingKept = async (p: Page) => {
+		for (const [name, value] of Object.entries(tunnellingValues))
+			expect(await p.locator(`[name=${name}]`).inputValue(), name).toBe(value);
+		expect(await p.locator('select[name=isotope]').inputValue()).toBe('D');
+		expect(await p.locator('select[name=energyUnit]').inputValue()).toBe('kJ/mol');
+		// Results in the unit chosen, and nowhere another energy unit.
+		const results = (await p.locator('section[aria-live]').textContent()) ?? '';
+		expect(results).toContain('kJ/mol');
+		expect(results).not.toMatch(/kcal\/mol/);
+	};
+	it('tunnelling: a run keeps every value entered (with JavaScript)', async () => {
+		await fillTunnelling(page);
+		await page.getByRole('button', { name: 'Calculate' }).click();
+		await page.getByTestId('level-results').waitFor();
+		await expectTunnellingKept(page);
+	});
+	it('tunnelling: a run keeps every value entered (without JavaScript)', async () => {
+		const context = await browser.newContext({ baseURL: base, javaScriptEnabled: false });
+		try {
+			const p = await context.newPage();
+			await fillTunnelling(p);
+			await p.getByRole('button', { name: 'Calculate' }).click();
+			await p.getByTestId('level-results').waitFor();
+			await expectTunnellingKept(p);
+		} finally {
+			await context.close();
+		}
+	});
+	it('tunnelling: the unit switch converts the energies typed and the results shown', async () => {
+		await page.goto('/calc/tunnelling');
+		await page.getByRole('button', { name: 'Calculate' }).click();
+		await page.getByTestId('level-results').waitFor();
+		const kcal = await page.getByTestId('double-well').textContent();
+		expect(kcal).toContain('Barrier 6\u00a0kcal/mol');
+		await page.locator('select[name=energyUnit]').selectOption('kJ/mol');
+		expect(await page.locator('[name=wellBarrier]').inputValue()).toBe('25.104'); // 6 × 4.184
+		expect(await page.getByTestId('double-well').textContent()).toContain(
+			'Barrier 25.1\u00a0kJ/mol'
+		);
+		expect(await page.getByLabel(/^Barrier of the untilted well/).count()).toBe(1);
+		expect(await page.getByText('Barrier of the untilted well (kJ/mol)').count()).toBe(1);
+	});
+	it('tunnelling: a tilt is explained beside the barrier, and no isotope effect when adiabatic', async () => {
+		await page.goto('/calc/tunnelling');
+		await page.locator('[name=asymmetry]').fill('0.2');
+		await page.getByRole('button', { name: 'Calculate' }).click();
+		await page.getByTestId('barrier-note').waitFor();
+		expect(await page.getByTestId('barrier-note').textContent()).toMatch(/untilted well/);
+		await page.locator('[name=wellBarrier]').fill('0.1');
+		await page.locator('[name=asymmetry]').fill('0');
+		await page.getByRole('button', { name: 'Calculate' }).click();
+		await page
+			.getByText(/vibrationally adiabatic/)
+			.first()
+			.waitFor();
+		expect(await page.getByTestId('isotope-effect').count()).toBe(0);
 	});
 });

@@ -54,10 +54,12 @@ const finite = (min: number, max: number, unit = '') =>
  * calculation worker for long (the workers also have a time limit: CALC_TIME_LIMIT_MS).
  * - Titration points: a redox titration has tens of points and a continuously logged one a few
  *   hundred; 1 000 covers both (a two-component fit of 1 000 noisy points takes about 0.5 s).
- * - DVR grid points: the Colbert–Miller DVR converges the lowest levels of the wells these inputs
- *   allow to better than 0.1 cm⁻¹ with 150–300 points (checked against 1 000 points); 600 leaves
- *   room for wide or heavy cases. The cost grows with the cube (600 points: about 1 s for the
- *   levels and the H/D isotope effect together on a 2-core machine; 800 took 2.6 s).
+ * - DVR grid points: the grid is chosen from the potential (interval extended until every
+ *   returned level has decayed to 1e-8 of its peak at both ends, points refined until the levels
+ *   change by less than 1e-6 relative; science/tunnelling.ts, adaptiveVibrationalLevels). The
+ *   wells these inputs allow converge with 40–250 points; 600 is the bound for wide, heavy or
+ *   given grids, and a choice that cannot converge within it says so. The cost grows with the
+ *   cube (600 points: about 0.4 s a solution on a 2-core machine; 800 took 2.6 s for three).
  * - Sampled potential rows: a scan along a proton coordinate has tens of points; 500 is ample.
  */
 export const MAX_TITRATION_POINTS = 1000;
@@ -90,21 +92,46 @@ export const titrationRequestSchema = z.strictObject({
 });
 export type TitrationRequest = z.infer<typeof titrationRequestSchema>;
 
+/**
+ * Bounds of the tunnelling calculator's energies, in the units of the API's fields (the page
+ * converts them into the unit it shows).
+ */
+export const DOUBLE_WELL_BOUNDS = {
+	barrierKcalMol: [0.001, 100],
+	asymmetryKcalMol: [-50, 50]
+} as const;
+export const BARRIER_KJMOL_BOUNDS = [0.01, 500] as const;
+export const SAMPLED_ENERGY_KCALMOL_BOUNDS = [-1000, 1000] as const;
+
 export const doubleWellSchema = z.strictObject({
 	kind: z.literal('double-well'),
-	/** Barrier height above the lower minimum of a symmetric well, kcal/mol. */
-	barrierKcalMol: finite(0, 100, ' kcal/mol'),
+	/**
+	 * Barrier height of the untilted well above its minima, kcal/mol. Not 0: without a barrier
+	 * the quartic is flat and confines nothing.
+	 */
+	barrierKcalMol: finite(
+		DOUBLE_WELL_BOUNDS.barrierKcalMol[0],
+		DOUBLE_WELL_BOUNDS.barrierKcalMol[1],
+		' kcal/mol'
+	),
 	/** Distance from the barrier top to each minimum, Å. */
 	halfSeparationA: finite(0.05, 2, ' Å'),
 	/** Energy of the right minimum above the left, kcal/mol (a linear tilt). */
-	asymmetryKcalMol: finite(-50, 50, ' kcal/mol').default(0)
+	asymmetryKcalMol: finite(
+		DOUBLE_WELL_BOUNDS.asymmetryKcalMol[0],
+		DOUBLE_WELL_BOUNDS.asymmetryKcalMol[1],
+		' kcal/mol'
+	).default(0)
 });
 
 export const sampledPotentialSchema = z.strictObject({
 	kind: z.literal('points'),
 	points: z
 		.array(
-			z.strictObject({ xA: finite(-20, 20, ' Å'), energyKcalMol: finite(-1000, 1000, ' kcal/mol') })
+			z.strictObject({
+				xA: finite(-20, 20, ' Å'),
+				energyKcalMol: finite(...SAMPLED_ENERGY_KCALMOL_BOUNDS, ' kcal/mol')
+			})
 		)
 		.min(4, 'at least 4 points are needed')
 		.max(
@@ -122,18 +149,19 @@ export const tunnellingRequestSchema = z
 	.strictObject({
 		temperatureK: finite(1, 2000, ' K').default(298.15),
 		imagFreqCm1: finite(1, 5000, ' cm⁻¹').optional(),
-		barrierKJmol: finite(0.01, 500, ' kJ/mol').optional(),
+		barrierKJmol: finite(...BARRIER_KJMOL_BOUNDS, ' kJ/mol').optional(),
 		potential: z.discriminatedUnion('kind', [doubleWellSchema, sampledPotentialSchema]).optional(),
 		isotope: z.enum(ISOTOPES).default('H'),
 		massAmu: finite(0.5, 300, ' u').optional(),
 		xMinA: finite(-20, 20, ' Å').optional(),
 		xMaxA: finite(-20, 20, ' Å').optional(),
+		/** Grid points; without them, refined until the levels converge. */
 		points: z
 			.number({ error: gridMessage })
 			.int(gridMessage)
 			.min(MIN_GRID_POINTS, gridMessage)
 			.max(MAX_GRID_POINTS, gridMessage)
-			.default(400),
+			.optional(),
 		levels: z
 			.number({ error: levelsMessage })
 			.int(levelsMessage)
@@ -144,6 +172,11 @@ export const tunnellingRequestSchema = z
 	.refine((r) => r.imagFreqCm1 !== undefined || r.potential !== undefined, {
 		path: ['imagFreqCm1'],
 		message: 'give an imaginary frequency, a potential, or both'
+	})
+	.refine((r) => (r.xMinA === undefined) === (r.xMaxA === undefined), {
+		path: ['xMaxA'],
+		message:
+			'give both ends of the grid (xMinA and xMaxA), or neither for a grid chosen from the potential'
 	})
 	.refine((r) => r.xMinA === undefined || r.xMaxA === undefined || r.xMaxA > r.xMinA, {
 		path: ['xMaxA'],

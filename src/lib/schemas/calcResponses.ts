@@ -146,15 +146,55 @@ export type TitrationResponse = z.infer<typeof titrationResponseSchema>;
 
 const notes = z.array(z.string());
 
+const gridConvergenceSchema = z
+	.strictObject({
+		xMinA: z.number(),
+		xMaxA: z.number(),
+		points: z.number().int(),
+		spacingA: z.number(),
+		range: z
+			.enum(['automatic', 'given'])
+			.describe('automatic: extended until the wavefunctions decay; given: xMinA/xMaxA as sent.'),
+		resolution: z
+			.enum(['automatic', 'given'])
+			.describe('automatic: points refined until the levels converge; given: points as sent.'),
+		edgeAmplitude: z
+			.number()
+			.describe('Largest |ψ| at the outermost grid points relative to its peak (wanted ≤ 1e-8).'),
+		decayed: z.boolean(),
+		levelChange: z
+			.number()
+			.describe(
+				'Largest change of a level, relative to its height above the potential minimum, against comparedWithPoints points (wanted < 1e-6).'
+			),
+		comparedWithPoints: z.number().int(),
+		converged: z.boolean(),
+		solutions: z.number().int().describe('DVR solutions computed to choose the grid.'),
+		message: z.string()
+	})
+	.describe('The grid used and the convergence it reached.');
+
 export const tunnellingResponseSchema = z.strictObject({
 	kappa: z
 		.strictObject({
-			wigner: z.number(),
-			bell: z.number().nullable(),
+			u: z.number().describe('u = hν‡/k_BT.'),
+			crossoverTemperatureK: z
+				.number()
+				.describe(
+					'T_c = hν‡/(2πk_B), K: below it (u > 2π) tunnelling far below the top dominates.'
+				),
+			wigner: z.number().describe('Wigner: within 2 % of the parabolic-barrier factor for u ≤ 2.'),
+			bell: z.number().nullable().describe('Bell, infinite parabola; null for u ≥ 2π (diverges).'),
 			bellTruncated: z
 				.number()
 				.nullable()
-				.describe('Bell’s factor truncated at the barrier height; null without barrierKJmol.'),
+				.describe(
+					'Bell’s factor truncated at the barrier height; null without barrierKJmol, or when it exceeds double precision (see bellTruncatedLog10).'
+				),
+			bellTruncatedLog10: z
+				.number()
+				.nullable()
+				.describe('log₁₀ of Bell’s truncated factor, always finite; null without barrierKJmol.'),
 			notes
 		})
 		.nullable()
@@ -168,23 +208,59 @@ export const tunnellingResponseSchema = z.strictObject({
 			wavefunctions: z
 				.array(z.array(z.number()))
 				.describe('wavefunctions[i][j] at gridA[j], normalised so that Σ ψ² Δx = 1 (Å⁻¹ᐟ²).'),
-			massAmu: z.number()
+			massAmu: z.number(),
+			grid: gridConvergenceSchema
 		})
 		.nullable()
 		.describe('Vibrational levels of the potential; null without one.'),
 	doubleWell: z
 		.strictObject({
-			barrierKcalMol: z.number(),
+			minimaA: z.tuple([z.number(), z.number()]),
+			topA: z.number(),
+			barrierKcalMol: z.number().describe('Barrier top above the lower minimum.'),
+			barrierNote: z
+				.string()
+				.nullable()
+				.describe('Why the barrier differs from the one entered (a tilt); null when it does not.'),
+			asymmetryKcalMol: z.number().describe('Right minimum minus left minimum.'),
+			levelGapKcalMol: z
+				.number()
+				.describe('E₁ − E₀: the tunnelling splitting only in a symmetric well.'),
+			splittingKcalMol: z
+				.number()
+				.describe(
+					'Tunnelling splitting Δ = √((E₁ − E₀)² − ε²): the symmetric part, from a two-state model.'
+				),
 			splittingCm1: z.number(),
-			splittingKcalMol: z.number(),
+			localisedDifferenceKcalMol: z
+				.number()
+				.describe('ε: localised right level minus localised left level.'),
+			splittingResolved: z
+				.boolean()
+				.describe('False when Δ is below the calculation’s noise or unstable on the grid.'),
+			splittingChange: z
+				.number()
+				.nullable()
+				.describe('Relative change of Δ against the coarser grid.'),
 			zeroPointKcalMol: z.number(),
 			groundAboveBarrier: z.boolean(),
+			regime: z.enum(['adiabatic', 'intermediate', 'nonadiabatic']),
 			assessment: z.string()
 		})
 		.nullable(),
 	isotopeEffect: z
-		.strictObject({ splittingHCm1: z.number(), splittingDCm1: z.number(), kie: z.number() })
-		.nullable(),
+		.strictObject({
+			splittingHCm1: z.number(),
+			splittingDCm1: z.number(),
+			kie: z
+				.number()
+				.describe('(Δ_H/Δ_D)², rounded to one significant figure: an order of magnitude.'),
+			grids: z.strictObject({ H: gridConvergenceSchema, D: gridConvergenceSchema })
+		})
+		.nullable()
+		.describe(
+			'Shown only for vibrationally nonadiabatic transfer (H ground level below the barrier, splitting under a tenth of it) with both splittings resolved; otherwise null and `notes` says why.'
+		),
 	notes,
 	units: z.record(z.string(), z.string()),
 	caution

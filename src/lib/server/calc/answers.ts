@@ -42,11 +42,21 @@ export function titrationAnswer(result: TitrationResult): TitrationResponse {
 	return { ...result, units: TITRATION_UNITS, caution: TITRATION_CAUTION };
 }
 
+/** What the tunnelling answer's numbers leave out, said beside them on the page and in the API. */
+export const TUNNELLING_CAUTION =
+	'These numbers come from one-dimensional models. κ models only the barrier top as a parabola: Wigner’s term is within 2 % of it for u ≤ 2, Bell’s infinite parabola holds for u < 2π, and below the crossover temperature the truncated form is an order of magnitude at best. The levels are those of a fixed potential, converged numerically as the grid report says; the error of the model itself (coupling to other coordinates) is not estimated here. The isotope effect, (Δ_H/Δ_D)², is an order of magnitude, and only for vibrationally nonadiabatic transfer.';
+
 export function tunnellingAnswer(result: TunnellingResult): TunnellingResponse {
 	return {
 		...result,
-		units: { energies: 'kcal/mol and cm⁻¹', grid: 'Å', wavefunctions: 'Å^-1/2', massAmu: 'u' },
-		caution:
-			'One-dimensional model estimates: the parabolic-barrier factors and fixed-potential levels ignore coupling to other coordinates; treat isotope effects as indicative.'
+		units: {
+			energies: 'kcal/mol (fields named …KcalMol) and cm⁻¹ (…Cm1)',
+			barrierKJmol: 'kJ/mol',
+			grid: 'Å',
+			wavefunctions: 'Å^-1/2',
+			massAmu: 'u',
+			temperature: 'K'
+		},
+		caution: TUNNELLING_CAUTION
 	};
 }

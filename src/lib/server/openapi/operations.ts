@@ -495,13 +495,13 @@ export const OPERATIONS: readonly ApiOperation[] = [
 		tag: 'Calculators',
 		summary: 'Proton and hydride tunnelling',
 		description:
-			'Wigner and Bell tunnelling factors from an imaginary frequency, and/or the vibrational levels of a double well or a sampled potential (discrete variable representation) with the adiabaticity test and the H/D isotope effect. Runs in a worker thread, with the same limits as the titration fit.',
+			'Wigner and Bell tunnelling factors from an imaginary frequency, and/or the vibrational levels of a double well or a sampled potential (discrete variable representation) with the adiabaticity test and the H/D isotope effect. Bell’s truncated factor is computed in log space: when it exceeds double precision (far below the crossover temperature) `bellTruncated` is null and `bellTruncatedLog10` carries it. The grid is chosen from the potential unless given: the interval grows until every returned level’s wavefunction has decayed to 1e-8 of its peak at both ends, and the points are refined until the levels change by less than 1e-6 relative (at most 600 points); `levels.grid` says what was reached. In a tilted well the splitting is the symmetric part (two-state model); the isotope effect is given only for vibrationally nonadiabatic transfer, rounded to one significant figure. Runs in a worker thread, with the same limits as the titration fit.',
 		access: 'anyone',
 		body: {
 			mediaType: 'application/json',
 			schema: tunnellingRequestSchema,
 			description:
-				'At least an imaginary frequency (imagFreqCm1) or a potential; a potential is a symmetric double well with a tilt, or sampled points.',
+				'At least an imaginary frequency (imagFreqCm1) or a potential; a potential is a symmetric double well with a tilt, or sampled points. Energies in the units their names carry (kJ/mol, kcal/mol). xMinA and xMaxA (both or neither) fix the grid’s interval, points its number of points; without them both are chosen from the potential.',
 			example: TUNNELLING_EXAMPLE
 		},
 		success: {

@@ -1,0 +1,134 @@
+import { readDecimal } from '$lib/schemas/decimal';
+import { ENERGY_UNIT_LABELS, convertEnergy, type EnergyUnit } from '$lib/science/units';
+
+/*
+ * The tunnelling form's fields, shared by the page and its action: names, defaults, the energy
+ * unit every energy on the page is read and shown in, and number formatting in that unit.
+ */
+
+/** The units the page offers; every energy entered and shown is in the one chosen. */
+export const PAGE_ENERGY_UNITS = ['kcal/mol', 'kJ/mol', 'cm-1'] as const satisfies EnergyUnit[];
+export type PageEnergyUnit = (typeof PAGE_ENERGY_UNITS)[number];
+
+export const isPageEnergyUnit = (u: string): u is PageEnergyUnit =>
+	(PAGE_ENERGY_UNITS as readonly string[]).includes(u);
+
+export const FIELD_NAMES = [
+	'energyUnit',
+	'temperatureK',
+	'imagFreqCm1',
+	'barrier',
+	'potentialKind',
+	'wellBarrier',
+	'halfSeparationA',
+	'asymmetry',
+	'pointsText',
+	'isotope',
+	'levels',
+	'xMinA',
+	'xMaxA',
+	'points'
+] as const;
+export type FieldName = (typeof FIELD_NAMES)[number];
+export type FormValues = Record<FieldName, string>;
+
+export const DEFAULTS: FormValues = {
+	energyUnit: 'kcal/mol',
+	temperatureK: '298.15',
+	imagFreqCm1: '1200',
+	barrier: '',
+	potentialKind: 'double-well',
+	wellBarrier: '6',
+	halfSeparationA: '0.35',
+	asymmetry: '0',
+	pointsText: '',
+	isotope: 'H',
+	levels: '6',
+	xMinA: '',
+	xMaxA: '',
+	points: ''
+};
+
+/** The fields that hold an energy in the page's unit (the pasted points' second column too). */
+export const ENERGY_FIELDS = ['barrier', 'wellBarrier', 'asymmetry'] as const;
+
+export const unitLabel = (unit: PageEnergyUnit) => ENERGY_UNIT_LABELS[unit];
+
+const SUPERSCRIPT: Record<string, string> = {
+	'-': '⁻',
+	'0': '⁰',
+	'1': '¹',
+	'2': '²',
+	'3': '³',
+	'4': '⁴',
+	'5': '⁵',
+	'6': '⁶',
+	'7': '⁷',
+	'8': '⁸',
+	'9': '⁹'
+};
+
+/** "1.23 × 10⁻⁵" for very small or large numbers, plain digits otherwise; a true minus sign. */
+export function formatNumber(value: number, significant = 4): string {
+	const abs = Math.abs(value);
+	if (value !== 0 && (abs < 1e-3 || abs >= 1e6)) {
+		const [mantissa, exponent] = value.toExponential(significant - 1).split('e') as [
+			string,
+			string
+		];
+		const power = String(Number(exponent)).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
+		return `${Number(mantissa)} × 10${power}`.replace('-', '−');
+	}
+	return String(Number(value.toPrecision(significant))).replace('-', '−');
+}
+
+/** A value rounded to one significant figure, as an order of magnitude: "≈ 8 × 10³", "≈ 3". */
+export function formatOrderOfMagnitude(value: number): string {
+	const rounded = Number(value.toPrecision(1));
+	if (Math.abs(rounded) < 10) return `≈ ${formatNumber(rounded, 1)}`;
+	const exponent = Math.floor(Math.log10(Math.abs(rounded)));
+	const power = String(exponent).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
+	return `≈ ${Math.round(rounded / 10 ** exponent)} × 10${power}`;
+}
+
+/** An energy computed in kcal/mol, in the page's unit, with the unit. */
+export function formatEnergy(kcalMol: number, unit: PageEnergyUnit, significant = 4): string {
+	return `${formatNumber(convertEnergy(kcalMol, 'kcal/mol', unit), significant)}\u00a0${unitLabel(unit)}`;
+}
+
+/** A typed number as it should reappear in a field after a unit change (six significant figures). */
+function retype(value: number): string {
+	return String(Number(value.toPrecision(6)));
+}
+
+/**
+ * The form's values with every energy converted from one unit to another (the unit switch):
+ * the energy fields and the second column of the pasted points. Text that is not a number is
+ * left as typed, for the action to report.
+ */
+export function convertFormEnergies(
+	values: FormValues,
+	from: PageEnergyUnit,
+	to: PageEnergyUnit
+): FormValues {
+	if (from === to) return values;
+	const next = { ...values, energyUnit: to };
+	for (const name of ENERGY_FIELDS) {
+		const x = readDecimal(values[name]);
+		if (x !== null) next[name] = retype(convertEnergy(x, from, to));
+	}
+	next.pointsText = values.pointsText
+		.split('\n')
+		.map((line) => {
+			// The separators the points reader accepts; with semicolons, a decimal comma.
+			const separator = [';', '\t', ','].find((c) => line.includes(c));
+			const cells = separator ? line.split(separator) : [];
+			const v =
+				cells.length === 2 ? readDecimal(cells[1]!, { decimalComma: separator === ';' }) : null;
+			if (v === null) return line;
+			const space = /^\s*/.exec(cells[1]!)![0];
+			return `${cells[0]}${separator}${space}${retype(convertEnergy(v, from, to))}`;
+		})
+		.join('\n');
+	return next;
+}

@@ -1,0 +1,54 @@
+import { describe, expect, it } from 'vitest';
+import {
+	DEFAULTS,
+	convertFormEnergies,
+	formatEnergy,
+	formatNumber,
+	formatOrderOfMagnitude
+} from '../../src/routes/calc/tunnelling/fields';
+
+// The tunnelling page's unit switch and number formatting (src/routes/calc/tunnelling/fields.ts).
+describe('the tunnelling form’s unit switch', () => {
+	// 1 kcal/mol = 4.184 kJ/mol exactly (thermochemical calorie).
+	it('converts every energy field and the pasted points’ V column, nothing else', () => {
+		const values = {
+			...DEFAULTS,
+			barrier: '10',
+			wellBarrier: '6',
+			asymmetry: '−0,5',
+			halfSeparationA: '0.35',
+			temperatureK: '300',
+			pointsText: 'x,V\n-0.5, 2\n0;1,5\n0.5\tabc'
+		};
+		const next = convertFormEnergies(values, 'kcal/mol', 'kJ/mol');
+		expect(next).toMatchObject({
+			energyUnit: 'kJ/mol',
+			barrier: '41.84',
+			wellBarrier: '25.104',
+			asymmetry: '-2.092',
+			halfSeparationA: '0.35',
+			temperatureK: '300'
+		});
+		expect(next.pointsText).toBe('x,V\n-0.5, 8.368\n0;6.276\n0.5\tabc');
+		expect(convertFormEnergies(next, 'kJ/mol', 'kcal/mol').wellBarrier).toBe('6');
+	});
+	it('leaves what is not a number as typed, for the action to report', () => {
+		expect(convertFormEnergies({ ...DEFAULTS, barrier: '0x10' }, 'kcal/mol', 'cm-1').barrier).toBe(
+			'0x10'
+		);
+	});
+});
+
+describe('numbers on the tunnelling page', () => {
+	it('an order of magnitude has one significant figure', () => {
+		expect(formatOrderOfMagnitude(8228.4)).toBe('≈ 8 × 10³');
+		expect(formatOrderOfMagnitude(87.7)).toBe('≈ 9 × 10¹');
+		expect(formatOrderOfMagnitude(1.64)).toBe('≈ 2');
+	});
+	it('small and large numbers in powers of ten, with a true minus sign', () => {
+		expect(formatNumber(1.2345e-5, 3)).toBe('1.23 × 10⁻⁵');
+		expect(formatNumber(-0.5)).toBe('−0.5');
+		expect(formatEnergy(1, 'kJ/mol')).toBe('4.184\u00a0kJ/mol');
+		expect(formatEnergy(1, 'cm-1', 6)).toBe('349.755\u00a0cm⁻¹');
+	});
+});
