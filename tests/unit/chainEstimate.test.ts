@@ -128,12 +128,18 @@ describe('one-electron couples', () => {
 		expect(p.input!.used[FMN.accession]).toMatchObject({
 			role: 'entry',
 			couple: 'ox/hq',
-			approximation: `${TWO_ELECTRON_NOTE} (ox/hq; the one-electron sq/hq couple is not recorded)`
+			approximation: {
+				mark: TWO_ELECTRON_NOTE,
+				detail: `${TWO_ELECTRON_NOTE} (ox/hq; the one-electron sq/hq couple is not recorded)`
+			}
 		});
 		expect(p.input!.used[MK.accession]).toMatchObject({
 			role: 'exit',
 			couple: 'Q/QH2',
-			approximation: `${TWO_ELECTRON_NOTE} (Q/QH2; the one-electron Q/SQ couple is not recorded)`
+			approximation: {
+				mark: TWO_ELECTRON_NOTE,
+				detail: `${TWO_ELECTRON_NOTE} (Q/QH2; the one-electron Q/SQ couple is not recorded)`
+			}
 		});
 		expect(p.input!.used[C2.accession]!.approximation).toBeNull();
 	});
@@ -169,7 +175,10 @@ describe('one-electron couples', () => {
 		expect(
 			choosePotential('menaquinone', only, 'exit', { ph: 7, temperatureK: 298.15 })
 		).toMatchObject({
-			approximation: 'SQ/QH2 used in place of Q/SQ, which is not recorded'
+			approximation: {
+				mark: 'SQ/QH2 used in place of Q/SQ',
+				detail: 'SQ/QH2 used in place of Q/SQ, which is not recorded'
+			}
 		});
 	});
 	it('other centres use the first couple their kind lists ([4Fe-4S]2+/1+ before 1+/0)', () => {

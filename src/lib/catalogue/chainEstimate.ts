@@ -16,8 +16,11 @@ export interface UsedPotential {
 	uncertaintyMv: number | null;
 	ph: number | null;
 	temperatureK: number | null;
-	/** Why this couple stands in for the one the role needs; null when it is that one. */
-	approximation: string | null;
+	/**
+	 * Set when this couple stands in for the one the role needs: `mark` for each hop it enters,
+	 * `detail` saying which couple was wanted. Null when it is that one.
+	 */
+	approximation: { mark: string; detail: string } | null;
 }
 
 /** A chain-kinetics estimate on a protein page, as its page shows it. */

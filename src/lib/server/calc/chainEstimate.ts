@@ -99,7 +99,7 @@ export function choosePotential(
 	candidates: ReadonlyMap<string, ListedPotential>,
 	role: ChainRole,
 	conditions: ChainConditions
-): { potential: ListedPotential; approximation: string | null } | null {
+): { potential: ListedPotential; approximation: UsedPotential['approximation'] } | null {
 	const vocabulary = COUPLES_BY_KIND[kind];
 	const family = Object.entries(ONE_ELECTRON_HALVES).find(([two]) => vocabulary.includes(two));
 	if (family) {
@@ -112,13 +112,19 @@ export function choosePotential(
 		if (whole)
 			return {
 				potential: whole,
-				approximation: `${TWO_ELECTRON_NOTE} (${two}; the one-electron ${wanted} couple is not recorded)`
+				approximation: {
+					mark: TWO_ELECTRON_NOTE,
+					detail: `${TWO_ELECTRON_NOTE} (${two}; the one-electron ${wanted} couple is not recorded)`
+				}
 			};
 		const half = candidates.get(other);
 		if (half)
 			return {
 				potential: half,
-				approximation: `${other} used in place of ${wanted}, which is not recorded`
+				approximation: {
+					mark: `${other} used in place of ${wanted}`,
+					detail: `${other} used in place of ${wanted}, which is not recorded`
+				}
 			};
 	}
 	const listed = vocabulary.map((c) => candidates.get(c)).find((p) => p !== undefined);
@@ -135,7 +141,10 @@ export function choosePotential(
 	return {
 		potential: chosen,
 		approximation: TWO_ELECTRON_COUPLES.has(chosen.couple)
-			? `${TWO_ELECTRON_NOTE} (${chosen.couple})`
+			? {
+					mark: TWO_ELECTRON_NOTE,
+					detail: `${TWO_ELECTRON_NOTE} (${chosen.couple}; no one-electron couple is recorded)`
+				}
 			: null
 	};
 }
