@@ -14,7 +14,7 @@ import {
 } from './electronTransfer';
 import { requireFinite, requireInRange, requirePositive } from './guards';
 import { percentile, seededRandom } from './random';
-import { sampleTruncatedNormal } from './truncatedNormal';
+import { truncatedNormalSampler } from './truncatedNormal';
 
 /*
  * Kinetics of one electron crossing a network of redox centres.
@@ -484,7 +484,7 @@ export const MONTE_CARLO_BOUNDS = {
  * Propagates the uncertainties of the potentials (emSigmaMv) and distances (edgeSigmaA) to the
  * throughput by Monte Carlo: each sample draws every Em and distance from a normal distribution
  * truncated to the range the model accepts (Em within ±2 V, distances within 0–100 Å; exact
- * draws by inversion, sampleTruncatedNormal — no clamping, no redrawing) and solves the chain.
+ * draws by inversion, truncatedNormalSampler — no clamping, no redrawing) and solves the chain.
  * Blocked samples are kept in the percentiles (throughput 0) and counted. Values without an
  * uncertainty are held fixed and listed. Reproducible for a given seed.
  * @throws {RangeError} for samples outside 10–100 000, or any analyseChain error.
@@ -505,22 +505,41 @@ export function monteCarloChain(
 	const [dLow, dHigh] = MONTE_CARLO_BOUNDS.edgeDistanceA;
 	const em = Float64Array.from(input.centres, (c) => c.emMv);
 	const distance = Float64Array.from(input.hops, (h) => h.edgeDistanceA);
+	// One sampler per uncertain value (its bounds' tails computed once); the others stay fixed.
+	const emDraws = input.centres.flatMap((c, i) =>
+		(c.emSigmaMv ?? 0) > 0
+			? [
+					{
+						i,
+						draw: truncatedNormalSampler({
+							mean: c.emMv,
+							sigma: c.emSigmaMv!,
+							lower: emLow,
+							upper: emHigh
+						})
+					}
+				]
+			: []
+	);
+	const distanceDraws = input.hops.flatMap((h, i) =>
+		(h.edgeSigmaA ?? 0) > 0
+			? [
+					{
+						i,
+						draw: truncatedNormalSampler({
+							mean: h.edgeDistanceA,
+							sigma: h.edgeSigmaA!,
+							lower: dLow,
+							upper: dHigh
+						})
+					}
+				]
+			: []
+	);
 	const log10Taus: number[] = [];
 	for (let s = 0; s < samples; s++) {
-		input.centres.forEach((c, i) => {
-			if ((c.emSigmaMv ?? 0) > 0)
-				em[i] = sampleTruncatedNormal(
-					{ mean: c.emMv, sigma: c.emSigmaMv!, lower: emLow, upper: emHigh },
-					random
-				);
-		});
-		input.hops.forEach((h, i) => {
-			if ((h.edgeSigmaA ?? 0) > 0)
-				distance[i] = sampleTruncatedNormal(
-					{ mean: h.edgeDistanceA, sigma: h.edgeSigmaA!, lower: dLow, upper: dHigh },
-					random
-				);
-		});
+		for (const { i, draw } of emDraws) em[i] = draw(random);
+		for (const { i, draw } of distanceDraws) distance[i] = draw(random);
 		log10Taus.push(logTransitTime(net, hopRates(input, net, em, distance), ws) / Math.LN10);
 	}
 	const isBlocked = (x: number) => x > LOG10_TRANSIT_LIMIT;
