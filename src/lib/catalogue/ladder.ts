@@ -47,6 +47,8 @@ export interface Ladder {
 	steps: LadderStep[];
 	hops: LadderHop[];
 	branches: LadderStep[];
+	/** The conditions the representative values were chosen nearest to. */
+	conditions: ChainConditions;
 }
 
 /** How far a value's conditions lie from the chosen ones (the order ladderInputs.ts ranks in). */
@@ -163,5 +165,10 @@ export function buildLadder(
 		return { from, to, edgeA: edges.get(`${from}|${to}`) as number };
 	});
 	const onPath = new Set(path);
-	return { steps, hops, branches: centres.filter((c) => !onPath.has(c.accession)).map(step) };
+	return {
+		steps,
+		hops,
+		branches: centres.filter((c) => !onPath.has(c.accession)).map(step),
+		conditions: { ph: conditions.ph, temperatureK: conditions.temperatureK }
+	};
 }
