@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { fitNernst, nernstFractionReduced } from '$lib/science';
 import { estimateChain, type LadderChainInput } from '$lib/server/calc/chainEstimate';
 import { chainEstimateFor } from '$lib/server/calc/compute';
+import { config } from '$lib/server/config';
 import { CalcBusyError, CalcTimeLimitError, CalcWorkerError } from '$lib/server/calc/errors';
 import { runCalcJob, type CalcJob } from '$lib/server/calc/jobs';
 import { WorkerPool, type WorkerPoolOptions } from '$lib/server/calc/pool';
@@ -153,7 +154,10 @@ describe('protein-page chain estimates (the service’s own pool)', () => {
 			temperatureK: 298.15,
 			model: 'moser-dutton'
 		},
-		labels: { HL000001: 'FS1', HL000002: 'FS2', HL000003: 'FS3' }
+		labels: { HL000001: 'FS1', HL000002: 'FS2', HL000003: 'FS3' },
+		used: {},
+		conditions: { ph: 7, temperatureK: 298.15 },
+		leftOut: []
 	};
 
 	it('equals the estimate made in this thread, and is reused for the same chain', async () => {
@@ -162,5 +166,27 @@ describe('protein-page chain estimates (the service’s own pool)', () => {
 		const again = await chainEstimateFor(structuredClone(input));
 		expect(again.estimate).toBe(first.estimate); // the kept result, not a new computation
 		expect(await chainEstimateFor(null)).toEqual({ estimate: null, note: null, transient: false });
+	});
+
+	it('counts a chain the reader chose against their address only when it is computed', async () => {
+		const caller = { anonymousKey: '192.0.2.77' };
+		const variant = (i: number): LadderChainInput => ({
+			...input,
+			chain: { ...input.chain, lambdaEv: 0.5 + i / 1000 }
+		});
+		for (let i = 0; i < config.CALC_ANON_PER_MINUTE; i++) {
+			const outcome = await chainEstimateFor(variant(i), caller);
+			expect(outcome.estimate).not.toBeNull();
+		}
+		// Over the limit: a new chain is refused with a note no one else may be served…
+		const refused = await chainEstimateFor(variant(999), caller);
+		expect(refused.estimate).toBeNull();
+		expect(refused.transient).toBe(true);
+		expect(refused.note).toMatch(/calculations a minute\. Reload the page in \d+ s/);
+		// …while a kept one costs nothing, and another address is not affected.
+		expect((await chainEstimateFor(variant(0), caller)).estimate).not.toBeNull();
+		expect(
+			(await chainEstimateFor(variant(999), { anonymousKey: '192.0.2.78' })).estimate
+		).not.toBeNull();
 	});
 });

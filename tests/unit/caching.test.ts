@@ -214,6 +214,19 @@ describe('versions: immutable for everyone when public, private otherwise', () =
 		expect(missing.headers.get('etag')).toBeNull();
 	});
 
+	it('leaves a version page that says no-store (a note true only now) untagged and not immutable', async () => {
+		const c = setup();
+		c.setAnswer(
+			() =>
+				new Response('<h1>v1</h1><p>busy, reload</p>', {
+					headers: { 'cache-control': 'no-store' }
+				})
+		);
+		const res = await page(c);
+		expect(res.headers.get('cache-control')).toBe('no-store');
+		expect(res.headers.get('etag')).toBeNull();
+	});
+
 	it('keeps the cookies of pages, strips them from API answers', async () => {
 		const c = setup();
 		const pageAnswer = await c.request('/account', '/account');

@@ -82,4 +82,13 @@ describe('energy ladder', () => {
 		);
 		expect(ladder.steps.find((s) => s.label === 'C1')?.emMv).toBe(-350);
 	});
+	it('takes the potential nearest the chosen conditions when the reader chose them', () => {
+		const ladder = buildLadder(
+			[c1, c2],
+			[potential(c1, -400, 9), potential(c1, -350, 7.2)],
+			[distance(c1, c2, 10)],
+			{ ph: 8.5, temperatureK: 298.15 }
+		);
+		expect(ladder.steps.find((s) => s.label === 'C1')?.emMv).toBe(-400);
+	});
 });

@@ -1,3 +1,4 @@
+import { DEFAULT_CHAIN_CONDITIONS, type ChainConditions } from '$lib/schemas/chainChoice';
 import type { CentreDto, DistanceDto, PotentialDto } from './dto';
 
 /** What the ladder reads of each record: callers may pass full DTOs or just these fields. */
@@ -18,8 +19,10 @@ export type LadderDistance = Pick<DistanceDto, 'centreA' | 'centreB' | 'edgeToEd
  * two breadth-first sweeps (exact for the tree-shaped chains of most complexes). Centres off
  * that path are returned as branches.
  *
- * Representative Em: the potential measured closest to pH 7 and 298 K (pH weighs 1 unit per
- * 10 K), preferring the couple listed first for the centre — common practice, no source.
+ * Representative Em: the potential measured closest to the chosen conditions (pH 7 and 298.15 K
+ * unless the reader chose others for the chain estimate; pH weighs 1 unit per 10 K, a value
+ * without a stated pH or temperature counts as pH 7 or 298.15 K), the first listed among equals
+ * — common practice, no source. No pH or temperature correction is applied.
  */
 
 export const CHAIN_MAX_EDGE_A = 14;
@@ -44,13 +47,29 @@ export interface Ladder {
 	steps: LadderStep[];
 	hops: LadderHop[];
 	branches: LadderStep[];
+	/** The conditions the representative values were chosen nearest to. */
+	conditions: ChainConditions;
 }
 
-function representative(potentials: LadderPotential[]): LadderPotential | null {
+/** How far a value's conditions lie from the chosen ones (the order ladderInputs.ts ranks in). */
+export function conditionsDistance(
+	p: Pick<LadderPotential, 'ph' | 'temperatureK'>,
+	conditions: ChainConditions
+): number {
+	return (
+		Math.abs((p.ph ?? 7) - conditions.ph) +
+		Math.abs((p.temperatureK ?? 298.15) - conditions.temperatureK) / 10
+	);
+}
+
+function representative(
+	potentials: LadderPotential[],
+	conditions: ChainConditions
+): LadderPotential | null {
 	let best: LadderPotential | null = null;
 	let bestScore = Infinity;
 	for (const p of potentials) {
-		const score = Math.abs((p.ph ?? 7) - 7) + Math.abs((p.temperatureK ?? 298.15) - 298.15) / 10;
+		const score = conditionsDistance(p, conditions);
 		if (score < bestScore) {
 			best = p;
 			bestScore = score;
@@ -86,13 +105,14 @@ function farthest(
 export function buildLadder(
 	centres: LadderCentre[],
 	potentials: LadderPotential[],
-	distances: LadderDistance[]
+	distances: LadderDistance[],
+	conditions: ChainConditions = DEFAULT_CHAIN_CONDITIONS
 ): Ladder {
 	const byCentre = new Map<string, LadderPotential[]>();
 	for (const p of potentials)
 		byCentre.set(p.centre.accession, [...(byCentre.get(p.centre.accession) ?? []), p]);
 	const step = (c: LadderCentre): LadderStep => {
-		const p = representative(byCentre.get(c.accession) ?? []);
+		const p = representative(byCentre.get(c.accession) ?? [], conditions);
 		return {
 			centre: c.accession,
 			label: c.label,
@@ -145,5 +165,10 @@ export function buildLadder(
 		return { from, to, edgeA: edges.get(`${from}|${to}`) as number };
 	});
 	const onPath = new Set(path);
-	return { steps, hops, branches: centres.filter((c) => !onPath.has(c.accession)).map(step) };
+	return {
+		steps,
+		hops,
+		branches: centres.filter((c) => !onPath.has(c.accession)).map(step),
+		conditions: { ph: conditions.ph, temperatureK: conditions.temperatureK }
+	};
 }

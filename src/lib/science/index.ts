@@ -7,6 +7,7 @@ export * from './protonCoupling';
 export * from './temperatureDependence';
 export * from './electronTransfer';
 export * from './random';
+export * from './truncatedNormal';
 export * from './chainKinetics';
 export * from './leastSquares';
 export * from './titrationFit';

@@ -81,7 +81,10 @@ export const calcPoolStats = () => pool.stats();
 /**
  * Chain estimates are the same for the same chain (seeded Monte Carlo), and protein pages are
  * read far more often than they change: the last results are kept, keyed by their input, and a
- * chain being computed is shared by the requests that want it.
+ * chain being computed is shared by the requests that want it. A chain the reader chose (entry,
+ * exit, conditions in the query) is counted against their address when it has to be computed,
+ * as any calculator call is; a kept one costs nothing, and the page's default chain is never
+ * counted (the server computes it for everyone).
  */
 const CHAIN_CACHE_SIZE = 200;
 const chainCache = new Map<string, Promise<ChainEstimate>>();
@@ -95,7 +98,8 @@ export interface ChainEstimateOutcome {
 }
 
 export async function chainEstimateFor(
-	input: LadderChainInput | null
+	input: LadderChainInput | null,
+	caller: Caller | null = null
 ): Promise<ChainEstimateOutcome> {
 	if (!input) return { estimate: null, note: null, transient: false };
 	const key = JSON.stringify(input);
@@ -103,7 +107,19 @@ export async function chainEstimateFor(
 	if (pending) {
 		chainCache.delete(key); // re-inserted last: most recently used
 	} else {
-		pending = calculate({ kind: 'chain', input }, null);
+		if (caller) {
+			try {
+				checkCaller(caller);
+			} catch (e) {
+				if (!(e instanceof CalcRateLimitedError)) throw e;
+				return {
+					estimate: null,
+					note: `The electron-transit estimate for this choice is not shown: without an account an address may run ${e.perMinute} calculations a minute. Reload the page in ${e.retryAfterSeconds} s, or sign in.`,
+					transient: true
+				};
+			}
+		}
+		pending = calculate({ kind: 'chain', input }, caller);
 		pending.catch(() => chainCache.delete(key)); // failures are not kept
 	}
 	chainCache.set(key, pending);
@@ -121,6 +137,12 @@ export async function chainEstimateFor(
 			return {
 				estimate: null,
 				note: 'The electron-transit estimate is not shown: this chain is too long to estimate within the time limit.',
+				transient: false
+			};
+		if (e instanceof CalcInputError)
+			return {
+				estimate: null,
+				note: `The electron-transit estimate cannot be computed for this chain: ${e.message}`,
 				transient: false
 			};
 		throw e;

@@ -129,7 +129,11 @@ export function createCachingHandle(options: CachingOptions): Handle {
 			}
 		} else if (policy === 'immutable') {
 			response = await resolve(event);
-			if (response.status === 200) response = await immutable(response, request, personal);
+			// A page that says no-store holds something true only now (the protein page's "busy,
+			// reload" note under its live sections): never frozen, and so never kept either.
+			const noStore = /\bno-store\b/i.test(response.headers.get('cache-control') ?? '');
+			if (response.status === 200 && !noStore)
+				response = await immutable(response, request, personal);
 		} else {
 			response = await resolve(event);
 		}

@@ -1,8 +1,9 @@
 import { describeConflictRule } from '$lib/catalogue/conflicts';
 import { buildLadder } from '$lib/catalogue/ladder';
 import { roleAtLeast } from '$lib/roles';
-import { ladderChainInput } from '$lib/server/calc/chainEstimate';
-import { chainEstimateFor } from '$lib/server/calc/compute';
+import { parseChainChoice } from '$lib/schemas/chainChoice';
+import { planChain } from '$lib/server/calc/chainEstimate';
+import { callerOf, chainEstimateFor } from '$lib/server/calc/compute';
 import { parseVersionSegment } from '$lib/schemas/accession';
 import { parseRelatedPages } from '$lib/schemas/relatedPages';
 import { conflictFlags, conflictFlagsOfPotential } from '$lib/server/catalogue/conflictFlags';
@@ -27,7 +28,8 @@ export const load: PageServerLoad = async ({
 	url,
 	setHeaders,
 	request,
-	isDataRequest
+	isDataRequest,
+	getClientAddress
 }) => {
 	const version = params.version ? (parseVersionSegment(params.version) ?? undefined) : undefined;
 	const pages = parseRelatedPages(url.searchParams);
@@ -39,16 +41,27 @@ export const load: PageServerLoad = async ({
 			: `Entry ${params.accession} has no version ${version}.`
 	);
 	negotiateEntryRepresentation({ request, isDataRequest, setHeaders }, view);
+	// The reader's entry, exit and conditions for the chain estimate (a 400 names a bad one).
+	const choice = view.kind === 'protein' ? parseChainChoice(url.searchParams) : null;
+	if (choice?.ok === false) queryError(choice.fields);
 	const related = await relatedRecords(db, view.kind, view.accession, locals.viewer, pages.pages);
+	const conditions = choice?.ok ? choice.choice.conditions : undefined;
 	const ladderData =
-		view.kind === 'protein' ? await ladderInputs(db, view.accession, locals.viewer) : null;
+		view.kind === 'protein'
+			? await ladderInputs(db, view.accession, locals.viewer, conditions)
+			: null;
 	const ladder =
 		ladderData?.ok === true
-			? buildLadder(ladderData.centres, ladderData.potentials, ladderData.distances)
+			? buildLadder(ladderData.centres, ladderData.potentials, ladderData.distances, conditions)
 			: null;
-	// Computed in a calculation worker (and kept while the chain is unchanged).
+	const plan =
+		ladder && ladderData?.ok && choice?.ok ? planChain(ladder, ladderData, choice.choice) : null;
+	if (plan?.ok === false) queryError(plan.fields);
+	// Computed in a calculation worker (and kept while the chain is unchanged); a chain the
+	// reader chose counts against their address when it has to be computed.
 	const chain = await chainEstimateFor(
-		ladder && ladderData?.ok ? ladderChainInput(ladder, ladderData.potentials) : null
+		plan?.ok ? plan.input : null,
+		choice?.ok && choice.choice.chosen ? callerOf({ locals, getClientAddress }) : null
 	);
 	// "Busy, reload" is true of this moment only: keep this page for no one (http/readCache.ts).
 	if (chain.transient) setHeaders({ 'cache-control': 'no-store' });
@@ -64,7 +77,8 @@ export const load: PageServerLoad = async ({
 		ladder,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
 		chain: chain.estimate,
-		chainNote: chain.note,
+		chainNote: chain.note ?? (plan?.ok ? plan.note : null),
+		chainForm: plan?.ok ? plan.form : null,
 		conflicts: conflicts.flags,
 		conflictsTruncated: conflicts.truncated,
 		notCompared: conflicts.notCompared,

@@ -1,0 +1,92 @@
+import { z } from 'zod';
+import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
+import { NOT_A_DECIMAL, readDecimal } from './decimal';
+import { parseSearchParams, type FieldErrors } from './searchParams';
+
+/*
+ * The reader's choice for a protein page's chain estimate, carried in the page's query string
+ * (`?entry=HL000101&exit=HL000109&ph=7&temperature=298.15`) so that it works without scripts, can
+ * be linked to, and is kept by the read cache like any other page. Only these four parameters are
+ * read; every value is checked, and any fault is a 400 naming the parameter. Whether the centres
+ * named belong to the protein (and are visible to the reader) is checked against the protein's
+ * centres by the chain planner (server/calc/chainEstimate.ts).
+ */
+
+export const CHAIN_CHOICE_PARAMS = ['entry', 'exit', 'ph', 'temperature'] as const;
+
+/** pH of the conditions the potentials are chosen for: the scale's usual range. */
+export const CHAIN_PH_RANGE = { min: 0, max: 14 } as const;
+/**
+ * Temperature of the estimate, K: liquid water at ordinary pressure (0–100 °C). Detailed balance
+ * is applied at this temperature; the ruler's forward rates do not depend on it.
+ */
+export const CHAIN_TEMPERATURE_RANGE = { min: 273.15, max: 373.15 } as const;
+
+export const DEFAULT_CHAIN_CONDITIONS = { ph: 7, temperatureK: 298.15 } as const;
+
+export interface ChainConditions {
+	ph: number;
+	temperatureK: number;
+}
+
+export interface ChainChoice {
+	/** Centre accessions; null: the default ends (chainEstimate.ts, defaultEnds). */
+	entry: string | null;
+	exit: string | null;
+	conditions: ChainConditions;
+	/** True when the query named any of the four parameters (the reader chose). */
+	chosen: boolean;
+}
+
+/** A decimal from a query string, read as every numeric field reads one, within bounds. */
+function decimalParam(range: { min: number; max: number }, unit: string) {
+	const message = `expected a number from ${range.min}${unit} to ${range.max}${unit}`;
+	return z
+		.string()
+		.transform((text, ctx) => {
+			const value = readDecimal(text);
+			if (value === null) {
+				ctx.addIssue({ code: 'custom', message: NOT_A_DECIMAL });
+				return z.NEVER;
+			}
+			return value;
+		})
+		.pipe(z.number().min(range.min, message).max(range.max, message));
+}
+
+const centreParam = z.string().regex(ACCESSION_PATTERN, `expected ${ACCESSION_HINT}`);
+
+export const chainChoiceSchema = z
+	.object({
+		entry: centreParam.optional(),
+		exit: centreParam.optional(),
+		ph: decimalParam(CHAIN_PH_RANGE, '').optional(),
+		temperature: decimalParam(CHAIN_TEMPERATURE_RANGE, ' K').optional()
+	})
+	.refine((c) => c.entry === undefined || c.entry !== c.exit, {
+		message: 'entry and exit must be different centres',
+		path: ['exit']
+	});
+
+/** The chain choice in a query string; the page's other parameters are left to it. */
+export function parseChainChoice(
+	params: URLSearchParams
+): { ok: true; choice: ChainChoice } | { ok: false; fields: FieldErrors } {
+	const own = new URLSearchParams();
+	for (const key of CHAIN_CHOICE_PARAMS) for (const v of params.getAll(key)) own.append(key, v);
+	const parsed = parseSearchParams(chainChoiceSchema, own);
+	if (!parsed.ok) return parsed;
+	const { entry, exit, ph, temperature } = parsed.data;
+	return {
+		ok: true,
+		choice: {
+			entry: entry ?? null,
+			exit: exit ?? null,
+			conditions: {
+				ph: ph ?? DEFAULT_CHAIN_CONDITIONS.ph,
+				temperatureK: temperature ?? DEFAULT_CHAIN_CONDITIONS.temperatureK
+			},
+			chosen: [entry, exit, ph, temperature].some((v) => v !== undefined)
+		}
+	};
+}
