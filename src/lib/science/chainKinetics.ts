@@ -8,6 +8,7 @@ import {
 	MOSER_DUTTON_CONTACT_A,
 	couplingAtDistance,
 	deltaGFromPotentials,
+	detailedBalanceDecades,
 	marcusRate,
 	moserDuttonLog10Rate,
 	type RateResult
@@ -243,7 +244,6 @@ function network(input: ChainInput): Network {
 function hopRates(input: ChainInput, net: Network, emMv: Float64Array, distanceA: Float64Array) {
 	const t = input.temperatureK ?? STANDARD_TEMPERATURE_K;
 	const rho = input.packingDensity ?? 0.76;
-	const kT = BOLTZMANN_EV_PER_K * t;
 	const coupling = input.coupling ?? defaultChainCoupling(input.lambdaEv, t, rho);
 	const n = net.hopFrom.length;
 	const rates: Rates = {
@@ -279,7 +279,8 @@ function hopRates(input: ChainInput, net: Network, emMv: Float64Array, distanceA
 			for (const w of rate.warnings) warnings.add(`${label}: ${w}`);
 		}
 		const lnDown = rate.log10Rate * Math.LN10;
-		const lnUp = lnDown + downhill / kT; // detailed balance at T
+		// The one uphill rule of the science layer: detailed balance at the stated T.
+		const lnUp = lnDown - detailedBalanceDecades(downhill, t) * Math.LN10;
 		rates.deltaGEv[h] = deltaGEv;
 		rates.lnForward[h] = deltaGEv <= 0 ? lnDown : lnUp;
 		rates.lnBackward[h] = deltaGEv <= 0 ? lnUp : lnDown;
