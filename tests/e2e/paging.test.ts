@@ -157,8 +157,12 @@ describe('HTTP caching', () => {
 		}
 	});
 
-	it('serves versions immutable to everyone, privately to the signed-in; the latest is revalidated', async () => {
-		for (const path of [`/e/${fx.potential}/v1`, `/api/v1/entries/${fx.potential}?version=1`]) {
+	it('serves API versions immutable to everyone, privately to the signed-in; pages and the latest are revalidated', async () => {
+		// A version page shows the current registry beneath the frozen version, so it is revalidated.
+		expect((await get(`/e/${fx.potential}/v1`)).headers.get('cache-control')).toBe(
+			'public, no-cache'
+		);
+		for (const path of [`/api/v1/entries/${fx.potential}?version=1`]) {
 			const res = await get(path);
 			expect(res.status, path).toBe(200);
 			expect(res.headers.get('cache-control'), path).toBe('public, max-age=31536000, immutable');

@@ -10,13 +10,15 @@ import { addVary, etagMatches } from './readCache';
  * for signed-out readers only; this handle runs after the reader is known, and the read cache
  * keeps what it tags):
  *
- * - A version of an entry (`/e/HL…/vN`, its `__data.json`, `/api/v1/entries/HL…?version=N`) is
- *   frozen once approved, so its answer never changes: a strong ETag (SHA-256 of the bytes) and,
+ * - A version of an entry as the API answers it (`/api/v1/entries/HL…?version=N`) is frozen once
+ *   approved and carries nothing live, so its answer never changes: a strong ETag (SHA-256 of the bytes) and,
  *   for a signed-out reader (who sees it only when the entry is public), `Cache-Control: public,
  *   max-age=31536000, immutable`. For a signed-in or token-bearing reader it is `private,
  *   no-cache` with `Vary: Cookie, Authorization`: the copy is theirs alone, and revalidated,
  *   because a group-only entry may be closed to them later (revalidation costs a 304).
- *   The latest version (`/e/HL…`) is not immutable; the read cache's `public, no-cache` applies.
+ *   Entry pages (`/e/HL…` and `/e/HL…/vN`, with their `__data.json`) are not immutable: a
+ *   version page freezes its version but also shows the current registry beneath it (related
+ *   lists, ladder, chain estimate, newer versions), so the read cache's `public, no-cache` applies.
  * - Lists and facets (`/api/v1/potentials`, …, `/api/v1/facets`, the export) carry an ETag made
  *   from the catalogue revision and validity (catalogue/validity.ts: an embargo's end or
  *   midnight changes what is shown without a write), the build, the request's URL and Accept,
@@ -29,7 +31,6 @@ import { addVary, etagMatches } from './readCache';
 
 export type CachePolicy = 'immutable' | 'list' | null;
 
-const ENTRY_PAGE = '/e/[accession=accession]/[[version=version]]';
 const ENTRY_API = '/api/v1/entries/[accession=accession]';
 const LIST_ROUTES: ReadonlySet<string> = new Set([
 	'/api/v1/potentials',
@@ -48,7 +49,6 @@ const SHARED_CACHE_CONTROL = 'public, no-cache';
 /** How an answer to this request may be cached, by its route. */
 export function cachePolicy(event: Pick<RequestEvent, 'route' | 'params' | 'url'>): CachePolicy {
 	const route = event.route.id;
-	if (route === ENTRY_PAGE) return event.params.version ? 'immutable' : null;
 	if (route === ENTRY_API) return event.url.searchParams.has('version') ? 'immutable' : null;
 	return route !== null && LIST_ROUTES.has(route) ? 'list' : null;
 }
