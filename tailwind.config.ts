@@ -7,11 +7,11 @@ export default {
 	theme: {
 		extend: {
 			colors: {
-				ink: { DEFAULT: '#12343b', soft: '#3d5a60', faint: '#7b9296' },
+				ink: { DEFAULT: '#12343b', soft: '#3d5a60', faint: '#586f73' },
 				paper: { DEFAULT: '#fbfaf6', deep: '#f1eee4', line: '#ddd8c8' },
 				spark: { DEFAULT: '#f2b33d', deep: '#b9801a', pale: '#fdf1d6' },
-				oxidised: '#b4532a',
-				reduced: '#2a7f8f',
+				oxidised: '#a14a25',
+				reduced: '#237080',
 				caution: { DEFAULT: '#8a4b08', pale: '#fff4e0' },
 				danger: { DEFAULT: '#9b1c1c', pale: '#fdecec' }
 			},

@@ -213,6 +213,22 @@ describe('versions: immutable for everyone when public, private otherwise', () =
 		expect(missing.headers.get('etag')).toBeNull();
 	});
 
+	it('keeps a signed-in reader’s entry page private and revalidated, a signed-out one’s untouched', async () => {
+		const c = setup();
+		c.setAnswer(() => new Response('<h1>v1</h1>'));
+		const entryPage = (headers: Record<string, string>) =>
+			c.request('/e/HL000001/v1', ENTRY_PAGE, {
+				headers,
+				params: { accession: 'HL000001', version: 'v1' }
+			});
+		const mine = await entryPage({ cookie: 'authjs.session-token=abc' });
+		expect(mine.headers.get('cache-control')).toBe('private, no-cache');
+		expect(mine.headers.get('vary')).toBe('Cookie, Authorization');
+		const anyone = await entryPage({});
+		expect(anyone.headers.get('cache-control')).toBeNull();
+		expect(anyone.headers.get('etag')).toBeNull();
+	});
+
 	it('leaves a version answer that says no-store (a note true only now) untagged and not immutable', async () => {
 		const c = setup();
 		c.setAnswer(

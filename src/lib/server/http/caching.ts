@@ -31,6 +31,7 @@ import { addVary, etagMatches } from './readCache';
 
 export type CachePolicy = 'immutable' | 'list' | null;
 
+const ENTRY_PAGE = '/e/[accession=accession]/[[version=version]]';
 const ENTRY_API = '/api/v1/entries/[accession=accession]';
 const LIST_ROUTES: ReadonlySet<string> = new Set([
 	'/api/v1/potentials',
@@ -136,6 +137,17 @@ export function createCachingHandle(options: CachingOptions): Handle {
 				response = await immutable(response, request, personal);
 		} else {
 			response = await resolve(event);
+			// An entry page read with a session may hold a group's entry and names the reader: it is
+			// theirs alone, and revalidated (a signed-out reader's gets the read cache's headers).
+			if (
+				personal &&
+				event.route.id === ENTRY_PAGE &&
+				response.status === 200 &&
+				!response.headers.has('cache-control')
+			) {
+				response.headers.set('cache-control', PRIVATE_CACHE_CONTROL);
+				addVary(response.headers, ['Cookie', 'Authorization']);
+			}
 		}
 		if (event.url.pathname.startsWith('/api/')) response.headers.delete('set-cookie');
 		return response;
