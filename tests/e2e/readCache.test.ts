@@ -148,8 +148,10 @@ describe('answers kept for signed-out readers', () => {
 		const cookie = await signInCookie(base, 'reader@demo.hopline.test', 'demo-reader-pass');
 		const member = await get(`/e/${fx.protein}`, { cookie });
 		expect(member.status).toBe(200);
-		// Not through the cache, which would add Cookie to Vary (entry pages vary with Accept).
-		expect(member.headers.get('vary')).toBe('Accept');
+		// Not a kept answer (those are `public, no-cache`): the member's copy is private, and the
+		// read cache never keeps what is private (entry pages also vary with Accept).
+		expect(member.headers.get('cache-control')).toBe('private, no-cache');
+		expect(member.headers.get('vary')).toBe('Accept, Cookie, Authorization');
 		const memberBody = await member.text();
 		expect(memberBody).not.toBe(signedOut);
 		expect(memberBody).toContain('data-testid="user-menu"');
