@@ -23,7 +23,7 @@ describe('values that differ beyond their stated uncertainties', () => {
 		expect(c?.differenceMv).toBeCloseTo(-10.1, 6);
 		expect(c?.message).toBe('differs by 10.1 mV, more than 2 × √(u₁² + u₂²) = 10 mV');
 	});
-	// The case of issue 13: k = 1 flagged it (30 > 28.3 mV); k = 2 puts the line at 56.6 mV.
+	// Two replicates 30 mV apart at ±20 mV each: k = 1 flagged them (30 > 28.3 mV); k = 2 puts the line at 56.6 mV.
 	it('does not flag two replicates 30 mV apart with ±20 mV each', () => {
 		const a = { ...base, uncertaintyMv: 20 };
 		expect(potentialConflict(a, { ...a, emMvShe: 130 })).toBeNull();

@@ -12,12 +12,11 @@
  *
  * Why our own rather than ml-levenberg-marquardt: that package adds an absolute λ·I (its damping
  * floor is 1e-7 whatever the units), takes steps that raise the sum of squares, and stops only on
- * an absolute error; its titration fits moved with the signal's units (issue 13).
+ * an absolute error; with it, titration fits moved with the signal's units.
  *
  * References: D. W. Marquardt, J. Soc. Ind. Appl. Math. 11, 431 (1963) (the method, diagonal
- * scaling); J. J. Moré, in *Numerical Analysis*, Lecture Notes in Mathematics 630, 105 (1978)
- * (D as the running maximum of the column norms); W. H. Press et al., *Numerical Recipes* (3rd
- * ed.), §15.5.2 (the λ schedule, ×10 / ÷10).
+ * scaling); J. J. Moré's 1978 analysis of the method (D as the running maximum of the column
+ * norms); W. H. Press et al., *Numerical Recipes* (3rd ed.), §15.5.2 (the λ schedule, ×10 / ÷10).
  */
 
 export interface LeastSquaresProblem {

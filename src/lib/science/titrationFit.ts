@@ -26,7 +26,7 @@ import {
  *   The fit in these units is the same for data in any units and with any offset, so the answer
  *   is too; estimates and their covariance are mapped back (Em = centre + half-width·m, A = span·a,
  *   covariance D·C·D with D the diagonal of those factors). Unscaled, a signal of amplitude 1e-4
- *   stopped up to 2.8 standard errors from the least-squares minimum (issue 13).
+ *   stopped up to 2.8 standard errors from the least-squares minimum.
  * - Levenberg–Marquardt with Marquardt's diagonal scaling (leastSquares.ts), the analytic
  *   Jacobian, from several starts: a grid of Em (pairs) across the measured range, and n in
  *   {0.5, 1, 2} when n is fitted; for each start the offset and amplitudes are first solved by
