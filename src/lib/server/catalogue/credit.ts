@@ -79,7 +79,11 @@ export async function versionCredit(
 		.orderBy('changed_at')
 		.orderBy('id')
 		.execute();
-	for (const r of rows) history.set(r.user_id, [...(history.get(r.user_id) ?? []), r]);
+	for (const r of rows) {
+		const own = history.get(r.user_id);
+		if (own) own.push(r);
+		else history.set(r.user_id, [r]);
+	}
 	const at = row.approved_at;
 	const credited = (id: string) => asOf(history.get(id) ?? [], at);
 	return {

@@ -10,6 +10,7 @@ import { InvalidEntryDataError, VersionStateError } from './errors';
 import { refreshPotentialRows } from './potentialRows';
 import { bumpCatalogueRevision } from '../db/revision';
 import { projectApprovedVersion } from './projection';
+import { latestApprovedVersionNumber } from './latestVersion';
 import { writeAudit } from '../audit/log';
 import { setImmediate } from 'node:timers/promises';
 
@@ -200,19 +201,6 @@ export async function approveVersion(
 		at: approvedAt
 	});
 	return { entryId: row.entry_id, version };
-}
-
-export async function latestApprovedVersionNumber(
-	db: Kysely<Database>,
-	entryId: number
-): Promise<number | null> {
-	const row = await db
-		.selectFrom('entry_version')
-		.select((eb) => eb.fn.max('version').as('latest'))
-		.where('entry_id', '=', entryId)
-		.where('status', '=', 'approved')
-		.executeTakeFirst();
-	return row?.latest ?? null;
 }
 
 export interface VisibilityChange {

@@ -8,6 +8,7 @@ import { versionTitle } from '../kinds';
 import { EntryNotFoundError } from './errors';
 import type { Viewer } from './visibility';
 import { findVisibleEntry } from './visibleEntry';
+import { latestApprovedVersionNumber } from './latestVersion';
 
 /* Reading one entry at one approved version, as permalinks show it. */
 
@@ -111,6 +112,22 @@ async function latestVersions(db: Kysely<Database>, entryIds: number[]) {
 
 const dataByField = (pins: readonly Pin[]) =>
 	Object.fromEntries(pins.map((p) => [p.field, p.data]));
+
+/**
+ * The accession and latest approved version of an entry the viewer may see, without the rest of
+ * its view (for redirects to the latest version).
+ * @throws {EntryNotFoundError} for an unknown or invisible accession.
+ */
+export async function latestVisibleVersion(
+	db: Kysely<Database>,
+	accession: string,
+	viewer: Viewer | null
+): Promise<{ accession: string; version: number }> {
+	const entry = await findEntryOrThrow(db, accession, viewer);
+	const version = await latestApprovedVersionNumber(db, entry.id);
+	if (version === null) throw new EntryNotFoundError(accession);
+	return { accession: entry.accession, version };
+}
 
 /**
  * The entry at `version` (latest approved when omitted): the version as it was approved — its

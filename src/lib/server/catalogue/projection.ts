@@ -5,24 +5,13 @@ import type { Database } from '../db/schema';
 import { serverKind } from '../kinds';
 import { bumpCatalogueRevision } from '../db/revision';
 import { resolveReference } from './references';
+import { latestApprovedVersionNumber } from './latestVersion';
 
 /** The approved version being projected: its row and its number. */
 export interface ApprovedVersionId {
 	versionId: number;
 	entryId: number;
 	version: number;
-}
-
-/** The latest approved version of an entry, as the approving transaction sees it. */
-async function latestApproved(trx: Kysely<Database>, entryId: number): Promise<number> {
-	const row = await trx
-		.selectFrom('entry_version')
-		.select((eb) => eb.fn.max('version').as('latest'))
-		.where('entry_id', '=', entryId)
-		.where('status', '=', 'approved')
-		.executeTakeFirstOrThrow();
-	// resolveReference has just found an approved version of this entry.
-	return row.latest as number;
 }
 
 /**
@@ -49,7 +38,9 @@ export async function projectApprovedVersion(
 		}
 		const entryId = await resolveReference(trx, field, accession, kind);
 		refs[field] = entryId;
-		pins.push({ field, entryId, version: await latestApproved(trx, entryId) });
+		// resolveReference has just found an approved version of this entry.
+		const version = (await latestApprovedVersionNumber(trx, entryId)) as number;
+		pins.push({ field, entryId, version });
 	}
 	if (pins.length > 0)
 		await trx

@@ -16,66 +16,15 @@ import type { Database } from '../db/schema';
  * after it. The view has already left out references the reader may not see.
  */
 
-/**
- * The version of a referenced entry a version was approved against: the one the view names
- * when it pins references, otherwise the newest version of the entry approved at or before
- * this version's approval (references must resolve when a version is approved, so that is the
- * version it was checked against).
- */
-async function pinnedVersion(
-	db: Kysely<Database>,
-	entryId: number,
-	reference: EntryView['references'][string],
-	approvedAt: string
-): Promise<number | null> {
-	if ('version' in reference && typeof reference.version === 'number') return reference.version;
-	const row = await db
-		.selectFrom('entry_version')
-		.select((eb) => eb.fn.max('version').as('version'))
-		.where('entry_id', '=', entryId)
-		.where('status', '=', 'approved')
-		.where('approved_at', '<=', approvedAt)
-		.executeTakeFirst();
-	return row?.version ?? null;
-}
-
-async function pinnedReferences(
-	db: Kysely<Database>,
-	view: EntryView,
-	origin: string
-): Promise<(PinnedReference & { field: string; entryId: number })[]> {
-	const refs = Object.entries(view.references);
-	if (refs.length === 0) return [];
-	const ids = new Map(
-		(
-			await db
-				.selectFrom('entry')
-				.select(['id', 'accession'])
-				.where(
-					'accession',
-					'in',
-					refs.map(([, r]) => r.accession)
-				)
-				.execute()
-		).map((r) => [r.accession, r.id])
-	);
-	const pinned = [];
-	for (const [field, ref] of refs) {
-		const entryId = ids.get(ref.accession);
-		if (entryId === undefined) continue;
-		const version = await pinnedVersion(db, entryId, ref, view.approvedAt);
-		if (version === null) continue;
-		pinned.push({
-			field,
-			entryId,
-			accession: ref.accession,
-			version,
-			kind: ref.kind,
-			title: ref.title,
-			permalink: new URL(permalinkPath(ref.accession, version), origin).href
-		});
-	}
-	return pinned;
+/** The entries a version names, at the versions it was approved against (the view pins them). */
+function pinnedReferences(view: EntryView, origin: string): PinnedReference[] {
+	return Object.values(view.references).map(({ accession, version, kind, title }) => ({
+		accession,
+		version,
+		kind,
+		title,
+		permalink: new URL(permalinkPath(accession, version), origin).href
+	}));
 }
 
 /** A source's stored data as the work it describes, or null when it does not read as a source. */
@@ -101,15 +50,16 @@ function originalWork(
 
 async function sourceData(
 	db: Kysely<Database>,
-	entryId: number,
+	accession: string,
 	version: number
 ): Promise<unknown> {
 	const row = await db
 		.selectFrom('entry_version')
-		.select('data')
-		.where('entry_id', '=', entryId)
-		.where('version', '=', version)
-		.where('status', '=', 'approved')
+		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+		.select('entry_version.data')
+		.where('entry.accession', '=', accession)
+		.where('entry_version.version', '=', version)
+		.where('entry_version.status', '=', 'approved')
 		.executeTakeFirst();
 	return row ? readJson(row.data) : null;
 }
@@ -130,7 +80,7 @@ export async function entryCitation(
 		.executeTakeFirstOrThrow();
 	const credit = await versionCredit(db, entry.id, view.version);
 	const permalink = new URL(permalinkPath(view.accession, view.version), origin).href;
-	const basedOn = await pinnedReferences(db, view, origin);
+	const basedOn = pinnedReferences(view, origin);
 
 	let original: OriginalWork | null = null;
 	if (view.kind === 'source') {
@@ -142,7 +92,7 @@ export async function entryCitation(
 	} else {
 		const source = basedOn.find((r) => r.kind === 'source');
 		if (source) {
-			original = originalWork(await sourceData(db, source.entryId, source.version), {
+			original = originalWork(await sourceData(db, source.accession, source.version), {
 				accession: source.accession,
 				version: source.version,
 				permalink: source.permalink
@@ -161,14 +111,5 @@ export async function entryCitation(
 		editors: credit.editors,
 		original
 	};
-	return {
-		record,
-		basedOn: basedOn.map(({ accession, version, kind, title, permalink }) => ({
-			accession,
-			version,
-			kind,
-			title,
-			permalink
-		}))
-	};
+	return { record, basedOn };
 }

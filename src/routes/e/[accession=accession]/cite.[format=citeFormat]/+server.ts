@@ -1,6 +1,6 @@
 import { citationFilePath } from '$lib/catalogue/citation';
 import { apiHandler } from '$lib/server/api/handler';
-import { getEntryView } from '$lib/server/catalogue/entryView';
+import { latestVisibleVersion } from '$lib/server/catalogue/entryView';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
 
@@ -10,7 +10,7 @@ import type { RequestHandler } from './$types';
  * date) goes along.
  */
 export const GET: RequestHandler = apiHandler(async ({ params, url, locals }) => {
-	const view = await getEntryView(db, params.accession, undefined, locals.viewer);
-	const location = citationFilePath(view.accession, view.version, params.format) + url.search;
+	const latest = await latestVisibleVersion(db, params.accession, locals.viewer);
+	const location = citationFilePath(latest.accession, latest.version, params.format) + url.search;
 	return new Response(null, { status: 303, headers: { location } });
 });
