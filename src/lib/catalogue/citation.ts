@@ -88,10 +88,6 @@ export const CITATION_FILES = {
 export type CitationFileExtension = keyof typeof CITATION_FILES;
 export const CITATION_FILE_EXTENSIONS: readonly CitationFileExtension[] = ['bib', 'ris', 'json'];
 
-export function isCitationFileExtension(value: string): value is CitationFileExtension {
-	return Object.hasOwn(CITATION_FILES, value);
-}
-
 /** Path of a version's citation file, e.g. /e/HL000123/v2/cite.bib. */
 export function citationFilePath(
 	accession: string,

@@ -227,6 +227,9 @@ export const entryViewSchema = frozenVersionSchema.extend({ live: entryLiveState
 export type EntryView = z.infer<typeof entryViewSchema>;
 
 const permalinkUrl = z.string().describe('The versioned permalink (absolute URL): cite this.');
+/** A pinned reference with the absolute permalink of the version it is pinned to. */
+export const linkedReferenceSchema = pinnedReferenceSchema.extend({ permalink: permalinkUrl });
+export type LinkedReference = z.infer<typeof linkedReferenceSchema>;
 
 /**
  * An entry at a version as GET /api/v1/entries/{accession} sends it: the frozen version with
@@ -236,7 +239,7 @@ const permalinkUrl = z.string().describe('The versioned permalink (absolute URL)
 export const entryAnswerSchema = z.strictObject({
 	...frozenMembers,
 	references: z
-		.record(z.string(), pinnedReferenceSchema.extend({ permalink: permalinkUrl }))
+		.record(z.string(), linkedReferenceSchema)
 		.describe('The entries this version names, by field, at their pinned versions.'),
 	permalink: permalinkUrl,
 	latest: z

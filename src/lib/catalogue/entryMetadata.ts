@@ -1,4 +1,4 @@
-import type { EntryKind } from '$lib/kinds';
+import type { LinkedReference } from './dto';
 import { orcidUrl } from '$lib/schemas/orcid';
 import {
 	CITATION_FILES,
@@ -26,19 +26,10 @@ import { displayNameParts, storedAuthorParts } from './personName';
  * `citation_reference`, `DC.source` and the JSON-LD `citation`.
  */
 
-/** An entry a version refers to, at the version it was approved against. */
-export interface PinnedReference {
-	accession: string;
-	version: number;
-	kind: EntryKind;
-	title: string;
-	permalink: string;
-}
-
 /** A version's citation and the entries it is based on, as pages and downloads use them. */
 export interface EntryCitation {
 	record: CitableRecord;
-	basedOn: PinnedReference[];
+	basedOn: LinkedReference[];
 }
 
 export interface HeadMeta {

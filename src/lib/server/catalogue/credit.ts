@@ -1,3 +1,4 @@
+import type { CitedPerson } from '$lib/catalogue/citation';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/schema';
 
@@ -12,15 +13,9 @@ import type { Database } from '../db/schema';
  * crediting nobody is cited as by the registry's contributors.
  */
 
-/** One person named in a citation. */
-export interface CreditedPerson {
-	name: string;
-	orcid: string | null;
-}
-
 export interface VersionCredit {
-	authors: CreditedPerson[];
-	editors: CreditedPerson[];
+	authors: CitedPerson[];
+	editors: CitedPerson[];
 }
 
 type HistoryRow = {
@@ -35,7 +30,7 @@ type HistoryRow = {
  * version dated before the account's first row (the demo scenario, imported histories) — the
  * first row there is.
  */
-function asOf(rows: HistoryRow[], at: string): CreditedPerson | null {
+function asOf(rows: HistoryRow[], at: string): CitedPerson | null {
 	let chosen = rows[0];
 	for (const row of rows) if (row.changed_at < at) chosen = row;
 	const name = chosen?.name?.trim();

@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
-import type { EntryView } from '$lib/catalogue/dto';
+import type { EntryView, LinkedReference } from '$lib/catalogue/dto';
 import { originalKey, type CitableRecord, type OriginalWork } from '$lib/catalogue/citation';
-import type { EntryCitation, PinnedReference } from '$lib/catalogue/entryMetadata';
+import type { EntryCitation } from '$lib/catalogue/entryMetadata';
 import { permalinkPath } from '$lib/schemas/accession';
 import { sourceSchema } from '$lib/schemas/source';
 import { versionCredit } from '../catalogue/credit';
@@ -17,7 +17,7 @@ import type { Database } from '../db/schema';
  */
 
 /** The entries a version names, at the versions it was approved against (the view pins them). */
-function pinnedReferences(view: EntryView, origin: string): PinnedReference[] {
+function pinnedReferences(view: EntryView, origin: string): LinkedReference[] {
 	return Object.values(view.references).map(({ accession, version, kind, title }) => ({
 		accession,
 		version,
