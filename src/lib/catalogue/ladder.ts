@@ -57,8 +57,9 @@ export function conditionsDistance(
 	conditions: ChainConditions
 ): number {
 	return (
-		Math.abs((p.ph ?? 7) - conditions.ph) +
-		Math.abs((p.temperatureK ?? 298.15) - conditions.temperatureK) / 10
+		Math.abs((p.ph ?? DEFAULT_CHAIN_CONDITIONS.ph) - conditions.ph) +
+		Math.abs((p.temperatureK ?? DEFAULT_CHAIN_CONDITIONS.temperatureK) - conditions.temperatureK) /
+			10
 	);
 }
 

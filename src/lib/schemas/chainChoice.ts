@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
-import { NOT_A_DECIMAL, readDecimal } from './decimal';
-import { parseSearchParams, type FieldErrors } from './searchParams';
+import { parseSearchParams, queryNumber, type FieldErrors } from './searchParams';
 
 /*
  * The reader's choice for a protein page's chain estimate, carried in the page's query string
@@ -38,30 +37,18 @@ export interface ChainChoice {
 	chosen: boolean;
 }
 
-/** A decimal from a query string, read as every numeric field reads one, within bounds. */
-function decimalParam(range: { min: number; max: number }, unit: string) {
-	const message = `expected a number from ${range.min}${unit} to ${range.max}${unit}`;
-	return z
-		.string()
-		.transform((text, ctx) => {
-			const value = readDecimal(text);
-			if (value === null) {
-				ctx.addIssue({ code: 'custom', message: NOT_A_DECIMAL });
-				return z.NEVER;
-			}
-			return value;
-		})
-		.pipe(z.number().min(range.min, message).max(range.max, message));
-}
-
 const centreParam = z.string().regex(ACCESSION_PATTERN, `expected ${ACCESSION_HINT}`);
 
 export const chainChoiceSchema = z
 	.object({
 		entry: centreParam.optional(),
 		exit: centreParam.optional(),
-		ph: decimalParam(CHAIN_PH_RANGE, '').optional(),
-		temperature: decimalParam(CHAIN_TEMPERATURE_RANGE, ' K').optional()
+		ph: queryNumber(CHAIN_PH_RANGE.min, CHAIN_PH_RANGE.max).optional(),
+		temperature: queryNumber(
+			CHAIN_TEMPERATURE_RANGE.min,
+			CHAIN_TEMPERATURE_RANGE.max,
+			' K'
+		).optional()
 	})
 	.refine((c) => c.entry === undefined || c.entry !== c.exit, {
 		message: 'entry and exit must be different centres',

@@ -14,7 +14,7 @@ import {
 	type RateResult
 } from './electronTransfer';
 import { requireFinite, requireInRange, requirePositive } from './guards';
-import { percentile, seededRandom } from './random';
+import { percentiles, seededRandom } from './random';
 import { truncatedNormalSampler } from './truncatedNormal';
 
 /*
@@ -240,8 +240,17 @@ function network(input: ChainInput): Network {
 	return { ids, states, stateOf, exit, hopFrom, hopTo };
 }
 
-/** Rates of every hop in both directions, as natural logarithms (never underflowing). */
-function hopRates(input: ChainInput, net: Network, emMv: Float64Array, distanceA: Float64Array) {
+/**
+ * Rates of every hop in both directions, as natural logarithms (never underflowing). Monte Carlo
+ * samples skip the model warnings (`withWarnings` false): the central estimate reports them.
+ */
+function hopRates(
+	input: ChainInput,
+	net: Network,
+	emMv: Float64Array,
+	distanceA: Float64Array,
+	withWarnings = true
+) {
 	const t = input.temperatureK ?? STANDARD_TEMPERATURE_K;
 	const rho = input.packingDensity ?? 0.76;
 	const coupling = input.coupling ?? defaultChainCoupling(input.lambdaEv, t, rho);
@@ -274,7 +283,7 @@ function hopRates(input: ChainInput, net: Network, emMv: Float64Array, distanceA
 				temperatureK: t
 			});
 		}
-		if (rate.warnings.length > 0) {
+		if (withWarnings && rate.warnings.length > 0) {
 			const label = `${net.ids[net.hopFrom[h]!]} → ${net.ids[net.hopTo[h]!]}`;
 			for (const w of rate.warnings) warnings.add(`${label}: ${w}`);
 		}
@@ -541,35 +550,22 @@ export function monteCarloChain(
 	for (let s = 0; s < samples; s++) {
 		for (const { i, draw } of emDraws) em[i] = draw(random);
 		for (const { i, draw } of distanceDraws) distance[i] = draw(random);
-		log10Taus.push(logTransitTime(net, hopRates(input, net, em, distance), ws) / Math.LN10);
+		log10Taus.push(logTransitTime(net, hopRates(input, net, em, distance, false), ws) / Math.LN10);
 	}
 	const isBlocked = (x: number) => x > LOG10_TRANSIT_LIMIT;
 	const blocked = log10Taus.filter(isBlocked).length;
 	const throughputs = log10Taus.map((x) => (isBlocked(x) ? 0 : 10 ** -x));
 	// Blocked samples sort last; a percentile that needs one of them is not a number.
-	const transits = log10Taus.map((x) => (isBlocked(x) ? Infinity : 10 ** x)).sort((a, b) => a - b);
-	const transitPercentile = (p: number): number | null => {
-		const h = ((samples - 1) * p) / 100;
-		const lo = Math.floor(h);
-		const below = transits[lo]!;
-		if (h === lo) return Number.isFinite(below) ? below : null;
-		const above = transits[lo + 1]!;
-		// As percentile() (Hyndman & Fan definition 7), on the sorted sample.
-		return Number.isFinite(above) ? below + (h - lo) * (above - below) : null;
-	};
+	const transits = log10Taus.map((x) => (isBlocked(x) ? Infinity : 10 ** x));
+	const [t5, t50, t95] = percentiles(transits, [5, 50, 95]).map((t) =>
+		Number.isFinite(t) ? t : null
+	);
+	const [q5, q50, q95] = percentiles(throughputs, [5, 50, 95]);
 	return {
 		samples,
 		seed,
-		throughputPerS: {
-			p5: percentile(throughputs, 5),
-			p50: percentile(throughputs, 50),
-			p95: percentile(throughputs, 95)
-		},
-		meanTransitTimeS: {
-			p5: transitPercentile(5),
-			p50: transitPercentile(50),
-			p95: transitPercentile(95)
-		},
+		throughputPerS: { p5: q5 as number, p50: q50 as number, p95: q95 as number },
+		meanTransitTimeS: { p5: t5 ?? null, p50: t50 ?? null, p95: t95 ?? null },
 		blocked,
 		blockedFraction: blocked / samples,
 		fixedCentres: input.centres.filter((c) => !((c.emSigmaMv ?? 0) > 0)).map((c) => c.id),

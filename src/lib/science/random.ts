@@ -41,11 +41,20 @@ export function seededRandom(seed: number): RandomSource {
  * (Hyndman & Fan, Am. Stat. 50, 361 (1996), definition 7 — the default of R and NumPy).
  */
 export function percentile(values: readonly number[], p: number): number {
+	return percentiles(values, [p])[0] as number;
+}
+
+/** Several percentiles of one sample, sorting it once (same definition as `percentile`). */
+export function percentiles(values: readonly number[], ps: readonly number[]): number[] {
 	if (values.length === 0) throw new RangeError('percentile of an empty sample');
-	if (!(p >= 0 && p <= 100)) throw new RangeError(`percentile must be within 0–100, got ${p}`);
+	for (const p of ps)
+		if (!(p >= 0 && p <= 100)) throw new RangeError(`percentile must be within 0–100, got ${p}`);
 	const sorted = [...values].sort((a, b) => a - b);
-	const h = ((sorted.length - 1) * p) / 100;
-	const lo = Math.floor(h);
-	const hi = Math.min(lo + 1, sorted.length - 1);
-	return sorted[lo]! + (h - lo) * (sorted[hi]! - sorted[lo]!);
+	return ps.map((p) => {
+		const h = ((sorted.length - 1) * p) / 100;
+		const lo = Math.floor(h);
+		// An exact rank is the value itself (no 0·∞ when the sample holds infinities).
+		if (h === lo) return sorted[lo]!;
+		return sorted[lo]! + (h - lo) * (sorted[lo + 1]! - sorted[lo]!);
+	});
 }

@@ -7,7 +7,7 @@ import {
 	type TitrationResponse,
 	type TunnellingResponse
 } from '$lib/schemas/calcResponses';
-import { RATE_CAUTION, runHopRate } from './hopRate';
+import { RATE_CAUTION, estimate } from './hopRate';
 import type { TunnellingResult } from './tunnelling';
 
 /*
@@ -17,7 +17,8 @@ import type { TunnellingResult } from './tunnelling';
 
 /** The hop rate under the chosen model, with the inputs as read and their units. */
 export function hopRateAnswer(query: HopRateQuery): HopRateResponse {
-	const chosen = runHopRate(query).estimates[query.model];
+	// Only the chosen model at the distance asked: the page's second model and curve are not sent.
+	const chosen = estimate(query, query.distance, query.model).estimate;
 	return {
 		model: chosen.model,
 		rateForward: chosen.rateForward,

@@ -31,7 +31,8 @@ export interface HopRateResult {
 	curve: { distanceA: number; moserDutton: number; marcus: number }[];
 }
 
-function estimate(q: HopRateQuery, distanceA: number, model: RateModel) {
+/** One model's rates at one distance, and the Marcus coupling it used. */
+export function estimate(q: HopRateQuery, distanceA: number, model: RateModel) {
 	const coupling = {
 		...defaultChainCoupling(q.lambda, q.temperature, q.packing),
 		...(q.h0 !== undefined ? { h0Ev: q.h0 } : {}),

@@ -4,6 +4,7 @@ import {
 	adaptiveVibrationalLevels,
 	assessDoubleWell,
 	barrierFrequencyRatio,
+	bellKappa,
 	bellKappaLog10,
 	crossoverTemperatureK,
 	interpolateWavefunction,
@@ -66,7 +67,7 @@ function kappaFactors(request: TunnellingRequest & { imagFreqCm1: number }) {
 	const tc = crossoverTemperatureK(nu);
 	let bell: number | null = null;
 	if (u < 2 * Math.PI) {
-		bell = 10 ** bellKappaLog10(nu, t);
+		bell = bellKappa(nu, t);
 	} else {
 		notes.push(
 			`u = hν‡/k_BT = ${fixed(u, 2)} ≥ 2π (below the crossover temperature T_c = hν‡/2πk_B = ${fixed(tc, 1)} K): the infinite-parabola correction diverges; give the barrier height for the truncated form.`
@@ -144,9 +145,10 @@ export function runTunnelling(request: TunnellingRequest): TunnellingResult {
 		if (!solved.grid.converged) notes.push(`The levels are not converged. ${solved.grid.message}`);
 		const assess = (l: AdaptiveLevels) =>
 			assessDoubleWell(l, { potential: v, comparison: l.comparison });
+		let solvedAssessment: ReturnType<typeof assess> | null = null;
 		try {
-			const assessment = assess(solved);
-			doubleWell = { ...assessment, barrierNote: barrierNote(request, assessment) };
+			solvedAssessment = assess(solved);
+			doubleWell = { ...solvedAssessment, barrierNote: barrierNote(request, solvedAssessment) };
 		} catch (e) {
 			if (!(e instanceof RangeError)) throw e;
 			notes.push(`${e.message}; the double-well assessment and isotope effect are not shown.`);
@@ -156,12 +158,13 @@ export function runTunnelling(request: TunnellingRequest): TunnellingResult {
 				request.massAmu === undefined && request.isotope === isotope;
 			const h = reuse('H') ? solved : solve(TRANSFER_MASSES_AMU.H, 2, 2);
 			try {
-				const hAssessment = assess(h);
+				const hAssessment = h === solved && solvedAssessment ? solvedAssessment : assess(h);
 				// Outside the nonadiabatic regime there is no isotope effect to give: no D levels.
 				const refusal = isotopeEffectRefusal(hAssessment);
 				if (refusal) throw new RangeError(refusal);
 				const d = reuse('D') ? solved : solve(TRANSFER_MASSES_AMU.D, 2, 2);
-				const kie = isotopeEffectFromSplittings(hAssessment, assess(d));
+				const dAssessment = d === solved && solvedAssessment ? solvedAssessment : assess(d);
+				const kie = isotopeEffectFromSplittings(hAssessment, dAssessment);
 				isotopeEffect = {
 					splittingHCm1: kie.splittingHCm1,
 					splittingDCm1: kie.splittingDCm1,
