@@ -18,7 +18,7 @@ describe('the tunnelling form’s unit switch', () => {
 			asymmetry: '−0,5',
 			halfSeparationA: '0.35',
 			temperatureK: '300',
-			pointsText: 'x,V\n-0.5, 2\n0;1,5\n0.5\tabc'
+			pointsText: 'x,V\n-0.5, 2\n0,1.5\n0.5,abc'
 		};
 		const next = convertFormEnergies(values, 'kcal/mol', 'kJ/mol');
 		expect(next).toMatchObject({
@@ -29,8 +29,19 @@ describe('the tunnelling form’s unit switch', () => {
 			halfSeparationA: '0.35',
 			temperatureK: '300'
 		});
-		expect(next.pointsText).toBe('x,V\n-0.5, 8.368\n0;6.276\n0.5\tabc');
+		expect(next.pointsText).toBe('x,V\n-0.5, 8.368\n0,6.276\n0.5,abc');
 		expect(convertFormEnergies(next, 'kJ/mol', 'kcal/mol').wellBarrier).toBe('6');
+	});
+	it('reads the points with the separator the server reads them with', () => {
+		// The same texts parseTwoColumnText reads (server/calc/twoColumnText.ts): one separator for
+		// the whole text, a decimal comma wherever commas do not separate the columns.
+		const convert = (pointsText: string) =>
+			convertFormEnergies({ ...DEFAULTS, pointsText }, 'kcal/mol', 'kJ/mol').pointsText;
+		expect(convert('-0.5 2\n0  1,5')).toBe('-0.5 8.368\n0  6.276');
+		expect(convert('-0.5;2\n0; 1,5')).toBe('-0.5;8.368\n0; 6.276');
+		expect(convert('-0.5\t2\n0\t1.5')).toBe('-0.5\t8.368\n0\t6.276');
+		// A tab anywhere makes tabs the separator: a comma line is then one cell, left as typed.
+		expect(convert('-0.5\t2\n0,1.5')).toBe('-0.5\t8.368\n0,1.5');
 	});
 	it('leaves what is not a number as typed, for the action to report', () => {
 		expect(convertFormEnergies({ ...DEFAULTS, barrier: '0x10' }, 'kcal/mol', 'cm-1').barrier).toBe(

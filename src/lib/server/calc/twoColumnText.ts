@@ -1,5 +1,6 @@
 import Papa from 'papaparse';
 import { readDecimal } from '$lib/schemas/decimal';
+import { separatorOf } from '$lib/schemas/columnSeparator';
 
 /**
  * Two numeric columns from pasted or uploaded text (titration points, a sampled potential): an
@@ -52,19 +53,6 @@ export function parseTwoColumnText(
 	if (more || data.length - (header ? 1 : 0) > maxRows)
 		errors.push(`at most ${maxRows} rows; the text has more`);
 	return { rows, errors };
-}
-
-type Separator = '\t' | ';' | ',' | ' ';
-
-function separatorOf(text: string): Separator {
-	if (text.includes('\t')) return '\t';
-	if (text.includes(';')) return ';';
-	const lines = text
-		.split(/\r?\n|\r/)
-		.map((line) => line.trim())
-		.filter((line) => !/^[\s,]*$/.test(line));
-	const spaced = (line: string) => /^\S+(\s+\S+)+$/.test(line) && !/,\s|\s,/.test(line);
-	return lines.length > 0 && lines.every(spaced) ? ' ' : ',';
 }
 
 /** The text up to its first `count` lines with content, and whether any content follows. */

@@ -1,3 +1,4 @@
+import { separatorOf, type Separator } from '$lib/schemas/columnSeparator';
 import { readDecimal } from '$lib/schemas/decimal';
 import { ENERGY_UNIT_LABELS, convertEnergy, type EnergyUnit } from '$lib/science/units';
 
@@ -101,6 +102,16 @@ function retype(value: number): string {
 	return String(Number(value.toPrecision(6)));
 }
 
+/** A line of two cells as [first cell, what separates them, second cell], or null. */
+function cellsOf(line: string, separator: Separator): [string, string, string] | null {
+	if (separator === ' ') {
+		const m = /^(\s*\S+)(\s+)(\S+)\s*$/.exec(line);
+		return m ? [m[1]!, m[2]!, m[3]!] : null;
+	}
+	const cells = line.split(separator);
+	return cells.length === 2 ? [cells[0]!, separator, cells[1]!] : null;
+}
+
 /**
  * The form's values with every energy converted from one unit to another (the unit switch):
  * the energy fields and the second column of the pasted points. Text that is not a number is
@@ -117,17 +128,20 @@ export function convertFormEnergies(
 		const x = readDecimal(values[name]);
 		if (x !== null) next[name] = retype(convertEnergy(x, from, to));
 	}
+	// The points reader's separator, decided once for the text, so that the cells converted here
+	// are the cells the server reads.
+	const separator = separatorOf(values.pointsText);
+	const decimalComma = separator !== ',';
 	next.pointsText = values.pointsText
 		.split('\n')
 		.map((line) => {
-			// The separators the points reader accepts; with semicolons, a decimal comma.
-			const separator = [';', '\t', ','].find((c) => line.includes(c));
-			const cells = separator ? line.split(separator) : [];
-			const v =
-				cells.length === 2 ? readDecimal(cells[1]!, { decimalComma: separator === ';' }) : null;
+			const cells = cellsOf(line, separator);
+			if (!cells) return line;
+			const [first, between, second] = cells;
+			const v = readDecimal(second, { decimalComma });
 			if (v === null) return line;
-			const space = /^\s*/.exec(cells[1]!)![0];
-			return `${cells[0]}${separator}${space}${retype(convertEnergy(v, from, to))}`;
+			const space = separator === ' ' ? '' : /^\s*/.exec(second)![0];
+			return `${first}${between}${space}${retype(convertEnergy(v, from, to))}`;
 		})
 		.join('\n');
 	return next;
