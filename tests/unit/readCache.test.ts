@@ -76,9 +76,13 @@ describe('the read cache', () => {
 			await new Promise((r) => setTimeout(r, 5));
 			return answer();
 		};
-		const request = (path = '/search?kind=fe4s4', headers: Record<string, string> = {}) => {
+		const request = (
+			path = '/search?kind=fe4s4',
+			headers: Record<string, string> = {},
+			routeId = '/search'
+		) => {
 			const url = new URL(`http://hopline.test${path}`);
-			const event = { url, request: new Request(url, { headers }), route: { id: '/search' } };
+			const event = { url, request: new Request(url, { headers }), route: { id: routeId } };
 			return cache.handle({ event: event as never, resolve: resolve as never });
 		};
 		return {
@@ -102,6 +106,17 @@ describe('the read cache', () => {
 		c.setValidity({ revision: 2, validUntil: Date.now() + 60_000 });
 		expect(await (await c.request()).text()).toBe('page 3');
 		expect(c.stats().hits).toBe(19);
+	});
+
+	it('keeps one copy of a route that reads no query, whatever query strings strangers add', async () => {
+		const c = setup();
+		for (const n of [1, 2, 3]) await c.request(`/api?n=${n}`, {}, '/api');
+		await c.request('/api', {}, '/api');
+		expect(c.renders()).toBe(1);
+		// A route that reads its query keeps a copy per query.
+		await c.request('/search?q=a');
+		await c.request('/search?q=b');
+		expect(c.renders()).toBe(3);
 	});
 
 	it('renders again once the validity has run out (an embargo ended)', async () => {

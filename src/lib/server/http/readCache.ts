@@ -26,24 +26,27 @@ import {
  * catalogue reads, and bodies over the per-entry limit. The memory is bounded by bytes (LRU).
  */
 
-/** Routes whose signed-out answer depends only on the URL and the public catalogue. */
-export const CATALOGUE_READ_ROUTES: ReadonlySet<string> = new Set([
-	'/',
-	'/proteins',
-	'/search',
-	'/e/[accession=accession]/[[version=version]]',
-	'/e/[accession=accession]/compare',
-	'/api',
-	'/api/v1',
-	'/api/v1/potentials',
-	'/api/v1/proteins',
-	'/api/v1/centres',
-	'/api/v1/distances',
-	'/api/v1/spin-records',
-	'/api/v1/facets',
-	'/api/v1/entries/[accession=accession]'
+/**
+ * Routes whose signed-out answer depends only on the URL and the public catalogue, and what of
+ * the URL: the whole of it, or (`path`) the path alone — a query string those routes do not
+ * read must not file a copy of their answer per made-up query, pushing others out.
+ */
+export const CATALOGUE_READ_ROUTES: ReadonlyMap<string, 'url' | 'path'> = new Map([
+	['/', 'url'],
+	['/proteins', 'url'],
+	['/search', 'url'],
+	['/e/[accession=accession]/[[version=version]]', 'url'],
+	['/e/[accession=accession]/compare', 'url'],
+	['/api', 'path'],
+	['/api/v1', 'path'],
+	['/api/v1/potentials', 'url'],
+	['/api/v1/proteins', 'url'],
+	['/api/v1/centres', 'url'],
+	['/api/v1/distances', 'url'],
+	['/api/v1/spin-records', 'url'],
+	['/api/v1/facets', 'url'],
+	['/api/v1/entries/[accession=accession]', 'url']
 ]);
-
 interface KeptAnswer {
 	revision: number;
 	validUntil: number;
@@ -198,7 +201,11 @@ export function createReadCache(options: ReadCacheOptions) {
 		const validity = await options.validity();
 		// The request's own URL: SvelteKit's event.url is the page's URL even for its
 		// `__data.json` request, which must not share the page's answer.
-		const key = `${validity.revision}\n${event.request.url}\n${event.request.headers.get('accept') ?? ''}`;
+		const url =
+			CATALOGUE_READ_ROUTES.get(event.route.id ?? '') === 'path'
+				? event.request.url.split('?')[0]
+				: event.request.url;
+		const key = `${validity.revision}\n${url}\n${event.request.headers.get('accept') ?? ''}`;
 		// A compressed copy added to a kept answer: set it again so the LRU counts its bytes.
 		const recount = (entry: KeptAnswer) => () => {
 			if (kept.peek(key) === entry) kept.set(key, entry);
