@@ -45,11 +45,37 @@ export class AttemptLimiter {
 	}
 
 	record(key: string): void {
-		this.attempts.set(key, [...this.recent(key), this.now()]);
-		if (this.attempts.size > this.sweepAt) {
-			for (const k of [...this.attempts.keys()]) this.recent(k);
-			this.sweepAt = Math.max(10_000, 2 * this.attempts.size);
-		}
+		const list = this.recent(key);
+		list.push(this.now());
+		this.attempts.set(key, list);
+		this.sweepIfLarge();
+	}
+
+	/**
+	 * Counts an attempt if the key may make one now, in one pass over its attempts: the wait
+	 * (0 when counted) and its standing afterwards, as `retryAfterMs`, `record` and `quota` would
+	 * give them in turn.
+	 */
+	take(key: string): { waitMs: number; remaining: number; resetMs: number } {
+		const list = this.recent(key);
+		const now = this.now();
+		let waitMs = 0;
+		if (list.length < this.maxAttempts) {
+			list.push(now);
+			this.attempts.set(key, list);
+			this.sweepIfLarge();
+		} else waitMs = list[list.length - this.maxAttempts]! + this.windowMs - now;
+		return {
+			waitMs,
+			remaining: Math.max(0, this.maxAttempts - list.length),
+			resetMs: list.length ? Math.max(0, list[0]! + this.windowMs - now) : 0
+		};
+	}
+
+	private sweepIfLarge(): void {
+		if (this.attempts.size <= this.sweepAt) return;
+		for (const k of [...this.attempts.keys()]) this.recent(k);
+		this.sweepAt = Math.max(10_000, 2 * this.attempts.size);
 	}
 
 	/** Takes back the latest attempt (one that turned out not to count). */

@@ -33,20 +33,19 @@ export function bearerToken(header: string): string | null {
 }
 
 const REALM = 'Bearer realm="Hopline API"';
+const RATE_LIMIT_HEADER = String(config.API_TOKEN_RATE_LIMIT);
+const RATE_POLICY_HEADER = `${config.API_TOKEN_RATE_LIMIT};w=${config.API_TOKEN_RATE_WINDOW_SECONDS}`;
 
 /** Counts the request against the token's limit; the wait in ms when it is over it (then not counted). */
 function takeTokenRequest(tokenId: number): { waitMs: number; headers: Record<string, string> } {
-	const key = String(tokenId);
-	const waitMs = apiTokenRequests.retryAfterMs(key);
-	if (waitMs <= 0) apiTokenRequests.record(key);
-	const { remaining, resetMs } = apiTokenRequests.quota(key);
+	const { waitMs, remaining, resetMs } = apiTokenRequests.take(String(tokenId));
 	return {
 		waitMs,
 		headers: {
-			'ratelimit-limit': String(config.API_TOKEN_RATE_LIMIT),
+			'ratelimit-limit': RATE_LIMIT_HEADER,
 			'ratelimit-remaining': String(remaining),
 			'ratelimit-reset': String(Math.ceil(resetMs / 1000)),
-			'ratelimit-policy': `${config.API_TOKEN_RATE_LIMIT};w=${config.API_TOKEN_RATE_WINDOW_SECONDS}`
+			'ratelimit-policy': RATE_POLICY_HEADER
 		}
 	};
 }

@@ -29,7 +29,7 @@ import { addVary, etagMatches } from './readCache';
  *   belong to nobody's request (the pages refresh the session instead).
  */
 
-export type CachePolicy = 'immutable' | 'list' | null;
+export type CachePolicy = 'immutable' | 'list' | 'private' | null;
 
 const ENTRY_PAGE = '/e/[accession=accession]/[[version=version]]';
 const ENTRY_API = '/api/v1/entries/[accession=accession]';
@@ -47,10 +47,18 @@ export const IMMUTABLE_CACHE_CONTROL = 'public, max-age=31536000, immutable';
 const PRIVATE_CACHE_CONTROL = 'private, no-cache';
 const SHARED_CACHE_CONTROL = 'public, no-cache';
 
-/** How an answer to this request may be cached, by its route. */
-export function cachePolicy(event: Pick<RequestEvent, 'route' | 'params' | 'url'>): CachePolicy {
+/**
+ * How an answer to this request may be cached, by its route and whether the request says who
+ * reads. An entry page read with a session may hold a group's entry and names the reader: it is
+ * theirs alone (`private`); a signed-out reader's gets the read cache's headers.
+ */
+export function cachePolicy(
+	event: Pick<RequestEvent, 'route' | 'params' | 'url'>,
+	personal = false
+): CachePolicy {
 	const route = event.route.id;
 	if (route === ENTRY_API) return event.url.searchParams.has('version') ? 'immutable' : null;
+	if (route === ENTRY_PAGE) return personal ? 'private' : null;
 	return route !== null && LIST_ROUTES.has(route) ? 'list' : null;
 }
 
@@ -113,9 +121,9 @@ export interface CachingOptions {
 export function createCachingHandle(options: CachingOptions): Handle {
 	return async ({ event, resolve }) => {
 		const { request } = event;
-		const policy =
-			request.method === 'GET' || request.method === 'HEAD' ? cachePolicy(event) : null;
 		const personal = isPersonal(request);
+		const policy =
+			request.method === 'GET' || request.method === 'HEAD' ? cachePolicy(event, personal) : null;
 		let response: Response;
 		if (policy === 'list') {
 			const cacheControl = personal ? PRIVATE_CACHE_CONTROL : SHARED_CACHE_CONTROL;
@@ -135,19 +143,14 @@ export function createCachingHandle(options: CachingOptions): Handle {
 			const noStore = /\bno-store\b/i.test(response.headers.get('cache-control') ?? '');
 			if (response.status === 200 && !noStore)
 				response = await immutable(response, request, personal);
-		} else {
+		} else if (policy === 'private') {
 			response = await resolve(event);
-			// An entry page read with a session may hold a group's entry and names the reader: it is
-			// theirs alone, and revalidated (a signed-out reader's gets the read cache's headers).
-			if (
-				personal &&
-				event.route.id === ENTRY_PAGE &&
-				response.status === 200 &&
-				!response.headers.has('cache-control')
-			) {
+			if (response.status === 200 && !response.headers.has('cache-control')) {
 				response.headers.set('cache-control', PRIVATE_CACHE_CONTROL);
 				addVary(response.headers, ['Cookie', 'Authorization']);
 			}
+		} else {
+			response = await resolve(event);
 		}
 		if (event.url.pathname.startsWith('/api/')) response.headers.delete('set-cookie');
 		return response;

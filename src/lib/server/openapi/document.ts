@@ -259,9 +259,7 @@ function operation(op: ApiOperation, apiBase: string): OpenApiOperation {
 	const responses: OpenApiOperation['responses'] = {
 		[op.success.status]: successResponse(op)
 	};
-	if (op.operationId === 'getOpenApiDocument') {
-		responses['304'] = { description: 'Not modified: `If-None-Match` named the current ETag.' };
-	}
+	if (op.success.notModified) responses['304'] = { description: op.success.notModified };
 	for (const status of [...op.errors, ...ALWAYS].sort((a, b) => a - b)) {
 		responses[status] = { $ref: `#/components/responses/${ERROR_RESPONSES[status]?.name}` };
 	}

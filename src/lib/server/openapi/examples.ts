@@ -18,6 +18,17 @@ import type {
 	SubmissionView
 } from '$lib/schemas/curationResponses';
 
+/** A potential as a contributor reports it: shared by the entry and submission examples. */
+export const REPORTED_POTENTIAL_EXAMPLE = {
+	centreAccession: 'HL000012',
+	couple: '[4Fe-4S]2+/1+',
+	reportedValue: -623,
+	reportedUnit: 'mV',
+	referenceElectrode: 'SCE',
+	ph: 7.5,
+	temperatureK: 298.15
+} as const;
+
 /*
  * Example answers for the OpenAPI document, in the style of the invented demo scenario (the
  * fictional organism and proteins of seed/demo.ts): none of these values is a measurement.
@@ -162,13 +173,7 @@ export const EXAMPLES = {
 		approvedAt: '2026-01-12 09:30:00',
 		changeNote: null,
 		data: {
-			centreAccession: 'HL000012',
-			couple: '[4Fe-4S]2+/1+',
-			reportedValue: -623,
-			reportedUnit: 'mV',
-			referenceElectrode: 'SCE',
-			ph: 7.5,
-			temperatureK: 298.15,
+			...REPORTED_POTENTIAL_EXAMPLE,
 			ionicStrengthM: 0.1,
 			buffer: 'HEPES 50 mM',
 			method: 'protein_film_voltammetry',

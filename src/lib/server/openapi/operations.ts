@@ -47,7 +47,7 @@ import { fitNernst } from '$lib/science';
 import { hopRateAnswer, titrationAnswer, tunnellingAnswer } from '../calc/answers';
 import { runTunnelling } from '../calc/tunnelling';
 import { uploadCheckQuerySchema, uploadKindField } from '../uploads/uploadForm';
-import { EXAMPLES } from './examples';
+import { EXAMPLES, REPORTED_POTENTIAL_EXAMPLE } from './examples';
 
 /*
  * Every operation of the API under /api/v1, described once: the zod schemas its route validates
@@ -106,6 +106,8 @@ export interface ApiOperation {
 		/** The answer is CSV only (no JSON), described so. */
 		csvOnly?: string;
 		headers?: Record<string, string>;
+		/** The operation also answers 304 to a matching `If-None-Match`, described so. */
+		notModified?: string;
 		/** An example of the answer; the calculators' are computed by the calculators (a function). */
 		example?: unknown;
 	};
@@ -276,7 +278,8 @@ export const OPERATIONS: readonly ApiOperation[] = [
 			status: 200,
 			description: 'The OpenAPI document (JSON).',
 			schema: null,
-			headers: { ETag: 'Changes only when the document does.' }
+			headers: { ETag: 'Changes only when the document does.' },
+			notModified: 'Not modified: `If-None-Match` named the current ETag.'
 		},
 		errors: []
 	},
@@ -530,13 +533,7 @@ export const OPERATIONS: readonly ApiOperation[] = [
 			example: {
 				kind: 'potential',
 				data: {
-					centreAccession: 'HL000012',
-					couple: '[4Fe-4S]2+/1+',
-					reportedValue: -623,
-					reportedUnit: 'mV',
-					referenceElectrode: 'SCE',
-					ph: 7.5,
-					temperatureK: 298.15,
+					...REPORTED_POTENTIAL_EXAMPLE,
 					method: 'protein_film_voltammetry'
 				},
 				changeNote: 'From the second titration of the paper.',

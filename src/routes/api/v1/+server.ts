@@ -3,7 +3,9 @@ import { openApiDocument } from '$lib/server/openapi/document';
 import { apiIndex } from '$lib/server/openapi/reference';
 import type { RequestHandler } from './$types';
 
-/** GET /api/v1 — what the API offers, read from its OpenAPI document. */
+let index: ReturnType<typeof apiIndex> | undefined;
+
+/** GET /api/v1 — what the API offers, read from its OpenAPI document (once per process). */
 export const GET: RequestHandler = apiHandler(async () =>
-	Response.json(apiIndex(openApiDocument().document))
+	Response.json((index ??= apiIndex(openApiDocument().document)))
 );
