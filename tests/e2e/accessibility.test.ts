@@ -1,7 +1,6 @@
-import { readFileSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { seriousViolations } from '../support/axe';
 import { launchChromium, submitSignIn } from '../support/browser';
 
 /*
@@ -12,30 +11,7 @@ import { launchChromium, submitSignIn } from '../support/browser';
  */
 
 const base = inject('baseUrl');
-const axeSource = readFileSync(
-	createRequire(import.meta.url).resolve('axe-core/axe.min.js'),
-	'utf8'
-);
 let browser: Browser;
-
-interface Violation {
-	id: string;
-	impact: string | null;
-	nodes: { target: string[] }[];
-}
-
-async function seriousViolations(page: Page): Promise<string[]> {
-	await page.addScriptTag({ content: axeSource });
-	const violations: Violation[] = await page.evaluate(async () => {
-		const axe = (
-			window as unknown as { axe: { run: (c: Document) => Promise<{ violations: Violation[] }> } }
-		).axe;
-		return (await axe.run(document)).violations;
-	});
-	return violations
-		.filter((v) => v.impact === 'critical' || v.impact === 'serious')
-		.flatMap((v) => v.nodes.map((n) => `${v.id} (${v.impact}) at ${n.target.join(' ')}`));
-}
 
 const READER_PAGES = [
 	'/',
