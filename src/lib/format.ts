@@ -62,8 +62,9 @@ const NEUTRAL_CHARGE = /^((?:.*\])?)(0)$/;
 function typesetPart(part: string): string {
 	const match = SIGNED_CHARGE.exec(part) ?? NEUTRAL_CHARGE.exec(part);
 	if (!match) return part;
-	const [, body, charge] = match;
-	if (body !== '' && /\s$/.test(body)) return part;
+	const body = match[1] ?? '';
+	const charge = match[2] ?? '';
+	if (/\s$/.test(body)) return part;
 	return body + [...charge].map((c) => SUPERSCRIPT[c]).join('');
 }
 
