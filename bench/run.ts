@@ -8,9 +8,11 @@
 // 5. approving a 50 000-row batch while reading and writing (bench/approval.ts);
 // 6. latency of GET /api/v1 while three heavy calculator requests run (bench/calc.ts);
 // 7. the pages of a centre with 5 000 potentials: time and server memory (bench/largeCentre.ts);
+// 8. first-load JavaScript per page, gzipped, against its goal (bench/pageJs.ts; after a build,
+//    also `npm run bench:js`);
 // and first, the science engine's timings (bench/science.ts).
 // `npm run bench -- approval upload` runs only the steps named (science, search, api, http, upload,
-// approval, calc, largeCentre). Figures go to bench/RESULTS.md (bench/results.ts).
+// approval, calc, largeCentre, pageJs). Figures go to bench/RESULTS.md (bench/results.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { listPotentials } from '../src/lib/server/catalogue/potentials';
@@ -27,6 +29,7 @@ import { benchLargeCentre } from './largeCentre';
 import { recordOutput, writeResults } from './results';
 import { benchApproval } from './approval';
 import { benchHttp } from './http';
+import { benchPageJs } from './pageJs';
 import { rssMb, startRawServer, type RawServer } from './processes';
 import { freePort } from '../tests/support/server';
 
@@ -205,7 +208,8 @@ const STEPS = [
 	'upload',
 	'approval',
 	'calc',
-	'largeCentre'
+	'largeCentre',
+	'pageJs'
 ] as const;
 const named = process.argv.slice(2);
 const unknown = named.filter((n) => !(STEPS as readonly string[]).includes(n));
@@ -216,8 +220,8 @@ if (runs('science')) {
 	recordOutput('science');
 	benchScience();
 }
-// Every step but science reads the 100 000-potential catalogue.
-if (STEPS.some((step) => step !== 'science' && runs(step))) {
+// Every step but science and pageJs reads the 100 000-potential catalogue.
+if (STEPS.some((step) => step !== 'science' && step !== 'pageJs' && runs(step))) {
 	const dataset = await ensureDataset(DATASET, SIZE);
 	console.log(
 		dataset.created
@@ -252,5 +256,9 @@ if (runs('calc')) {
 if (runs('largeCentre')) {
 	recordOutput('largeCentre');
 	await benchLargeCentre();
+}
+if (runs('pageJs')) {
+	recordOutput('pageJs');
+	await benchPageJs();
 }
 writeResults(STEPS);
