@@ -408,10 +408,10 @@ function resolveQuery(built: Built, q: QuerySpec) {
 	// relevance.
 	const rankedCentres = q.ranked
 		? [...new Set(q.ranked.map((i) => pick(built.centres, i)!.id))].map((id, i, all) => ({
-					id,
-					score: Math.ceil((all.length - i) / 2)
-				}))
-			: undefined;
+				id,
+				score: Math.ceil((all.length - i) / 2)
+			}))
+		: undefined;
 	return { viewer, filter, accession, rankedCentres };
 }
 

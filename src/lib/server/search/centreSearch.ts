@@ -258,7 +258,9 @@ export class CentreSearch {
 		const perWord = parseQuery(query).flatMap((term): TermMatch[] => {
 			if (term.type === 'word') return [this.matchTerm(term)];
 			if (term.type === 'couple' && /^\d+fe\d+s$/.test(term.couple.prefix))
-				return [this.matchTerm({ type: 'word', word: term.couple.prefix, prefix: false, fuzzy: false })];
+				return [
+					this.matchTerm({ type: 'word', word: term.couple.prefix, prefix: false, fuzzy: false })
+				];
 			return [];
 		});
 		if (perWord.length === 0) return [];
@@ -292,9 +294,7 @@ export class CentreSearch {
 	}
 
 	get documentCount(): number {
-		return (
-			this.proteins.documentCount + this.centres.documentCount + this.sources.documentCount
-		);
+		return this.proteins.documentCount + this.centres.documentCount + this.sources.documentCount;
 	}
 }
 

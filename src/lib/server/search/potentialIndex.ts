@@ -440,8 +440,7 @@ export class PotentialIndex {
 					c.proteinId[r] === accession) &&
 				(!hasEm || within(c.em[r]!, f.emMin, f.emMax)) &&
 				(!hasPh || (!Number.isNaN(c.ph[r]) && within(c.ph[r]!, f.phMin, f.phMax))) &&
-				(!hasT ||
-					(!Number.isNaN(c.temperature[r]) && within(c.temperature[r]!, f.tMin, f.tMax))),
+				(!hasT || (!Number.isNaN(c.temperature[r]) && within(c.temperature[r]!, f.tMin, f.tMax))),
 			kind: (r: number) => kinds === null || kinds.has(c.kind[r]!),
 			method: (r: number) => methods === null || methods.has(c.method[r]!),
 			organism: (r: number) => organisms === null || organisms.has(c.organism[r]!)
@@ -530,7 +529,9 @@ export class PotentialIndex {
 				.filter(test)
 				.sort(
 					(a, b) =>
-						score[b]! - score[a]! || c.centreId[a]! - c.centreId[b]! || c.entryId[a]! - c.entryId[b]!
+						score[b]! - score[a]! ||
+						c.centreId[a]! - c.centreId[b]! ||
+						c.entryId[a]! - c.entryId[b]!
 				);
 			if (query.order === 'desc') rows.reverse();
 			return { length: rows.length, at: (i) => rows[i]! };
@@ -585,12 +586,7 @@ export class PotentialIndex {
 	 * relevance), missing values last, then the accession; desc turns every part round but
 	 * keeps missing values last.
 	 */
-	private compareToKey(
-		query: IndexQuery,
-		text: TextScores | null,
-		r: number,
-		at: RowKey
-	): number {
+	private compareToKey(query: IndexQuery, text: TextScores | null, r: number, at: RowKey): number {
 		const sign = query.order === 'desc' ? -1 : 1;
 		const own = this.keyOf(query.sort, r, text);
 		const relevance = query.sort === 'relevance' && text !== null;
