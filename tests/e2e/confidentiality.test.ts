@@ -133,6 +133,13 @@ describe('hidden entries, read from outside their group', () => {
 		).text();
 		expect(api).toContain(HIDDEN_MARKS.sourceDoi);
 		expect(api).toContain(fx.hiddenPotential);
+		// A member finds the potential citing the group-only source by its author and its DOI.
+		for (const q of [HIDDEN_MARKS.sourceAuthor.split(',')[0]!, HIDDEN_MARKS.sourceDoi]) {
+			const found = await (
+				await get(`/api/v1/potentials?q=${encodeURIComponent(q)}`, cookies.member as string)
+			).text();
+			expect(found, q).toContain(fx.potentialCitingHiddenSource);
+		}
 	});
 
 	for (const who of OUTSIDE) {
@@ -223,6 +230,31 @@ describe('hidden entries, read from outside their group', () => {
 				// The reader's own query comes back in the search box, nothing else may.
 				expectNoSecret((await page.text()).replaceAll(q, 'QUERY'), `/search?q=${q}`);
 			}
+			// A public potential citing a group-only source is not found by that source's author,
+			// year-less surname or DOI, and facet counts within a search count only what the reader
+			// may see (the member's check below shows the same queries do find it).
+			const surname = HIDDEN_MARKS.sourceAuthor.split(',')[0]!;
+			for (const q of [surname, HIDDEN_MARKS.sourceDoi]) {
+				const query = encodeURIComponent(q);
+				const found = (await (await get(`/api/v1/potentials?q=${query}`, cookie)).json()) as {
+					total: number;
+				};
+				expect(found.total, `potentials?q=${q}`).toBe(0);
+				const facets = (await (await get(`/api/v1/facets?q=${query}`, cookie)).json()) as {
+					kinds: unknown[];
+					totals: { potentials: number };
+				};
+				expect(facets.totals.potentials, `facets?q=${q}`).toBe(0);
+				expect(facets.kinds, `facets?q=${q}`).toEqual([]);
+			}
+			const onCentre = (await (
+				await get(`/api/v1/potentials?centre=${fx.publicCentre}&limit=1`, cookie)
+			).json()) as { total: number };
+			const centreFacets = (await (
+				await get(`/api/v1/facets?centre=${fx.publicCentre}`, cookie)
+			).json()) as { totals: { potentials: number }; kinds: { count: number }[] };
+			expect(centreFacets.totals.potentials).toBe(onCentre.total);
+			expect(centreFacets.kinds.reduce((n, k) => n + k.count, 0)).toBe(onCentre.total);
 			// A protein's centre count counts only centres the reader may see.
 			const proteins = (await (await get(`/api/v1/proteins?limit=100`, cookie)).json()) as {
 				items: { accession: string; centreCount: number }[];

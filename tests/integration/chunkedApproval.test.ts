@@ -254,7 +254,7 @@ describe('the potential search index while a large approval runs', () => {
 		let clock = 0;
 		const index = new PotentialIndex(() => clock);
 		await index.ensureCurrent(db);
-		const total = () => index.facets(potentialRowVisibility(null)).total;
+		const total = () => index.facets({ filter: {} }, potentialRowVisibility(null)).total;
 		const before = total();
 		const approveThree = async (tag: number) => {
 			const id = await largeBatch(3, tag);

@@ -43,6 +43,14 @@ export function exportParamsForPage(query: PotentialPageQuery): URLSearchParams 
 	return params;
 }
 
+/** The API query for the facet counts of what the search page matches: its filters only. */
+export function facetParamsForPage(query: PotentialPageQuery): URLSearchParams {
+	const params = exportParamsForPage(query);
+	params.delete('sort');
+	params.delete('order');
+	return params;
+}
+
 export type ParamChange = string | number | readonly string[] | null | undefined;
 
 /**

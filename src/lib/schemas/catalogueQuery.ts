@@ -103,6 +103,9 @@ export const potentialApiQuerySchema = potentialFilterSchema.extend({
 export const potentialApiQuery = withOrderedBounds(potentialApiQuerySchema);
 export type PotentialApiQuery = z.infer<typeof potentialApiQuerySchema>;
 
+/** The facet counts of a search: its filters only (counts are within what they match). */
+export const facetsApiQuery = withOrderedBounds(potentialFilterSchema);
+
 /** Every matching row as CSV (the search page's export): the filters and the order only. */
 export const potentialExportQuerySchema = potentialFilterSchema.extend({
 	sort: potentialApiQuerySchema.shape.sort,
@@ -127,6 +130,20 @@ export const POTENTIAL_COLUMNS = [
 ] as const;
 export type PotentialColumn = (typeof POTENTIAL_COLUMNS)[number];
 
+/**
+ * Columns hidden while the URL names none: the organism (in the protein's tooltip and the phone
+ * cards) and the value as reported, so that every other column fits at 1366 px. `hide=none`
+ * shows them all.
+ */
+export const DEFAULT_HIDDEN_COLUMNS: readonly PotentialColumn[] = ['organism', 'reported'];
+
+/** The columns a page query hides. */
+export function hiddenColumns(hide: readonly (PotentialColumn | 'none')[] | undefined) {
+	return hide === undefined
+		? DEFAULT_HIDDEN_COLUMNS
+		: hide.filter((c): c is PotentialColumn => c !== 'none');
+}
+
 export const PAGE_SIZES = [25, 50, 100] as const;
 
 export const potentialPageQuerySchema = potentialFilterSchema.extend({
@@ -147,7 +164,9 @@ export const potentialPageQuerySchema = potentialFilterSchema.extend({
 		.default(25),
 	hide: z
 		.array(
-			z.enum(POTENTIAL_COLUMNS, { error: `expected column names: ${POTENTIAL_COLUMNS.join(', ')}` })
+			z.enum([...POTENTIAL_COLUMNS, 'none'], {
+				error: `expected column names: ${POTENTIAL_COLUMNS.join(', ')} (or none)`
+			})
 		)
 		.optional()
 });

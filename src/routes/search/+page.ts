@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
 import type { CatalogueFacets, PotentialDto, Page } from '$lib/catalogue/dto';
-import { apiParamsForPage } from '$lib/catalogue/searchUrl';
+import { apiParamsForPage, facetParamsForPage } from '$lib/catalogue/searchUrl';
 import type { ApiErrorBody } from '$lib/schemas/apiError';
 import { LIST_KEYS, potentialPageQuery } from '$lib/schemas/catalogueQuery';
 import { parseSearchParams } from '$lib/schemas/searchParams';
@@ -16,7 +16,7 @@ export const load: PageLoad = async ({ url, fetch }) => {
 	const query = parsed.data;
 	const [rows, facets] = await Promise.all([
 		fetch(`/api/v1/potentials?${apiParamsForPage(query)}`),
-		fetch('/api/v1/facets')
+		fetch(`/api/v1/facets?${facetParamsForPage(query)}`)
 	]);
 	if (!rows.ok) {
 		const body = (await rows.json()) as ApiErrorBody;

@@ -6,10 +6,12 @@ import {
 } from '@tanstack/svelte-table';
 import type { PotentialDto } from '$lib/catalogue/dto';
 import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/schemas/catalogueQuery';
+import type { PotentialMethod } from '$lib/schemas/vocabulary';
 
 /*
  * The search table's features and columns. Sorting runs on the server (manual mode) and paging
- * follows the API's cursors; the page keeps both in the URL.
+ * follows the API's cursors; the page keeps both in the URL. The order puts the value right
+ * after what it is the value of (centre and couple).
  */
 export const features = tableFeatures({
 	rowSortingFeature,
@@ -22,16 +24,27 @@ const sortable = (id: PotentialColumn) => (POTENTIAL_SORTS as readonly string[])
 export const COLUMN_LABELS: Record<PotentialColumn, string> = {
 	accession: 'Accession',
 	protein: 'Protein',
-	organism: 'Organism',
 	centre: 'Centre',
-	kind: 'Cofactor kind',
 	couple: 'Couple',
-	em: 'Em (mV vs SHE)',
-	reported: 'As reported',
+	em: 'Em vs SHE (converted)',
+	kind: 'Cofactor type',
 	ph: 'pH',
 	temperature: 'T (K)',
 	method: 'Method',
-	source: 'Source'
+	source: 'Source',
+	reported: 'As reported',
+	organism: 'Organism'
+};
+
+/** Methods as the table names them (the full name is the cell's tooltip). */
+export const METHOD_SHORT: Record<PotentialMethod, string> = {
+	epr_titration: 'EPR titration',
+	optical_titration: 'optical titration',
+	protein_film_voltammetry: 'PFV',
+	solution_voltammetry: 'solution voltammetry',
+	spectroelectrochemistry: 'SEC',
+	mcd_titration: 'MCD titration',
+	computed: 'computed'
 };
 
 const accessors: Record<PotentialColumn, (p: PotentialDto) => string | number | null> = {

@@ -75,23 +75,19 @@ export async function exportPotentials(
 	};
 	try {
 		snapshot = await openSnapshot();
-		const search = await potentialSearch(db, filter, sorting.sort, sorting.order ?? 'asc');
-		let ids: number[] = [];
-		let total = 0;
-		if (search.any) {
-			await potentialIndex.ensureCurrent(db);
-			let index = potentialIndex;
-			if (index.builtRevision !== snapshot.revision) {
-				index = new PotentialIndex();
-				await index.ensureCurrent(snapshot.db);
-			}
-			const found = index.query(
-				{ ...search.query, offset: 0, limit: limits.maxRows + 1 },
-				potentialRowVisibility(viewer)
-			);
-			total = found.total;
-			ids = found.page;
+		const search = await potentialSearch(db, filter, sorting.sort, sorting.order ?? 'asc', viewer);
+		await potentialIndex.ensureCurrent(db);
+		let index = potentialIndex;
+		if (index.builtRevision !== snapshot.revision) {
+			index = new PotentialIndex();
+			await index.ensureCurrent(snapshot.db);
 		}
+		const found = index.query(
+			{ ...search.query, offset: 0, limit: limits.maxRows + 1 },
+			potentialRowVisibility(viewer)
+		);
+		const total = found.total;
+		const ids = found.page;
 		if (total > limits.maxRows) throw new ExportTooLargeError(total, limits.maxRows);
 		const source = snapshot.db;
 		const chunkRows = limits.chunkRows ?? 1000;

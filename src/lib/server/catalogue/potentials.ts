@@ -7,7 +7,7 @@ import { toPotentialDto } from './mappers';
 import { accessionNumber } from '$lib/schemas/accession';
 import { potentialIndex, type IndexQuery } from '../search/potentialIndex';
 import { pageWithCursors, positionOf, type KeyColumn, type ListOptions } from './keyset';
-import { resolveTextQuery } from './textMatch';
+import { resolvePotentialText } from './textMatch';
 import { potentialIsVisible, potentialRowVisibility, type Viewer } from './visibility';
 
 /**
@@ -92,33 +92,32 @@ export interface PotentialSearch {
 	query: Omit<IndexQuery, 'limit' | 'offset' | 'after' | 'before'>;
 	/** The sort actually applied: relevance only with words to rank by, else by protein. */
 	sort: PotentialSort;
-	/** False when the words matched nothing: no query is needed. */
-	any: boolean;
 }
 
-/** Resolves the text of a filter and the sort it will be answered in. */
+/**
+ * Resolves the text of a filter (for this reader: sources they may not see match nothing) and
+ * the sort it will be answered in. The text restricts the rows in every sort; relevance ranks
+ * by it.
+ */
 export async function potentialSearch(
 	db: Kysely<Database>,
 	filter: PotentialFilter,
 	sort: PotentialSort | undefined,
-	order: 'asc' | 'desc'
+	order: 'asc' | 'desc',
+	viewer: Viewer | null
 ): Promise<PotentialSearch> {
 	const { q, ...filters } = filter;
-	const text = await resolveTextQuery(db, q);
-	const relevance = text.kind === 'centres';
+	const text = await resolvePotentialText(db, q, viewer);
+	const relevance = text.kind === 'terms';
 	const applied =
 		sort === undefined || sort === 'relevance' ? (relevance ? 'relevance' : 'protein') : sort;
 	return {
 		sort: applied,
-		any: !(text.kind === 'centres' && text.ids.length === 0),
 		query: {
 			filter: filters,
 			accession:
 				text.kind === 'accession' ? (accessionNumber(text.accession) ?? undefined) : undefined,
-			rankedCentres:
-				text.kind === 'centres'
-					? text.ids.map((id, i) => ({ id, score: text.scores[i] ?? 0 }))
-					: undefined,
+			text: text.kind === 'terms' ? text.terms : undefined,
 			sort: applied,
 			order
 		}
@@ -137,7 +136,7 @@ export async function listPotentials(
 	viewer: Viewer | null
 ): Promise<Page<PotentialDto>> {
 	const order = options.order ?? 'asc';
-	const search = await potentialSearch(db, filter, options.sort, order);
+	const search = await potentialSearch(db, filter, options.sort, order, viewer);
 	const position = positionOf(
 		'potentials',
 		search.sort,
@@ -146,7 +145,6 @@ export async function listPotentials(
 		options
 	);
 	const meta = { list: 'potentials', sort: search.sort, order };
-	if (!search.any) return pageWithCursors(meta, [], { first: null, last: null }, 0, 0);
 	await potentialIndex.ensureCurrent(db);
 	const found = potentialIndex.query(
 		{

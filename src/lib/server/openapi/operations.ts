@@ -32,6 +32,7 @@ import {
 	entryApiQuerySchema,
 	potentialApiQuerySchema,
 	potentialExportQuerySchema,
+	potentialFilterSchema,
 	proteinApiQuerySchema,
 	spinRecordApiQuerySchema
 } from '$lib/schemas/catalogueQuery';
@@ -433,15 +434,17 @@ export const OPERATIONS: readonly ApiOperation[] = [
 		tag: 'Catalogue',
 		summary: 'Counts per cofactor kind, organism and method',
 		description:
-			'Counts of the potentials the reader may see, and totals of proteins, centres and potentials.',
+			'Counts of the potentials the reader may see within a search: the same filters as `/potentials`; each facet’s counts apply every filter but that facet’s own, so a count is what adding that choice would give. Without filters, the whole catalogue; totals of proteins and centres are always over the whole catalogue.',
 		access: 'anyone',
+		query: potentialFilterSchema,
+		example: { q: '4Fe4S', method: ['epr_titration'] },
 		success: {
 			status: 200,
 			description: 'The counts.',
 			schema: 'Facets',
 			example: EXAMPLES.facets
 		},
-		errors: []
+		errors: [400]
 	},
 	{
 		operationId: 'calculateHopRate',

@@ -1,7 +1,16 @@
 import MiniSearch, { type SearchOptions } from 'minisearch';
 import type { Kysely } from 'kysely';
-import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary';
+import {
+	cofactorKindText,
+	methodWords,
+	parseQuery,
+	searchWords,
+	type CoupleKey,
+	type QueryTerm
+} from '$lib/catalogue/searchTerms';
+import { POTENTIAL_METHODS, type CofactorKind } from '$lib/schemas/vocabulary';
 import type { Database } from '../db/schema';
+import { readJson } from '../db/json';
 import { readCatalogueRevision } from '../db/revision';
 
 /*
@@ -15,16 +24,53 @@ import { readCatalogueRevision } from '../db/revision';
  * visibility included) and then reads the page's rows from SQLite by id, checking visibility
  * again; the protein and centre lists apply filters, visibility and paging in SQL.
  *
+ * Words are read by one module, `$lib/catalogue/searchTerms.ts`, both when text is indexed and
+ * when a query is read: cluster spellings, synonyms, two-word cofactor names, couples and DOIs.
+ * Besides centres and proteins, a word may match a potential's source (authors, year, PubMed
+ * ID; a DOI is looked up whole) or its method (label and abbreviations: EPR, PFV, SEC, MCD …),
+ * and a couple term matches potentials' couples: `match` says, per term, what it reaches, and
+ * the potential index tests each row against every term (`potentialIndex.ts`).
+ *
  * Both indexes follow the catalogue's revision counter: every approval bumps it inside its
  * transaction, and each search first folds in rows changed since the index last looked —
  * whether the change came from this process or another one (a seed script, say).
  */
 
-const tokenize = (text: string) => text.split(/[\s\-[\]()/,;:.]+/u).filter((t) => t.length > 0);
+const tokenize = searchWords;
+const asIs = (term: string) => term;
 
-/** Per word: a prefix only for the last (it may still be being typed); one typo in long words. */
-function wordOptions(isLast: boolean, word: string): SearchOptions {
-	return { prefix: isLast, fuzzy: word.length >= 5 ? 1 : false, maxFuzzy: 1 };
+/** Per word: a prefix when parseQuery says so (the last); one typo where it allows one. */
+function wordOptions(word: { prefix: boolean; fuzzy: boolean }): SearchOptions {
+	return {
+		prefix: word.prefix,
+		fuzzy: word.fuzzy ? 1 : false,
+		maxFuzzy: 1,
+		tokenize: (t) => [t],
+		processTerm: asIs
+	};
+}
+
+/** What one query term reaches; a potential matches the term when any of it is its own. */
+export interface TermMatch {
+	/** Centre and protein entry ids, with scores. */
+	centres: Map<number, number>;
+	proteins: Map<number, number>;
+	/** Source entry ids, with scores (the caller keeps only sources the reader may see). */
+	sources: Map<number, number>;
+	/** Method identifiers, with scores. */
+	methods: Map<string, number>;
+	/** A couple the potential's couple must match (`coupleMatches`). */
+	couple: CoupleKey | null;
+}
+
+/** Scores of a method or couple match, on the scale of minisearch's field scores. */
+const METHOD_SCORE = 2;
+
+interface SourceDocument {
+	id: number;
+	authors: string;
+	year: string;
+	pubmed: string;
 }
 
 interface ProteinDocument {
@@ -46,6 +92,7 @@ function proteinIndex() {
 	return new MiniSearch<ProteinDocument>({
 		fields: ['name', 'organism', 'accession'],
 		tokenize,
+		processTerm: asIs,
 		searchOptions: { boost: { name: 3, organism: 1.5, accession: 3 } }
 	});
 }
@@ -54,13 +101,28 @@ function centreIndex() {
 	return new MiniSearch<CentreDocument>({
 		fields: ['label', 'kind', 'ligation', 'accession'],
 		tokenize,
+		processTerm: asIs,
 		searchOptions: { boost: { label: 2.5, kind: 2, accession: 3 } }
 	});
 }
 
+function sourceIndex() {
+	return new MiniSearch<SourceDocument>({
+		fields: ['authors', 'year', 'pubmed'],
+		tokenize,
+		processTerm: asIs,
+		searchOptions: { boost: { authors: 2, year: 1, pubmed: 3 } }
+	});
+}
+
+/** Each method's words (label and abbreviations), from the vocabulary. */
+const METHOD_WORDS = POTENTIAL_METHODS.map((m) => ({ method: m, words: new Set(methodWords(m)) }));
+
 export class CentreSearch {
 	private proteins = proteinIndex();
 	private centres = centreIndex();
+	private sources = sourceIndex();
+	private sourcesByDoi = new Map<string, number[]>();
 	private proteinOf = new Map<number, number>();
 	private centresOf = new Map<number, Set<number>>();
 	private revision = -1;
@@ -106,15 +168,37 @@ export class CentreSearch {
 			if (!this.centresOf.has(c.protein_entry_id))
 				this.centresOf.set(c.protein_entry_id, new Set());
 			this.centresOf.get(c.protein_entry_id)?.add(c.id);
-			const kindLabel = COFACTOR_KIND_LABELS[c.cofactor_kind as CofactorKind] ?? c.cofactor_kind;
 			this.upsert(this.centres, {
 				id: c.id,
 				label: c.label,
-				kind: `${kindLabel} ${c.cofactor_kind}`,
+				kind: cofactorKindText(c.cofactor_kind as CofactorKind),
 				ligation: c.ligation ?? '',
 				accession: c.accession
 			});
 		}
+
+		// Sources are few beside potentials and carry no revision of their own: read them whole.
+		const sources = await db
+			.selectFrom('source')
+			.select(['entry_id as id', 'doi', 'pubmed_id', 'authors', 'year'])
+			.execute();
+		const index = sourceIndex();
+		const byDoi = new Map<string, number[]>();
+		index.addAll(
+			sources.map((s) => ({
+				id: s.id,
+				authors: readJson(s.authors).join(' ; '),
+				year: s.year === null ? '' : String(s.year),
+				pubmed: s.pubmed_id ?? ''
+			}))
+		);
+		for (const s of sources) {
+			if (!s.doi) continue;
+			const doi = s.doi.toLowerCase();
+			byDoi.set(doi, [...(byDoi.get(doi) ?? []), s.id]);
+		}
+		this.sources = index;
+		this.sourcesByDoi = byDoi;
 		this.revision = target;
 	}
 
@@ -123,27 +207,66 @@ export class CentreSearch {
 		else index.add(doc);
 	}
 
+	/** What each term of a query reaches (see `TermMatch`); an empty list for blank text. */
+	match(query: string): TermMatch[] {
+		return parseQuery(query).map((term) => this.matchTerm(term));
+	}
+
+	private matchTerm(term: QueryTerm): TermMatch {
+		const match: TermMatch = {
+			centres: new Map(),
+			proteins: new Map(),
+			sources: new Map(),
+			methods: new Map(),
+			couple: null
+		};
+		const scores = (results: { id: unknown; score: number }[]) =>
+			new Map(results.map((r) => [r.id as number, r.score]));
+		if (term.type === 'couple') {
+			match.couple = term.couple;
+		} else if (term.type === 'doi') {
+			for (const [doi, ids] of this.sourcesByDoi)
+				if (doi === term.doi || (term.doi.length >= 12 && doi.startsWith(term.doi)))
+					for (const id of ids) match.sources.set(id, 3);
+		} else {
+			const options = wordOptions(term);
+			match.centres = scores(this.centres.search(term.word, options));
+			match.proteins = scores(this.proteins.search(term.word, options));
+			match.sources = scores(this.sources.search(term.word, options));
+			for (const { method, words } of METHOD_WORDS) {
+				const hit =
+					words.has(term.word) ||
+					(term.prefix && term.word.length >= 3 && [...words].some((w) => w.startsWith(term.word)));
+				if (hit) match.methods.set(method, METHOD_SCORE);
+			}
+		}
+		return match;
+	}
+
 	/** Centre entry ids matching every word of the text, best first. */
 	search(query: string): number[] {
 		return this.searchScored(query).map((r) => r.id);
 	}
 
-	/** The same centres with their scores (the sum over words of centre and protein scores). */
+	/**
+	 * Centres matching every word of the text with their scores (the sum over words of centre
+	 * and protein scores), for the protein and centre lists. Terms only a potential can match
+	 * are left out there: a couple counts by its cluster ("[4Fe-4S]2+/1+" finds [4Fe-4S]
+	 * centres), a DOI, a bare charge pair, a method or an author not at all.
+	 */
 	searchScored(query: string): { id: number; score: number }[] {
-		const words = tokenize(query);
-		if (words.length === 0) return [];
-		const perWord = words.map((word, i) => {
-			const options = wordOptions(i === words.length - 1, word);
-			const scores = (results: { id: unknown; score: number }[]) =>
-				new Map(results.map((r) => [r.id as number, r.score]));
-			return {
-				centres: scores(this.centres.search(word, options)),
-				proteins: scores(this.proteins.search(word, options))
-			};
+		const perWord = parseQuery(query).flatMap((term): TermMatch[] => {
+			if (term.type === 'word') return [this.matchTerm(term)];
+			if (term.type === 'couple' && /^\d+fe\d+s$/.test(term.couple.prefix))
+				return [
+					this.matchTerm({ type: 'word', word: term.couple.prefix, prefix: false, fuzzy: false })
+				];
+			return [];
 		});
+		if (perWord.length === 0) return [];
 
 		// Candidates come from the word with the fewest centres it can reach.
-		const reach = (w: (typeof perWord)[number]) =>
+		const reach = (w: TermMatch) =>
 			w.centres.size +
 			[...w.proteins.keys()].reduce((n, p) => n + (this.centresOf.get(p)?.size ?? 0), 0);
 		const seed = perWord.reduce((best, w) => (reach(w) < reach(best) ? w : best));
@@ -171,7 +294,7 @@ export class CentreSearch {
 	}
 
 	get documentCount(): number {
-		return this.proteins.documentCount + this.centres.documentCount;
+		return this.proteins.documentCount + this.centres.documentCount + this.sources.documentCount;
 	}
 }
 

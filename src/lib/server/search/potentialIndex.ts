@@ -1,5 +1,6 @@
 import { sql, type Kysely } from 'kysely';
 import type { FacetCount } from '$lib/catalogue/dto';
+import { coupleKey, coupleMatches, type CoupleKey } from '$lib/catalogue/searchTerms';
 import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
 import { accessionNumber } from '$lib/schemas/accession';
 import type { KeyValue, RowKey } from '$lib/schemas/pagination';
@@ -73,7 +74,16 @@ export interface Columns {
 	centreLabels: Map<number, string>;
 	couple: Int32Array;
 	couples: string[];
+	/** Each couple's comparable form (`coupleKey`), by code. */
+	coupleKeys: (CoupleKey | null)[];
+	/** The source entry id of each row, 0 for none. */
+	source: Int32Array;
 	rowsOfCentre: Map<number, number[]>;
+	rowsOfProtein: Map<number, number[]>;
+	rowsOfSource: Map<number, number[]>;
+	/** Rows by method code and by couple code. */
+	rowsOfMethod: number[][];
+	rowsOfCouple: number[][];
 	orders: Map<OrderKey, { rows: Int32Array; nonNull: number }>;
 }
 
@@ -81,8 +91,8 @@ export interface IndexQuery {
 	filter: Omit<PotentialFilter, 'q'>;
 	/** Exact accession from the text box, if it held one. */
 	accession?: number;
-	/** Centres found by text with their scores, if the text was words. */
-	rankedCentres?: RankedCentre[];
+	/** Terms of the text, if it was words: every row must match each (and is ranked by them). */
+	text?: readonly TextTerm[];
 	sort: PotentialSort;
 	order: 'asc' | 'desc';
 	limit: number;
@@ -92,10 +102,28 @@ export interface IndexQuery {
 	before?: RowKey;
 }
 
-/** A centre the text search found, and its score (higher is better). */
-export interface RankedCentre {
-	id: number;
-	score: number;
+/**
+ * One term of a text query and what it reached (search/centreSearch.ts `match`): a row matches
+ * the term when its centre, protein, source or method is among these or its couple matches;
+ * its score for the term is the sum of those scores.
+ */
+export interface TextTerm {
+	centres?: ReadonlyMap<number, number>;
+	proteins?: ReadonlyMap<number, number>;
+	/** Sources the reader may see only (the caller filters them). */
+	sources?: ReadonlyMap<number, number>;
+	/** Method identifiers. */
+	methods?: ReadonlyMap<string, number>;
+	couple?: CoupleKey;
+}
+
+/** The score a couple match adds, on the scale of the text scores. */
+const COUPLE_SCORE = 3;
+
+/** Each row's text score (0: no match) and the rows that matched, in no order. */
+interface TextScores {
+	score: Float64Array;
+	rows: number[];
 }
 
 function codeOf(values: string[], codes: Map<string, number>, value: string): number {
@@ -124,7 +152,8 @@ type LoadedRow = [
 	string,
 	string | null,
 	number | null,
-	string
+	string,
+	number | null
 ];
 
 /**
@@ -178,7 +207,7 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	// keeps NULLs and every digit of the numbers. The order is explicit: by entry id.
 	const { rows } = await sql<{ potentials: string | null }>`select json_group_array(
 		json_array(entry_id, centre_entry_id, protein_entry_id, em_mv_she, ph, temperature_k,
-			cofactor_kind, method, organism, public_from, group_id, couple)
+			cofactor_kind, method, organism, public_from, group_id, couple, source_entry_id)
 		order by entry_id) as potentials
 		from potential`.execute(db);
 	const loaded = JSON.parse(rows[0]?.potentials ?? '[]') as LoadedRow[];
@@ -203,7 +232,13 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 		centreLabels: new Map(),
 		couple: new Int32Array(n),
 		couples: [],
+		coupleKeys: [],
+		source: new Int32Array(n),
 		rowsOfCentre: new Map(),
+		rowsOfProtein: new Map(),
+		rowsOfSource: new Map(),
+		rowsOfMethod: [],
+		rowsOfCouple: [],
 		orders: new Map()
 	};
 	const kindCodes = new Map<string, number>();
@@ -212,8 +247,22 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	const dates = new Map<string, number>();
 	const coupleCodes = new Map<string, number>();
 	for (let i = 0; i < n; i++) {
-		const [entry, centre, protein, em, ph, t, kind, method, organism, publicFrom, group, couple] =
-			loaded[i]!;
+		const [
+			entry,
+			centre,
+			protein,
+			em,
+			ph,
+			t,
+			kind,
+			method,
+			organism,
+			publicFrom,
+			group,
+			couple,
+			source
+		] = loaded[i]!;
+		c.source[i] = source ?? 0;
 		c.couple[i] = codeOf(c.couples, coupleCodes, couple);
 		c.entryId[i] = entry;
 		c.centreId[i] = centre;
@@ -242,6 +291,20 @@ export async function loadColumns(db: Kysely<Database>): Promise<Columns> {
 	}
 	for (const rowsOfCentre of c.rowsOfCentre.values())
 		rowsOfCentre.sort((a, b) => c.entryId[a]! - c.entryId[b]!);
+	const push = <K>(map: Map<K, number[]>, key: K, r: number) => {
+		const list = map.get(key);
+		if (list) list.push(r);
+		else map.set(key, [r]);
+	};
+	c.rowsOfMethod = c.methods.map(() => []);
+	c.rowsOfCouple = c.couples.map(() => []);
+	for (let i = 0; i < n; i++) {
+		push(c.rowsOfProtein, c.proteinId[i]!, i);
+		if (c.source[i] !== 0) push(c.rowsOfSource, c.source[i]!, i);
+		c.rowsOfMethod[c.method[i]!]!.push(i);
+		c.rowsOfCouple[c.couple[i]!]!.push(i);
+	}
+	c.coupleKeys = c.couples.map((couple) => coupleKey(couple));
 
 	// The names the text orders sort by, as the potential rows carry them (one per protein and
 	// centre: refreshPotentialRows keeps every row of one in step).
@@ -340,11 +403,15 @@ export class PotentialIndex {
 		return this.columns;
 	}
 
-	/** A test of one row against the reader's visibility and every filter. */
-	private predicate(
+	/**
+	 * Tests of one row: against the reader's visibility, the text and every filter but the three
+	 * facets (`rest`), and against each facet's filter. A row matches when it passes all four.
+	 */
+	private tests(
 		query: Pick<IndexQuery, 'filter' | 'accession'>,
-		visible: RowVisibility
-	): (r: number) => boolean {
+		visible: RowVisibility,
+		text: TextScores | null
+	) {
 		const c = this.data;
 		const f = query.filter;
 		const codes = (values: string[], wanted: readonly string[] | undefined) =>
@@ -360,30 +427,112 @@ export class PotentialIndex {
 		const hasEm = f.emMin !== undefined || f.emMax !== undefined;
 		const hasPh = f.phMin !== undefined || f.phMax !== undefined;
 		const hasT = f.tMin !== undefined || f.tMax !== undefined;
-		return (r) =>
-			visible(c.publicFrom[r]!, c.group[r] === 0 ? null : c.group[r]!) &&
-			(kinds === null || kinds.has(c.kind[r]!)) &&
-			(methods === null || methods.has(c.method[r]!)) &&
-			(organisms === null || organisms.has(c.organism[r]!)) &&
-			(protein === null || c.proteinId[r] === protein) &&
-			(centre === null || c.centreId[r] === centre) &&
-			(accession === null ||
-				c.entryId[r] === accession ||
-				c.centreId[r] === accession ||
-				c.proteinId[r] === accession) &&
-			(!hasEm || within(c.em[r]!, f.emMin, f.emMax)) &&
-			(!hasPh || (!Number.isNaN(c.ph[r]) && within(c.ph[r]!, f.phMin, f.phMax))) &&
-			(!hasT || (!Number.isNaN(c.temperature[r]) && within(c.temperature[r]!, f.tMin, f.tMax)));
+		const score = text?.score ?? null;
+		return {
+			rest: (r: number) =>
+				(score === null || score[r]! > 0) &&
+				visible(c.publicFrom[r]!, c.group[r] === 0 ? null : c.group[r]!) &&
+				(protein === null || c.proteinId[r] === protein) &&
+				(centre === null || c.centreId[r] === centre) &&
+				(accession === null ||
+					c.entryId[r] === accession ||
+					c.centreId[r] === accession ||
+					c.proteinId[r] === accession) &&
+				(!hasEm || within(c.em[r]!, f.emMin, f.emMax)) &&
+				(!hasPh || (!Number.isNaN(c.ph[r]) && within(c.ph[r]!, f.phMin, f.phMax))) &&
+				(!hasT || (!Number.isNaN(c.temperature[r]) && within(c.temperature[r]!, f.tMin, f.tMax))),
+			kind: (r: number) => kinds === null || kinds.has(c.kind[r]!),
+			method: (r: number) => methods === null || methods.has(c.method[r]!),
+			organism: (r: number) => organisms === null || organisms.has(c.organism[r]!)
+		};
+	}
+
+	/** A test of one row against the reader's visibility, the text and every filter. */
+	private predicate(
+		query: Pick<IndexQuery, 'filter' | 'accession'>,
+		visible: RowVisibility,
+		text: TextScores | null
+	): (r: number) => boolean {
+		const t = this.tests(query, visible, text);
+		return (r) => t.rest(r) && t.kind(r) && t.method(r) && t.organism(r);
+	}
+
+	/**
+	 * Each row's score for the text: the sum over terms of what the row matched, 0 when a term
+	 * matched nothing of it. Candidates come from the term that reaches the fewest rows (all rows
+	 * when even that one reaches more than half).
+	 */
+	private textScores(terms: readonly TextTerm[]): TextScores {
+		const c = this.data;
+		const prepared = terms.map((t) => {
+			const methodScore = new Float64Array(c.methods.length);
+			c.methods.forEach((m, code) => (methodScore[code] = t.methods?.get(m) ?? 0));
+			const coupleScore = new Float64Array(c.couples.length);
+			if (t.couple) {
+				const wanted = t.couple;
+				c.coupleKeys.forEach((k, code) => {
+					if (k && coupleMatches(wanted, k)) coupleScore[code] = COUPLE_SCORE;
+				});
+			}
+			const lists: (readonly number[])[] = [];
+			for (const id of t.centres?.keys() ?? []) lists.push(c.rowsOfCentre.get(id) ?? []);
+			for (const id of t.proteins?.keys() ?? []) lists.push(c.rowsOfProtein.get(id) ?? []);
+			for (const id of t.sources?.keys() ?? []) lists.push(c.rowsOfSource.get(id) ?? []);
+			methodScore.forEach((v, code) => v > 0 && lists.push(c.rowsOfMethod[code]!));
+			coupleScore.forEach((v, code) => v > 0 && lists.push(c.rowsOfCouple[code]!));
+			const reach = lists.reduce((sum, l) => sum + l.length, 0);
+			return { t, methodScore, coupleScore, lists, reach };
+		});
+		const score = new Float64Array(c.n);
+		const rows: number[] = [];
+		const rowScore = (r: number) => {
+			let total = 0;
+			for (const { t, methodScore, coupleScore } of prepared) {
+				const source = c.source[r]!;
+				const s =
+					(t.centres?.get(c.centreId[r]!) ?? 0) +
+					(t.proteins?.get(c.proteinId[r]!) ?? 0) +
+					(source !== 0 ? (t.sources?.get(source) ?? 0) : 0) +
+					methodScore[c.method[r]!]! +
+					coupleScore[c.couple[r]!]!;
+				if (!(s > 0)) return 0;
+				total += s;
+			}
+			return total;
+		};
+		if (prepared.length === 0) return { score, rows };
+		const seed = prepared.reduce((best, p) => (p.reach < best.reach ? p : best));
+		const consider = (r: number) => {
+			if (score[r] !== 0) return;
+			const s = rowScore(r);
+			if (s > 0) {
+				score[r] = s;
+				rows.push(r);
+			}
+		};
+		if (seed.reach > c.n / 2) for (let r = 0; r < c.n; r++) consider(r);
+		else for (const list of seed.lists) for (const r of list) consider(r);
+		return { score, rows };
 	}
 
 	/** The query's order as positions: a sorted order read forwards or backwards, or the ranking. */
-	private sequence(query: IndexQuery, scores: Map<number, number> | null): Sequence {
+	private sequence(
+		query: IndexQuery,
+		text: TextScores | null,
+		test: (r: number) => boolean
+	): Sequence {
 		const c = this.data;
-		if (query.sort === 'relevance' && scores) {
-			// Centres best first (ties by id), a centre's rows by accession; desc reverses it all.
-			const ranked = [...scores].sort((a, b) => b[1] - a[1] || a[0] - b[0]);
-			const rows: number[] = [];
-			for (const [centre] of ranked) rows.push(...(c.rowsOfCentre.get(centre) ?? []));
+		if (query.sort === 'relevance' && text) {
+			// Best score first, ties by centre, then by accession; desc reverses it all.
+			const score = text.score;
+			const rows = text.rows
+				.filter(test)
+				.sort(
+					(a, b) =>
+						score[b]! - score[a]! ||
+						c.centreId[a]! - c.centreId[b]! ||
+						c.entryId[a]! - c.entryId[b]!
+				);
 			if (query.order === 'desc') rows.reverse();
 			return { length: rows.length, at: (i) => rows[i]! };
 		}
@@ -399,7 +548,7 @@ export class PotentialIndex {
 	}
 
 	/** A row's sort key in the query's sort (see catalogue/potentials.ts for the shapes). */
-	private keyOf(sort: PotentialSort, r: number, scores: Map<number, number> | null): RowKey {
+	private keyOf(sort: PotentialSort, r: number, text: TextScores | null): RowKey {
 		const c = this.data;
 		const id = c.entryId[r]!;
 		const orNull = (v: number) => (Number.isNaN(v) ? null : v);
@@ -407,7 +556,7 @@ export class PotentialIndex {
 		const protein = () => c.proteinNames.get(c.proteinId[r]!) ?? '';
 		const centre = () => c.centreLabels.get(c.centreId[r]!) ?? '';
 		const couple = () => c.couples[c.couple[r]!]!;
-		switch (sort === 'relevance' && !scores ? 'protein' : sort) {
+		switch (sort === 'relevance' && !text ? 'protein' : sort) {
 			case 'accession':
 				return { key: [], id };
 			case 'em':
@@ -427,7 +576,7 @@ export class PotentialIndex {
 			case 'method':
 				return { key: [c.methods[c.method[r]!]!], id };
 			case 'relevance':
-				return { key: [scores?.get(c.centreId[r]!) ?? 0, c.centreId[r]!], id };
+				return { key: [text?.score[r] ?? 0, c.centreId[r]!], id };
 		}
 	}
 
@@ -437,15 +586,10 @@ export class PotentialIndex {
 	 * relevance), missing values last, then the accession; desc turns every part round but
 	 * keeps missing values last.
 	 */
-	private compareToKey(
-		query: IndexQuery,
-		scores: Map<number, number> | null,
-		r: number,
-		at: RowKey
-	): number {
+	private compareToKey(query: IndexQuery, text: TextScores | null, r: number, at: RowKey): number {
 		const sign = query.order === 'desc' ? -1 : 1;
-		const own = this.keyOf(query.sort, r, scores);
-		const relevance = query.sort === 'relevance' && scores !== null;
+		const own = this.keyOf(query.sort, r, text);
+		const relevance = query.sort === 'relevance' && text !== null;
 		for (let i = 0; i < own.key.length; i++) {
 			const a = own.key[i] ?? null;
 			const b = at.key[i] ?? null;
@@ -462,18 +606,16 @@ export class PotentialIndex {
 	/** Total matches and the entry ids of one page. Call ensureCurrent() first. */
 	query(query: IndexQuery, visible: RowVisibility): IndexResult {
 		const c = this.data;
-		const test = this.predicate(query, visible);
-		const scores = query.rankedCentres
-			? new Map(query.rankedCentres.map((r) => [r.id, r.score]))
-			: null;
-		const seq = this.sequence(query, scores);
+		const text = query.text ? this.textScores(query.text) : null;
+		const test = this.predicate(query, visible, text);
+		const seq = this.sequence(query, text, test);
 		/** The first position whose row is past the key (or, `orSame`, at it). */
 		const boundary = (at: RowKey, orSame: boolean) => {
 			let lo = 0;
 			let hi = seq.length;
 			while (lo < hi) {
 				const mid = (lo + hi) >>> 1;
-				const d = this.compareToKey(query, scores, seq.at(mid), at);
+				const d = this.compareToKey(query, text, seq.at(mid), at);
 				if (d > 0 || (orSame && d === 0)) hi = mid;
 				else lo = mid + 1;
 			}
@@ -533,31 +675,46 @@ export class PotentialIndex {
 			total,
 			offset: before,
 			page: page.map((r) => c.entryId[r]!),
-			first: page.length > 0 ? this.keyOf(query.sort, page[0]!, scores) : null,
-			last: page.length > 0 ? this.keyOf(query.sort, page.at(-1)!, scores) : null
+			first: page.length > 0 ? this.keyOf(query.sort, page[0]!, text) : null,
+			last: page.length > 0 ? this.keyOf(query.sort, page.at(-1)!, text) : null
 		};
 	}
 
-	/** Visible potentials per cofactor kind, organism and method, most first. */
-	facets(visible: RowVisibility): {
+	/**
+	 * Counts per cofactor kind, organism and method among the rows the query matches, most
+	 * first: what ticking one more choice would give. Each facet's counts apply every filter but
+	 * that facet's own (choices within one facet are alternatives), so a chosen kind's siblings
+	 * keep their counts; `total` applies them all. Only rows the reader may see are counted, and
+	 * only values with a count are listed.
+	 */
+	facets(
+		query: Pick<IndexQuery, 'filter' | 'accession' | 'text'>,
+		visible: RowVisibility
+	): {
 		kinds: FacetCount[];
 		organisms: FacetCount[];
 		methods: FacetCount[];
 		total: number;
 	} {
 		const c = this.data;
-		const test = this.predicate({ filter: {} }, visible);
+		const text = query.text ? this.textScores(query.text) : null;
+		const t = this.tests(query, visible, text);
 		const kinds = new Array<number>(c.kinds.length).fill(0);
 		const methods = new Array<number>(c.methods.length).fill(0);
 		const organisms = new Array<number>(c.organisms.length).fill(0);
 		let total = 0;
-		for (let r = 0; r < c.n; r++) {
-			if (!test(r)) continue;
-			total++;
-			kinds[c.kind[r]!]!++;
-			methods[c.method[r]!]!++;
-			organisms[c.organism[r]!]!++;
-		}
+		const count = (r: number) => {
+			if (!t.rest(r)) return;
+			const k = t.kind(r);
+			const m = t.method(r);
+			const o = t.organism(r);
+			if (m && o) kinds[c.kind[r]!]!++;
+			if (k && o) methods[c.method[r]!]!++;
+			if (k && m) organisms[c.organism[r]!]!++;
+			if (k && m && o) total++;
+		};
+		if (text) for (const r of text.rows) count(r);
+		else for (let r = 0; r < c.n; r++) count(r);
 		const counts = (values: string[], n: number[]) =>
 			values
 				.map((value, i) => ({ value, count: n[i] ?? 0 }))
