@@ -10,3 +10,5 @@
 const holder = globalThis as { __zod_globalConfig?: { jitless?: boolean } };
 holder.__zod_globalConfig ??= {};
 holder.__zod_globalConfig.jitless = true;
+
+export {};
