@@ -17,7 +17,7 @@ describe('typical potential ranges', () => {
 		const w = checkTypicalRange('fe4s4', '[4Fe-4S]2+/1+', 400);
 		expect(w?.message).toContain('above the typical range');
 		expect(w?.message).toContain('-750 to -50');
-		expect(w?.range.source).toMatch(/from memory/);
+		expect(w?.range.source).toMatch(/typical range from a published survey.*bounds approximate/);
 	});
 	it('has no range for "other" or an unknown couple, so it never warns there', () => {
 		expect(typicalRange('other', 'X/Y')).toBeNull();
