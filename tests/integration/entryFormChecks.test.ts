@@ -29,7 +29,8 @@ beforeAll(async () => {
 	({ db, remove } = await createTempDatabase());
 	hidden = await buildHiddenFixtures(db);
 	member = { groupIds: [hidden.groupId] };
-});
+	// Migrating and loading the demo scenario takes seconds on a shared machine.
+}, 60_000);
 afterAll(async () => remove());
 
 describe('suggestions for reference fields', () => {
@@ -111,21 +112,13 @@ describe('the check step of entry forms', () => {
 		role: 'contributor',
 		groupIds
 	});
-	const potential = (value: number): EntryData => ({
+	const potential = (value: number, centreAccession = hidden.publicCentre): EntryData => ({
 		kind: 'potential',
-		data: potentialAtPh7(hidden.publicCentre, hidden.publicCentreCouple, value)
+		data: potentialAtPh7(centreAccession, hidden.publicCentreCouple, value)
 	});
 
 	it('names the references a submission would be refused for', async () => {
-		const r = await checkFormEntry(
-			db,
-			contributor([]),
-			{
-				kind: 'potential',
-				data: { ...potential(-300).data, centreAccession: hidden.hiddenCentre }
-			},
-			null
-		);
+		const r = await checkFormEntry(db, contributor([]), potential(-300, hidden.hiddenCentre), null);
 		expect(r.errors.centreAccession?.[0]).toMatch(/not visible to you/);
 		expect(r.check.warnings).toEqual([]);
 	});

@@ -1,3 +1,4 @@
+import { formatMv } from '$lib/format';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 
 /*
@@ -108,6 +109,7 @@ export function checkTypicalRange(
 	return {
 		emMvShe,
 		range: r,
-		message: `${emMvShe} mV vs SHE is ${side} the typical range for ${couple} (${r.minMv} to ${r.maxMv} mV vs SHE). Check the sign, the unit and the reference electrode.`
+		// Numbers as shown everywhere: a Unicode minus, the unit after a no-break space.
+		message: `${formatMv(emMvShe, 1)} vs SHE is ${side} the typical range for ${couple} (${formatMv(r.minMv)} to ${formatMv(r.maxMv)} vs SHE). Check the sign, the unit and the reference electrode.`
 	};
 }
