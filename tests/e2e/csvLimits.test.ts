@@ -95,7 +95,7 @@ describe('hostile CSV files on the upload page, in Chromium', () => {
 		await page.getByTestId('preview-error').waitFor();
 		expect((await page.getByTestId('preview-error').textContent())?.trim()).toBe(WIDE_MESSAGE);
 		expect(await page.getByTestId('csv-preview').count()).toBe(0);
-		await page.getByRole('button', { name: /Check the file/ }).click();
+		await page.getByRole('button', { name: 'Check only' }).click();
 		await page.locator('[data-field-error=file]').waitFor();
 		expect(await page.locator('[data-field-error=file]').textContent()).toBe(WIDE_MESSAGE);
 		expect(await page.getByTestId('upload-report').count()).toBe(0);

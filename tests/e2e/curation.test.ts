@@ -91,6 +91,9 @@ describe('curation, end to end', () => {
 			uncertaintyMv: '10',
 			changeNote: 'From our 2026 titration series'
 		});
+		// Warnings are shown before anything is sent; submitting again sends it as it is.
+		await contributor.getByRole('button', { name: 'Submit for review' }).click();
+		await contributor.getByTestId('unseen-warnings').waitFor();
 		await contributor.getByRole('button', { name: 'Submit for review' }).click();
 		await contributor.getByTestId('notice').waitFor();
 		submissionUrl = contributor.url().split('?')[0] ?? '';
@@ -132,7 +135,7 @@ describe('curation, end to end', () => {
 		await contributor.goto(submissionUrl);
 		expect(await contributor.getByTestId('comments').textContent()).toContain('check the sign');
 		await contributor.locator('[name=reportedValue]').fill(String(target.emMvShe - 5));
-		await contributor.getByRole('button', { name: 'Save and resubmit' }).click();
+		await contributor.getByRole('button', { name: 'Submit for review' }).click();
 		await contributor.getByTestId('notice').waitFor();
 		expect(await contributor.locator('[data-warning]').count()).toBe(0);
 

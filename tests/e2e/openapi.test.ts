@@ -117,6 +117,17 @@ describe('GET /api/v1/openapi.json (production build)', () => {
 describe('answers of every operation validate against the document', () => {
 	const accessions: Record<string, string> = {};
 
+	it('suggestions for reference fields (the document example finds one; a bad type is a 400)', async () => {
+		const res = await sample(
+			'suggestEntries',
+			`/api/v1/suggestions${exampleQuery('suggestEntries')}`
+		);
+		expect(res.status).toBe(200);
+		expect(((await res.json()) as { items: unknown[] }).items.length).toBeGreaterThan(0);
+		const bad = await sample('suggestEntries', '/api/v1/suggestions?type=potential&q=N2');
+		expect(bad.status).toBe(400);
+	});
+
 	it('lists: potentials, proteins, centres, spin records, distances (JSON and CSV)', async () => {
 		for (const id of [
 			'listPotentials',

@@ -8,6 +8,7 @@ import '../support/fast-check';
 import { launchChromium, signedInPage } from '../support/browser';
 import { signInCookie } from '../support/session';
 import { UPLOAD_KINDS } from '$lib/kinds';
+import { EXAMPLE_ROW_MESSAGE, EXAMPLE_ROW_NOTE } from '$lib/kinds/csvColumns';
 
 // The CSV story in Chromium: three errors, the report, the fix, a dry run, the commit, the
 // curator's approval, and the values in search. Plus limits and templates over HTTP.
@@ -36,7 +37,7 @@ describe('CSV upload, end to end', () => {
 			.setInputFiles('tests/fixtures/csv/potentials-bad.csv');
 		await contributor.getByTestId('csv-preview').waitFor();
 		expect(await contributor.getByTestId('csv-preview').textContent()).toContain('4 data rows');
-		await contributor.getByRole('button', { name: /Check the file/ }).click();
+		await contributor.getByRole('button', { name: 'Check only' }).click();
 		await contributor.getByTestId('error-count').waitFor();
 		expect(await contributor.getByTestId('error-count').textContent()).toContain('3 error(s)');
 		const errors = await contributor
@@ -62,13 +63,13 @@ describe('CSV upload, end to end', () => {
 		writeFileSync(path, fixed);
 		await contributor.goto('/submissions/upload');
 		await contributor.locator('input[type=file]').setInputFiles(path);
-		await contributor.getByRole('button', { name: /Check the file/ }).click();
+		await contributor.getByRole('button', { name: 'Check only' }).click();
 		await contributor.getByTestId('would-create').waitFor();
 		expect(
 			(await contributor.getByTestId('would-create').textContent())?.replace(/\s+/g, ' ')
 		).toContain('4 potentials');
 		expect(await contributor.getByTestId('dry-run-preview').locator('tbody tr').count()).toBe(4);
-		await contributor.getByRole('button', { name: /Commit for review/ }).click();
+		await contributor.getByRole('button', { name: 'Submit for review' }).click();
 		await contributor.waitForURL(/\/submissions\/\d+\?uploaded/);
 		submissionId = new URL(contributor.url()).pathname.split('/').pop() ?? '';
 		expect(await contributor.getByTestId('batch-rows').locator('tbody tr').count()).toBe(4);
@@ -76,7 +77,7 @@ describe('CSV upload, end to end', () => {
 		// The same file again is recognised.
 		await contributor.goto('/submissions/upload');
 		await contributor.locator('input[type=file]').setInputFiles(path);
-		await contributor.getByRole('button', { name: /Check the file/ }).click();
+		await contributor.getByRole('button', { name: 'Check only' }).click();
 		await contributor.getByTestId('previous-upload').waitFor();
 		expect(await contributor.getByTestId('previous-upload').textContent()).toContain(
 			`#${submissionId}`
@@ -163,27 +164,40 @@ describe('limits, templates and the column reference', () => {
 			{ numRuns: 60 }
 		);
 	});
-	it('offers templates that pass their own check', async () => {
+	it('offers templates whose example row a check refuses as data, and only for that', async () => {
 		const cookie = await signInCookie(
 			base,
 			'contributor@demo.hopline.test',
 			'demo-contributor-pass'
 		);
+		const check = async (kind: string, text: string) => {
+			const form = new FormData();
+			form.set('kind', kind);
+			form.set('file', new Blob([text], { type: 'text/csv' }), `${kind}.csv`);
+			const res = await fetch(`${base}/api/v1/uploads/check`, {
+				method: 'POST',
+				headers: { origin: base, cookie },
+				body: form
+			});
+			return (await res.json()) as {
+				errorCount: number;
+				issues: { row: number; column: string; message: string; severity: string }[];
+			};
+		};
 		// Every upload kind, a new one included (the table of kinds is the one list of them).
 		expect(UPLOAD_KINDS.length).toBeGreaterThanOrEqual(4);
 		for (const kind of UPLOAD_KINDS) {
 			const res = await fetch(`${base}/csv/templates/${kind}.csv`);
 			expect(res.headers.get('content-type')).toContain('text/csv');
-			const form = new FormData();
-			form.set('kind', kind);
-			form.set('file', new Blob([await res.text()], { type: 'text/csv' }), `${kind}.csv`);
-			const check = await fetch(`${base}/api/v1/uploads/check`, {
-				method: 'POST',
-				headers: { origin: base, cookie },
-				body: form
-			});
-			const body = (await check.json()) as { errorCount: number; issues: unknown[] };
-			expect(body.errorCount, `${kind}: ${JSON.stringify(body.issues)}`).toBe(0);
+			const template = await res.text();
+			const body = await check(kind, template);
+			const errors = body.issues.filter((i) => i.severity === 'error');
+			expect(errors, `${kind}: ${JSON.stringify(body.issues)}`).toEqual([
+				expect.objectContaining({ row: 2, column: 'note', message: EXAMPLE_ROW_MESSAGE })
+			]);
+			// The rest of the row is well formed: without the mark it passes.
+			const unmarked = await check(kind, template.replace(EXAMPLE_ROW_NOTE, 'our own row'));
+			expect(unmarked.errorCount, `${kind}: ${JSON.stringify(unmarked.issues)}`).toBe(0);
 		}
 	});
 	it('lists every column with its unit and allowed values', async () => {

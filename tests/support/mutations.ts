@@ -189,7 +189,7 @@ export const MUTATIONS: Mutation[] = [
 		allowed: invalid
 	},
 	// Curation: harmless bodies (empty forms, unknown submissions) that pass the guard and fail after it.
-	...(['save', 'submit', 'lookup'] as const).map((name) => ({
+	...(['save', 'submit', 'check', 'lookup'] as const).map((name) => ({
 		file: '(app)/submissions/new/[kind=kind]/+page.server.ts',
 		name,
 		url: `/submissions/new/potential?/${name}`,
@@ -197,7 +197,7 @@ export const MUTATIONS: Mutation[] = [
 		body: {},
 		allowed: invalid
 	})),
-	...(['save', 'submit', 'lookup', 'withdraw', 'comment'] as const).map((name) => ({
+	...(['save', 'submit', 'check', 'lookup', 'withdraw', 'comment'] as const).map((name) => ({
 		file: '(app)/submissions/[id=id]/+page.server.ts',
 		name,
 		url: `/submissions/999999?/${name}`,

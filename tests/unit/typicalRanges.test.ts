@@ -16,8 +16,10 @@ describe('typical potential ranges', () => {
 	it('warns about a sign slip, naming the range and its source', () => {
 		const w = checkTypicalRange('fe4s4', '[4Fe-4S]2+/1+', 400);
 		expect(w?.message).toContain('above the typical range');
-		expect(w?.message).toContain('-750 to -50');
-		expect(w?.range.source).toMatch(/from memory/);
+		// Unicode minus and a no-break space before the unit, as every number on screen.
+		expect(w?.message).toContain('(−750\u00a0mV to −50\u00a0mV vs SHE)');
+		expect(w?.message).toMatch(/^400\u00a0mV vs SHE is above/);
+		expect(w?.range.source).toMatch(/typical range from a published survey.*bounds approximate/);
 	});
 	it('has no range for "other" or an unknown couple, so it never warns there', () => {
 		expect(typicalRange('other', 'X/Y')).toBeNull();

@@ -1,6 +1,6 @@
 import { ZERO_CELSIUS_K } from '$lib/science/constants';
 import { KINDS, type EntryKind } from '$lib/kinds';
-import { readDecimal } from '$lib/schemas/decimal';
+import { NOT_A_DECIMAL, readDecimal } from '$lib/schemas/decimal';
 
 /*
  * How the strings of an entry form (laid out by the kind's module, src/lib/kinds) become the
@@ -15,14 +15,24 @@ export interface FormReading {
 	errors: Record<string, string[]>;
 }
 
-/** A number typed into an entry form or a CSV cell (decimal commas are handled by the caller). */
+/**
+ * A number in a CSV cell (the cell reader turns a semicolon file's decimal commas into points
+ * first). Forms read with `readDecimal`, which takes a decimal comma itself.
+ */
 export function readNumber(text: string): number | null {
 	return readDecimal(text, { decimalComma: false });
 }
 
-export function readTemperature(text: string): number | null {
+/**
+ * A temperature in K, or in °C when the text says so ("25 °C", "25,5 ℃"). Forms pass
+ * `decimalComma: true`; CSV cells arrive with their decimal commas already read.
+ */
+export function readTemperature(
+	text: string,
+	options: { decimalComma?: boolean } = {}
+): number | null {
 	const match = /^(.*?)\s*(°\s*C|℃|C|K)?$/i.exec(text.trim());
-	const value = readNumber(match?.[1] ?? '');
+	const value = readDecimal(match?.[1] ?? '', { decimalComma: options.decimalComma ?? false });
 	if (value === null) return null;
 	const celsius = /c|℃/i.test(match?.[2] ?? '');
 	const kelvin = celsius ? value + ZERO_CELSIUS_K : value;
@@ -37,6 +47,28 @@ function splitList(text: string, byLine: boolean): string[] {
 		.filter((s) => s !== '');
 }
 
+/**
+ * The numbers of a typed list, as text, and how to read each. Commas separate the items unless
+ * the items are already separated by spaces or semicolons and no decimal point is written: then
+ * a comma inside an item is a decimal comma ("2,05 1,94 1,89" is three g-values; "2.05, 1.94",
+ * "45,48,51" and "10.1,-4.2,33" are lists as before).
+ */
+export function splitNumberList(text: string): { items: string[]; decimalComma: boolean } {
+	const bySpace = text
+		.trim()
+		.split(/;|\s+|,(?=\s)/)
+		.map((s) => s.trim())
+		.filter((s) => s !== '');
+	const decimalComma =
+		!text.includes('.') && bySpace.length > 1 && bySpace.some((s) => /\d,\d/.test(s));
+	return { items: decimalComma ? bySpace : splitList(text, false), decimalComma };
+}
+
+/** A required choice left empty: what to choose, in the field's own words. */
+export function chooseMessage(label: string): string {
+	return `choose the ${label.toLowerCase()}`;
+}
+
 /** Reads a submitted form into the shape of the kind's input schema. */
 export function readEntryForm(kind: EntryKind, form: Record<string, string>): FormReading {
 	const value: Record<string, unknown> = {};
@@ -44,27 +76,38 @@ export function readEntryForm(kind: EntryKind, form: Record<string, string>): Fo
 	const fail = (name: string, message: string) => (errors[name] = [message]);
 	for (const f of KINDS[kind].formFields) {
 		const text = (form[f.name] ?? '').trim();
+		// A required choice starts empty ("choose…") so that no default slips in unseen; left
+		// empty, it is named here rather than with the schema's bare "required".
+		if (text === '' && f.type === 'select' && f.required) {
+			fail(f.name, chooseMessage(f.label));
+			continue;
+		}
 		// Blanks stay absent: the schema reports a required one as missing and gives an
 		// optional one its default (null, an empty list, n = 1).
 		if (text === '') continue;
 		switch (f.type) {
 			case 'number': {
-				const n = readNumber(text);
-				if (n === null) fail(f.name, `expected a number, got "${text}"`);
+				// The one reading of a typed number: Unicode minus, decimal comma, spaces.
+				const n = readDecimal(text);
+				if (n === null) fail(f.name, `${NOT_A_DECIMAL}; got "${text}"`);
 				else value[f.name] = n;
 				break;
 			}
 			case 'temperature': {
-				const k = readTemperature(text);
+				const k = readTemperature(text, { decimalComma: true });
 				if (k === null)
 					fail(f.name, `expected a temperature such as 298 or "25 °C", got "${text}"`);
 				else value[f.name] = k;
 				break;
 			}
 			case 'numberList': {
-				const items = splitList(text, false).map((s) => [s, readNumber(s)] as const);
+				const list = splitNumberList(text);
+				const items = list.items.map(
+					(s) => [s, readDecimal(s, { decimalComma: list.decimalComma })] as const
+				);
 				const bad = items.find(([, n]) => n === null);
-				if (bad) fail(f.name, `expected numbers separated by commas; "${bad[0]}" is not one`);
+				if (bad)
+					fail(f.name, `expected numbers separated by commas or spaces; "${bad[0]}" is not one`);
 				else value[f.name] = items.map(([, n]) => n);
 				break;
 			}
@@ -73,7 +116,8 @@ export function readEntryForm(kind: EntryKind, form: Record<string, string>): Fo
 				value[f.name] = splitList(text, f.name === 'authors');
 				break;
 			case 'coordinates': {
-				const parts = splitList(text, false).map(readNumber);
+				const list = splitNumberList(text);
+				const parts = list.items.map((s) => readDecimal(s, { decimalComma: list.decimalComma }));
 				if (parts.length !== 3 || parts.some((n) => n === null))
 					fail(f.name, `expected three numbers x, y, z, got "${text}"`);
 				else value[f.name] = { x: parts[0], y: parts[1], z: parts[2] };

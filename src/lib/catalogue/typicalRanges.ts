@@ -1,3 +1,4 @@
+import { formatMv } from '$lib/format';
 import type { CofactorKind } from '$lib/schemas/vocabulary';
 
 /*
@@ -14,12 +15,19 @@ export interface TypicalRange {
 	source: string;
 }
 
+/*
+ * Where each range comes from. The text is what readers see beside a warning, so it says what
+ * the bounds are based on in a reader's words. How they were obtained, for maintainers: the
+ * Liu et al. bounds were read off the review's potential-range figure from memory and widened by
+ * about 50 mV; the flavin/quinone and active-site spans are common practice with no single
+ * source, likewise recalled. Replace them with values read from the sources when someone can.
+ */
 const LIU_2014 =
-	'Liu et al., Chem. Rev. 114, 4366 (2014), potential-range figure; bounds recalled from memory and widened by about 50 mV';
+	'typical range from a published survey (Liu et al., Chem. Rev. 114, 4366 (2014), potential-range figure); bounds approximate, widened by about 50 mV';
 const FLAVIN_QUINONE =
-	'common practice, no source: spans reported for protein-bound flavins and quinones at pH 7, recalled from memory';
+	'typical span reported for protein-bound flavins and quinones near pH 7; bounds approximate, from no single source';
 const ACTIVE_SITE =
-	'common practice, no source: spans reported for hydrogenase and molybdenum/tungsten active sites, recalled from memory';
+	'typical span reported for hydrogenase and molybdenum/tungsten active sites; bounds approximate, from no single source';
 
 const range = (minMv: number, maxMv: number, source: string): TypicalRange => ({
 	minMv,
@@ -101,6 +109,7 @@ export function checkTypicalRange(
 	return {
 		emMvShe,
 		range: r,
-		message: `${emMvShe} mV vs SHE is ${side} the typical range for ${couple} (${r.minMv} to ${r.maxMv} mV vs SHE). Check the sign, the unit and the reference electrode.`
+		// Numbers as shown everywhere: a Unicode minus, the unit after a no-break space.
+		message: `${formatMv(emMvShe, 1)} vs SHE is ${side} the typical range for ${couple} (${formatMv(r.minMv)} to ${formatMv(r.maxMv)} vs SHE). Check the sign, the unit and the reference electrode.`
 	};
 }

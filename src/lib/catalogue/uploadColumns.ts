@@ -28,7 +28,7 @@ export function headerNames(kind: UploadKind): HeaderNames[] {
 	}));
 }
 
-/** The template: the header row and one invented example row. */
+/** The template: the header row and one invented example row, marked so that no check passes it. */
 export function templateCsv(kind: UploadKind): string {
 	const columns = UPLOAD_COLUMNS[kind];
 	return Papa.unparse(

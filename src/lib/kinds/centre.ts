@@ -2,10 +2,10 @@ import { centreSchema } from '$lib/schemas/centre';
 import { COFACTOR_KINDS, COFACTOR_KIND_LABELS } from '$lib/schemas/vocabulary';
 import { by, columnsFromFields, withAlternative } from './csvColumns';
 import { defineKind } from './kind';
-import { ACCESSION_HINT, field, options } from './formFields';
+import { field, options, reference } from './formFields';
 
 const FIELDS = [
-	field('proteinAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	reference('proteinAccession', 'protein', { required: true }),
 	field('label', 'text', { required: true, hint: 'as in the source, e.g. N2 or heme bL' }),
 	field('cofactorKind', 'select', {
 		required: true,

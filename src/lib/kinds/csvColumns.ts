@@ -1,5 +1,5 @@
 import type { HeaderNames } from '$lib/catalogue/headerMatch';
-import type { FormField } from './formFields';
+import { ACCESSION_HINT, type FormField } from './formFields';
 import { publicFieldName } from './publicNames';
 
 // The columns of a CSV upload are the kind's form fields (and so its schema's) plus columns
@@ -60,6 +60,24 @@ const ALIASES: Record<string, readonly string[]> = {
 	coordinatesA: ['coordinates', 'centroid']
 };
 
+/**
+ * The note of every template's example row. The row's values are invented (its accessions may
+ * name real entries of a registry), so a check refuses a row that still carries this note
+ * (`isTemplateExampleRow`): the example can never be committed as data by mistake.
+ */
+export const EXAMPLE_ROW_NOTE =
+	'EXAMPLE ROW (invented values): replace or delete this row before uploading';
+
+/** The error a row still carrying the template's example note gets. */
+export const EXAMPLE_ROW_MESSAGE =
+	"this is the template's example row, with invented values, not data: delete it or replace it with your own values";
+
+/** Whether a note cell is the template's example-row note (spacing and case aside). */
+export function isTemplateExampleRow(note: string | undefined): boolean {
+	const squash = (t: string) => t.replace(/\s+/g, ' ').trim().toLowerCase();
+	return note !== undefined && squash(note) === squash(EXAMPLE_ROW_NOTE);
+}
+
 const EXAMPLES: Record<string, string> = {
 	centreAccession: 'HL000012',
 	couple: '[4Fe-4S]2+/1+',
@@ -74,7 +92,7 @@ const EXAMPLES: Record<string, string> = {
 	nElectrons: '1',
 	uncertaintyMv: '15',
 	sourceAccession: '',
-	note: 'invented example row',
+	note: EXAMPLE_ROW_NOTE,
 	oxidationLevel: '[4Fe-4S]1+',
 	spinS: '0.5',
 	gValues: '2.05 1.94 1.89',
@@ -102,6 +120,8 @@ export function columnsFromFields(
 		const aliases = ALIASES[f.name] ?? [];
 		return {
 			...f,
+			// A file names other entries by accession (or in words, by the columns below).
+			...(f.lookup ? { hint: ACCESSION_HINT } : {}),
 			header,
 			// A renamed field's stored name stays accepted (files written before the rename).
 			aliases: header === f.name ? aliases : [...aliases, f.name],

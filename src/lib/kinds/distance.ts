@@ -2,11 +2,11 @@ import { distanceSchema } from '$lib/schemas/distance';
 import { DISTANCE_METHODS, DISTANCE_METHOD_LABELS } from '$lib/schemas/vocabulary';
 import { by, columnsFromFields, withAlternative } from './csvColumns';
 import { defineKind } from './kind';
-import { ACCESSION_HINT, field, options } from './formFields';
+import { field, options, reference } from './formFields';
 
 const FIELDS = [
-	field('centreAAccession', 'text', { required: true, hint: ACCESSION_HINT }),
-	field('centreBAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	reference('centreAAccession', 'centre', { required: true }),
+	reference('centreBAccession', 'centre', { required: true }),
 	field('edgeToEdgeA', 'number', { required: true, unit: 'Å' }),
 	field('centreToCentreA', 'number', { unit: 'Å' }),
 	field('structureId', 'text', { required: true, hint: 'e.g. a PDB identifier' }),
@@ -14,7 +14,7 @@ const FIELDS = [
 		required: true,
 		options: options(DISTANCE_METHODS, DISTANCE_METHOD_LABELS)
 	}),
-	field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
+	reference('sourceAccession', 'source'),
 	field('note', 'textarea')
 ];
 

@@ -23,6 +23,11 @@ export interface FormField {
 	options?: readonly { value: string; label: string }[];
 	/** Suggestions offered while typing (an HTML datalist). */
 	suggestions?: readonly string[];
+	/**
+	 * A field naming another entry by accession: the form offers approved entries of this kind
+	 * while typing (GET /api/v1/suggestions), and still takes an accession typed directly.
+	 */
+	lookup?: 'centre' | 'protein' | 'source';
 }
 
 /** A select's options from a vocabulary and, where it has them, its labels. */
@@ -42,4 +47,12 @@ export const field = (
 });
 
 export const ACCESSION_HINT = 'accession, e.g. HL000123';
+export const LOOKUP_HINT = 'type a name, label or accession (e.g. HL000123)';
+
+/** A field naming an entry of another kind, with suggestions while typing. */
+export const reference = (
+	name: string,
+	lookup: NonNullable<FormField['lookup']>,
+	extra: Partial<FormField> = {}
+): FormField => field(name, 'text', { hint: LOOKUP_HINT, ...extra, lookup });
 export const TEMPERATURE_HINT = 'K, or °C written as "25 °C"';

@@ -14,14 +14,14 @@ import {
 } from '$lib/schemas/vocabulary';
 import { CENTRE_BY_NAME, columnsFromFields, withAlternative } from './csvColumns';
 import { defineKind } from './kind';
-import { ACCESSION_HINT, TEMPERATURE_HINT, field, options } from './formFields';
+import { TEMPERATURE_HINT, field, options, reference } from './formFields';
 
 const EM_FIELD = potentialSchema.shape.emMvShe;
 
 const ALL_COUPLES = [...new Set(Object.values(COUPLES_BY_KIND).flat())];
 
 const FIELDS = [
-	field('centreAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	reference('centreAccession', 'centre', { required: true }),
 	field('couple', 'text', {
 		required: true,
 		suggestions: ALL_COUPLES,
@@ -44,7 +44,7 @@ const FIELDS = [
 	}),
 	field('nElectrons', 'number', { hint: '1 unless the couple is a two-electron one' }),
 	field('uncertaintyMv', 'number', { unit: 'mV', hint: 'one standard uncertainty' }),
-	field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
+	reference('sourceAccession', 'source'),
 	field('note', 'textarea')
 ];
 

@@ -1,11 +1,11 @@
 import { spinRecordSchema } from '$lib/schemas/spinRecord';
 import { SPIN_METHODS, SPIN_METHOD_LABELS } from '$lib/schemas/vocabulary';
-import { CENTRE_BY_NAME, columnsFromFields, withAlternative } from './csvColumns';
+import { CENTRE_BY_NAME, EXAMPLE_ROW_NOTE, columnsFromFields, withAlternative } from './csvColumns';
 import { defineKind } from './kind';
-import { ACCESSION_HINT, TEMPERATURE_HINT, field, options } from './formFields';
+import { TEMPERATURE_HINT, field, options, reference } from './formFields';
 
 const FIELDS = [
-	field('centreAccession', 'text', { required: true, hint: ACCESSION_HINT }),
+	reference('centreAccession', 'centre', { required: true }),
 	field('oxidationLevel', 'text', { required: true, hint: 'e.g. [4Fe-4S]1+ or Fe3+' }),
 	field('spinS', 'number', { required: true, hint: 'whole or half-whole, e.g. 1/2 as 0.5' }),
 	field('gValues', 'numberList', { hint: 'one, two or three principal values' }),
@@ -14,7 +14,7 @@ const FIELDS = [
 		required: true,
 		options: options(SPIN_METHODS, SPIN_METHOD_LABELS)
 	}),
-	field('sourceAccession', 'text', { hint: ACCESSION_HINT }),
+	reference('sourceAccession', 'source'),
 	field('note', 'textarea')
 ];
 
@@ -32,7 +32,7 @@ export const spinRecord = defineKind({
 				columnsFromFields(FIELDS, {
 					method: 'cw_epr_x',
 					temperatureK: '10',
-					note: 'invented example row'
+					note: EXAMPLE_ROW_NOTE
 				}),
 				'centreAccession',
 				'protein + centreLabel'

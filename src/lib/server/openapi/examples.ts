@@ -236,7 +236,8 @@ export const EXAMPLES = {
 				kind: 'range',
 				field: 'emMvShe',
 				message: '+100 mV is outside the typical range for [4Fe-4S]2+/1+ (−700 to −150 mV).',
-				source: 'typical ranges recalled from a review (see /csv/columns)'
+				source:
+					'typical range from a published survey (Liu et al., Chem. Rev. 114, 4366 (2014), potential-range figure); bounds approximate, widened by about 50 mV'
 			}
 		],
 		links: { self: '/api/v1/submissions/57', page: '/submissions/57' }

@@ -42,6 +42,13 @@ import {
 	uploadCheckSummarySchema
 } from '$lib/schemas/curationResponses';
 import { accessionField } from '$lib/schemas/fields';
+import {
+	SUGGESTION_LIMIT_MAX,
+	SUGGESTION_WORDS_MAX,
+	suggestionListSchema,
+	suggestionQuerySchema,
+	suggestionSchema
+} from '$lib/schemas/suggestions';
 import { apiSubmissionSchema, visibilityRequestSchema } from '$lib/schemas/submission';
 import { versionWarningSchema } from '$lib/schemas/versionWarning';
 import { fitNernst } from '$lib/science';
@@ -184,7 +191,9 @@ export const RESPONSE_SCHEMAS = {
 	VersionWarning: versionWarningSchema,
 	SubmissionCreated: submissionCreatedSchema,
 	Submission: submissionViewSchema,
-	UploadCheck: uploadCheckSummarySchema
+	UploadCheck: uploadCheckSummarySchema,
+	Suggestion: suggestionSchema,
+	SuggestionList: suggestionListSchema
 } as const;
 export type ResponseSchemaName = keyof typeof RESPONSE_SCHEMAS;
 
@@ -364,6 +373,40 @@ export const OPERATIONS: readonly ApiOperation[] = [
 			example: EXAMPLES.centrePage,
 			csv: 'The page as CSV, one row per centre.',
 			headers: csvHeaders
+		},
+		errors: [400]
+	},
+	{
+		operationId: 'suggestEntries',
+		method: 'get',
+		path: '/suggestions',
+		tag: 'Catalogue',
+		summary: 'Suggestions for a reference field',
+		description: `Approved centres, proteins or sources whose accession, name or label contain every typed word (at most ${SUGGESTION_WORDS_MAX} words are used; case does not matter): what an entry form offers while someone types into its centre, protein or source field. Centres match on their label, cofactor type, protein, organism and accession; proteins on name, organism, UniProtKB and accession; sources on title, authors, DOI, journal, year and accession. Only entries the reader may see (a centre only when its protein is visible too); entries awaiting review are never suggested. At most ${SUGGESTION_LIMIT_MAX} answers, no paging: type more to narrow them.`,
+		access: 'anyone',
+		query: suggestionQuerySchema,
+		parameterText: {
+			type: 'What to suggest: centre, protein or source.',
+			q: 'What was typed: words of a name, label, title, or an accession (or its beginning).',
+			limit: `How many suggestions at most (1–${SUGGESTION_LIMIT_MAX}).`
+		},
+		example: { type: 'centre', q: 'cluster ferredoxin' },
+		success: {
+			status: 200,
+			description:
+				'The suggestions, best first: accessions beginning with the text, then labels and names.',
+			schema: 'SuggestionList',
+			example: {
+				items: [
+					{
+						accession: 'HL000030',
+						type: 'centre',
+						title: 'Cluster A',
+						detail:
+							'[4Fe-4S] · FdxT 2[4Fe-4S] ferredoxin (Calorivorax demonstrans HL-1 (fictional))'
+					}
+				]
+			}
 		},
 		errors: [400]
 	},
@@ -584,7 +627,7 @@ export const OPERATIONS: readonly ApiOperation[] = [
 		tag: 'Contributors',
 		summary: 'Check a CSV file without writing anything',
 		description:
-			'The dry run of a CSV upload: every row checked by the entry schemas and against the registry (references, duplicates, conflicts). JSON: counts, every issue by row and column, and a preview of what a commit would create; `?format=csv`: the issues as a CSV report (row, column, value, severity, message). Columns and templates: /csv/columns.',
+			'Check only: a CSV upload checked without writing anything — every row checked by the entry schemas and against the registry (references, duplicates, conflicts). JSON: counts, every issue by row and column, and a preview of what a commit would create; `?format=csv`: the issues as a CSV report (row, column, value, severity, message). Columns and templates: /csv/columns.',
 		access: 'contributor',
 		query: uploadCheckQuerySchema,
 		parameterText: { format: 'json for the check, csv for the issue report as a CSV download.' },

@@ -3,6 +3,7 @@ import { setImmediate } from 'node:timers/promises';
 import type { Kysely } from 'kysely';
 import type { CsvLimits } from '$lib/catalogue/csvRecords';
 import { UPLOAD_COLUMNS, columnForHeader } from '$lib/catalogue/uploadColumns';
+import { EXAMPLE_ROW_MESSAGE, isTemplateExampleRow } from '$lib/kinds/csvColumns';
 import { publicFieldName } from '$lib/kinds/publicNames';
 import { KINDS, type UploadKind } from '$lib/kinds';
 import type { EntryData } from '$lib/schemas/entryData';
@@ -20,7 +21,7 @@ import type { RowState, UploadRow } from './rows';
 
 /*
  * Checks a CSV upload row by row against the zod schemas and the registry, and plans what a
- * commit would create. Nothing is written here: the dry run and the commit both start from it.
+ * commit would create. Nothing is written here: "Check only" and the commit both start from it.
  */
 export type { UploadIssue };
 
@@ -164,6 +165,8 @@ export async function checkUpload(
 				issue(row, headerOf(column), value, warningText(warning), 'warning');
 			}
 		};
+		// The template's example row is refused as data, whatever else it holds.
+		if (isTemplateExampleRow(texts.note)) r.fail('note', texts.note ?? '', EXAMPLE_ROW_MESSAGE);
 		rules.prepare?.(r, extras);
 		const sourceText = texts.sourceAccession;
 		if (sourceText && !lookups.sources.has(sourceText))

@@ -1,8 +1,9 @@
-import { fail, redirect } from '@sveltejs/kit';
+import { error, fail, redirect } from '@sveltejs/kit';
 import { KINDS } from '$lib/kinds';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { readSubmissionForm } from '$lib/server/curation/form';
+import { checkFormEntry, warningsSeen } from '$lib/server/curation/formCheck';
 import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefaults';
 import { runCurationAction } from '$lib/server/curation/outbox';
 import { allowedActions } from '$lib/server/curation/transitions';
@@ -38,13 +39,40 @@ export const load: PageServerLoad = async (event) => {
 	};
 };
 
-/** Saves the edited data; with `andSubmit`, sends it for review in the same transaction. */
-async function save(event: RequestEvent, andSubmit: boolean) {
+/** The form's entry checked as submitting would check it (formCheck.ts); writes nothing. */
+async function checked(event: RequestEvent) {
 	const user = requireRole(event, 'contributor');
 	const id = Number(event.params.id);
-	const kind = await orNotFound(submissionKind(db, id), `no submission ${id}`);
-	const form = readSubmissionForm(kind, await event.request.formData());
-	if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
+	const view = await orNotFound(loadSubmissionView(db, user, id), `no submission ${id}`);
+	const version = view.versions[0];
+	if (!version) error(404, { message: `no submission ${id}` });
+	const form = readSubmissionForm(version.kind, await event.request.formData());
+	if (!form.ok) return { failure: fail(400, { values: form.values, errors: form.errors }) };
+	const result = await checkFormEntry(db, user, form.entry, version.accession);
+	if (Object.keys(result.errors).length > 0)
+		return { failure: fail(400, { values: form.values, ...result }) };
+	return { user, id, form, check: result.check };
+}
+
+/**
+ * Saves the edited data; with `andSubmit`, sends it for review in the same transaction, once
+ * its warnings have been seen (unseen ones are shown instead).
+ */
+async function save(event: RequestEvent, andSubmit: boolean) {
+	let user, id, form;
+	if (andSubmit) {
+		const r = await checked(event);
+		if ('failure' in r) return r.failure;
+		if (!warningsSeen(r.check, r.form.values.seenWarnings))
+			return { values: r.form.values, check: r.check, unseen: true };
+		({ user, id, form } = r);
+	} else {
+		user = requireRole(event, 'contributor');
+		id = Number(event.params.id);
+		const kind = await orNotFound(submissionKind(db, id), `no submission ${id}`);
+		form = readSubmissionForm(kind, await event.request.formData());
+		if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
+	}
 	try {
 		await runCurationAction(db, async (trx) => {
 			await updateDraft(trx, user, id, form);
@@ -57,8 +85,13 @@ async function save(event: RequestEvent, andSubmit: boolean) {
 }
 
 export const actions: Actions = {
-	save: (event) => save(event, false),
 	submit: (event) => save(event, true),
+	check: async (event) => {
+		const r = await checked(event);
+		if ('failure' in r) return r.failure;
+		return { values: r.form.values, check: r.check };
+	},
+	save: (event) => save(event, false),
 	lookup: async (event) => {
 		requireRole(event, 'contributor');
 		return fillFromDoi(await event.request.formData());

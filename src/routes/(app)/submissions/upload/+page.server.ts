@@ -53,13 +53,13 @@ async function checked(event: RequestEvent) {
 }
 
 export const actions: Actions = {
-	/** The dry run: what the file would create, and every problem in it. Writes nothing. */
+	/** Check only: what the file would create, and every problem in it. Writes nothing. */
 	check: async (event) => {
 		const r = await checked(event);
 		if ('failure' in r) return r.failure;
 		return { values: r.form.values, report: summariseCheck(r.check, SHOWN) };
 	},
-	/** Checks again (the server never trusts an earlier answer) and commits all rows or none. */
+	/** Submit for review: checks again (the server never trusts an earlier answer) and commits all rows or none. */
 	commit: async (event) => {
 		const r = await checked(event);
 		if ('failure' in r) return r.failure;
@@ -70,7 +70,7 @@ export const actions: Actions = {
 				report: summariseCheck(check, SHOWN),
 				errors: {
 					form: [
-						`Nothing was committed: the file has ${check.errorCount} error(s). Fix them and try again.`
+						`Nothing was submitted: the file has ${check.errorCount} error(s). Fix them and try again.`
 					]
 				}
 			});

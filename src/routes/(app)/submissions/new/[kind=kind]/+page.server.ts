@@ -5,12 +5,13 @@ import { requireRole } from '$lib/server/auth/guards';
 import { config } from '$lib/server/config';
 import { db } from '$lib/server/db';
 import { readSubmissionForm } from '$lib/server/curation/form';
+import { checkFormEntry, warningsSeen } from '$lib/server/curation/formCheck';
 import { groupsForSharing, valuesForEditing } from '$lib/server/curation/formDefaults';
 import { runCurationAction } from '$lib/server/curation/outbox';
 import { createDraft, submitForReview } from '$lib/server/curation/submissions';
 import { fillFromDoi } from '$lib/server/http/doiLookup';
 import { toFormFailure } from '$lib/server/http/failures';
-import type { Actions, PageServerLoad } from './$types';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 /** The kind the path names (the route's matcher checks only its shape). */
 function kindOf(param: string): EntryKind {
@@ -19,6 +20,12 @@ function kindOf(param: string): EntryKind {
 			message: `no kind of entry "${param}"; expected one of ${ENTRY_KINDS.join(', ')}`
 		});
 	return param;
+}
+
+/** The approved entry a proposed change is for (`?edit=`), when the address names one. */
+function editOf(url: URL): string | null {
+	const edit = url.searchParams.get('edit');
+	return edit && isAccession(edit) ? edit : null;
 }
 
 export const load: PageServerLoad = async (event) => {
@@ -42,12 +49,21 @@ export const load: PageServerLoad = async (event) => {
 	};
 };
 
-/** Both actions create the draft; `submit` also sends it to the curators in the same transaction. */
-async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean) {
+/**
+ * Saves a draft; with `andSubmit`, also sends it to the curators in the same transaction — once
+ * the contributor has seen its warnings (formCheck.ts): unseen ones are shown instead.
+ */
+async function create(event: RequestEvent, andSubmit: boolean) {
 	const user = requireRole(event, 'contributor');
 	const form = readSubmissionForm(kindOf(event.params.kind), await event.request.formData());
 	if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
-	const edit = event.url.searchParams.get('edit');
+	const edit = editOf(event.url);
+	if (andSubmit) {
+		const { errors, check } = await checkFormEntry(db, user, form.entry, edit);
+		if (Object.keys(errors).length > 0) return fail(400, { values: form.values, errors, check });
+		if (!warningsSeen(check, form.values.seenWarnings))
+			return { values: form.values, check, unseen: true };
+	}
 	let result;
 	try {
 		result = await runCurationAction(db, async (trx) => {
@@ -55,7 +71,7 @@ async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean)
 				entry: form.entry,
 				visibility: form.visibility,
 				changeNote: form.changeNote,
-				editAccession: edit && isAccession(edit) ? edit : null,
+				editAccession: edit,
 				pendingRowsMax: config.PENDING_ROWS_MAX
 			});
 			const sent = andSubmit
@@ -70,8 +86,17 @@ async function create(event: Parameters<Actions[string]>[0], andSubmit: boolean)
 }
 
 export const actions: Actions = {
-	save: (event) => create(event, false),
 	submit: (event) => create(event, true),
+	/** What submitting would be refused for, and the warnings the curators would see. Writes nothing. */
+	check: async (event) => {
+		const user = requireRole(event, 'contributor');
+		const form = readSubmissionForm(kindOf(event.params.kind), await event.request.formData());
+		if (!form.ok) return fail(400, { values: form.values, errors: form.errors });
+		const { errors, check } = await checkFormEntry(db, user, form.entry, editOf(event.url));
+		if (Object.keys(errors).length > 0) return fail(400, { values: form.values, errors, check });
+		return { values: form.values, check };
+	},
+	save: (event) => create(event, false),
 	lookup: async (event) => {
 		requireRole(event, 'contributor');
 		return fillFromDoi(await event.request.formData());
