@@ -211,7 +211,8 @@ export const MUTATIONS: Mutation[] = [
 		name,
 		url: `/review/999999?/${name}`,
 		least: 'curator' as const,
-		body: {},
+		// A batch's decision names what it decides; approving reaches the submission's look-up.
+		body: (name === 'batch' ? { decision: 'approve' } : {}) as Record<string, string>,
 		allowed: name === 'batch' ? noSubmission : invalid
 	})),
 	...(['check', 'commit'] as const).map((name) => ({
