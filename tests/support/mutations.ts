@@ -232,6 +232,23 @@ export const MUTATIONS: Mutation[] = [
 		allowed: { status: 400, code: 'bad_request' }
 	},
 	{
+		file: 'access/+page.server.ts',
+		name: 'request',
+		url: '/access?/request',
+		least: 'reader',
+		// A note longer than allowed: refused before anything is written or mailed.
+		body: { message: 'x'.repeat(1001) },
+		allowed: invalid
+	},
+	{
+		file: '(admin)/admin/users/+page.server.ts',
+		name: 'dismiss',
+		url: '/admin/users?/dismiss',
+		least: 'admin',
+		body: { userId: '' },
+		allowed: invalid
+	},
+	{
 		file: 'account/+page.server.ts',
 		name: 'notices',
 		url: '/account?/notices',

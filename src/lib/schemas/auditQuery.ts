@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
+import { AUDIT_ACTION_AREAS, type AuditActionArea } from '$lib/catalogue/auditAreas';
 
 /*
  * The audit log's filters (/audit): what kind of action, who, which entry or submission, a date
@@ -7,20 +8,7 @@ import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
  * the server (parsing). Actions are stored as `area.verb`; a filter chooses an area.
  */
 
-/** The audit log's areas, each the start of the actions it holds, with its name on the page. */
-export const AUDIT_ACTION_AREAS = {
-	submission: 'Submissions',
-	review: 'Review decisions',
-	version: 'Approved versions',
-	entry: 'Entry visibility',
-	comment: 'Comments',
-	user: 'Users and roles',
-	group: 'Groups',
-	access: 'Access requests',
-	account: 'Own account settings'
-} as const;
-
-export type AuditActionArea = keyof typeof AUDIT_ACTION_AREAS;
+export { AUDIT_ACTION_AREAS, type AuditActionArea } from '$lib/catalogue/auditAreas';
 
 const AREAS = Object.keys(AUDIT_ACTION_AREAS) as [AuditActionArea, ...AuditActionArea[]];
 
@@ -45,9 +33,7 @@ const cursor = z
 
 export const auditQuerySchema = z
 	.strictObject({
-		action: z
-			.enum(AREAS, { error: `expected one of ${AREAS.join(', ')}` })
-			.optional(),
+		action: z.enum(AREAS, { error: `expected one of ${AREAS.join(', ')}` }).optional(),
 		/** Part of a name or an e-mail address. */
 		actor: z.string().trim().max(200).optional(),
 		accession: z.string().trim().toUpperCase().regex(ACCESSION_PATTERN, ACCESSION_HINT).optional(),

@@ -7,7 +7,7 @@ import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefa
 import { runCurationAction } from '$lib/server/curation/outbox';
 import { allowedActions } from '$lib/server/curation/transitions';
 import { loadSubmissionView, submissionKind } from '$lib/server/curation/submissionView';
-import { namesForSubmissionPage } from '$lib/server/curation/referenceNames';
+import { namesForSubmissionPage } from '$lib/server/catalogue/referenceNames';
 import { viewerOf } from '$lib/server/catalogue/visibility';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
 import { batchForPage } from '$lib/server/http/batchPage';

@@ -6,7 +6,7 @@ import { db } from '$lib/server/db';
 import { runCurationAction } from '$lib/server/curation/outbox';
 import { allowedActions } from '$lib/server/curation/transitions';
 import { loadSubmissionView } from '$lib/server/curation/submissionView';
-import { namesForSubmissionPage } from '$lib/server/curation/referenceNames';
+import { namesForSubmissionPage } from '$lib/server/catalogue/referenceNames';
 import { viewerOf } from '$lib/server/catalogue/visibility';
 import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
 import { batchForPage } from '$lib/server/http/batchPage';

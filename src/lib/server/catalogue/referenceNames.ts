@@ -4,8 +4,8 @@ import { ACCESSION_PATTERN } from '$lib/schemas/accession';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { versionTitle } from '../kinds';
-import type { Viewer } from '../catalogue/visibility';
-import { findVisibleEntry } from '../catalogue/visibleEntry';
+import type { Viewer } from './visibility';
+import { findVisibleEntry } from './visibleEntry';
 
 /*
  * The names of the entries a submission's versions refer to (a potential's centre and source, a
