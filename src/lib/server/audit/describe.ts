@@ -96,6 +96,11 @@ export function auditChanges(
 		for (const [k, v] of Object.entries(o)) {
 			if (k === 'data' && v && typeof v === 'object' && !Array.isArray(v)) {
 				for (const [f, fv] of Object.entries(v)) out[`data.${f}`] = fv;
+			} else if (k === 'visibility' && v && typeof v === 'object' && !Array.isArray(v)) {
+				// Stored as a word before an edit and as {visibility, groupId, embargoUntil} after.
+				const { visibility, embargoUntil } = v as Record<string, unknown>;
+				out.visibility = visibility;
+				if (embargoUntil) out.embargoUntil = embargoUntil;
 			} else out[k] = v;
 		}
 		return out;
@@ -164,12 +169,10 @@ function sentence(
 		? { text: `submission #${r.submissionId}`, href: `/review/${r.submissionId}` }
 		: { text: 'a submission' };
 	const userId = (typeof after.userId === 'string' ? after.userId : before.userId) as
-		| string
-		| undefined;
+		string | undefined;
 	const person: Phrase = { text: (userId && names.user.get(userId)) ?? 'an account' };
 	const groupId = (typeof after.groupId === 'number' ? after.groupId : before.groupId) as
-		| number
-		| undefined;
+		number | undefined;
 	const group: Phrase = {
 		text: (groupId !== undefined ? names.group.get(groupId) : undefined) ?? 'a group'
 	};
@@ -264,7 +267,8 @@ export async function describeAudit(
 			id: r.id,
 			at: r.at,
 			action: r.action,
-			who: r.actorName ?? r.actorEmail ?? (r.action === 'version.approve' ? 'the registry' : 'system'),
+			who:
+				r.actorName ?? r.actorEmail ?? (r.action === 'version.approve' ? 'the registry' : 'system'),
 			sentence: sentence(r, before, after, names),
 			// An approval's record names the version; there is nothing else to compare.
 			changes: r.action === 'version.approve' ? [] : auditChanges(before, after, kind),
