@@ -74,9 +74,7 @@ function listValues(kind: EntryKind, data: Record<string, unknown>): BatchRow['v
 			field,
 			label: fieldLabel(kind, field),
 			text: formatKindField(kind, field, value),
-			...(Object.hasOwn(references, field) && typeof value === 'string'
-				? { accession: value }
-				: {})
+			...(Object.hasOwn(references, field) && typeof value === 'string' ? { accession: value } : {})
 		};
 	});
 }
