@@ -10,6 +10,7 @@ import * as m0008 from './0008_create_entry_kinds';
 import * as m0009 from './0009_pin_version_references';
 import * as m0010 from './0010_add_citation_credit';
 import * as m0011 from './0011_add_api_token_scope';
+import * as m0012 from './0012_add_access_requests';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -27,5 +28,6 @@ export const migrations: Record<string, Migration> = {
 	'0008_create_entry_kinds': m0008,
 	'0009_pin_version_references': m0009,
 	'0010_add_citation_credit': m0010,
-	'0011_add_api_token_scope': m0011
+	'0011_add_api_token_scope': m0011,
+	'0012_add_access_requests': m0012
 };

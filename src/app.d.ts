@@ -11,6 +11,8 @@ declare global {
 			errorId?: string;
 			/** Field name → messages, for 400s caused by bad query parameters. */
 			fields?: Record<string, string[]>;
+			/** For a 403 from a role guard: the least role the page needs (the error page says how to ask). */
+			neededRole?: import('$lib/roles').Role;
 		}
 		interface Locals {
 			requestId: string;

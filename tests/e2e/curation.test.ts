@@ -218,9 +218,11 @@ describe('curation, end to end', () => {
 	it('lets curators read the audit log of the story', async () => {
 		await curator.goto(`/audit?accession=${accession}`);
 		const log = (await curator.getByTestId('audit-log').textContent()) ?? '';
-		expect(log).toContain('version.approve');
+		expect(log).toContain(`approved potential ${accession} v1`);
 		await curator.goto(`/audit?submission=${submissionUrl.split('/').pop()}`);
-		const actions = await curator.locator('[data-testid=audit-log] td.font-mono').allTextContents();
+		const actions = await curator
+			.locator('[data-testid=audit-log] tbody tr')
+			.evaluateAll((trs) => trs.map((t) => t.getAttribute('data-action') ?? ''));
 		expect(actions.filter((a) => /^(submission|review)\./.test(a))).toEqual([
 			'review.approve',
 			'submission.resubmit',

@@ -84,7 +84,8 @@ describe('CSV upload, end to end', () => {
 		);
 
 		await curator.goto(`/review/${submissionId}`);
-		await curator.getByRole('button', { name: 'Approve the other rows' }).click();
+		await curator.getByLabel('Approve (except any rows listed below)').check();
+		await curator.getByRole('button', { name: 'Record decision' }).click();
 		await curator.getByTestId('batch-done').waitFor();
 		expect(await curator.getByTestId('batch-done').textContent()).toContain('4 row(s) approved');
 		await curator.screenshot({ path: 'test-results/upload-approved.png', fullPage: true });

@@ -129,7 +129,8 @@ describe('the curation workflow', () => {
 
 		const submitted = await tx((trx) => submitForReview(trx, contributor, submissionId, origin));
 		// One mail for the curator on immediate notices; the daily one is queued; "off" gets none.
-		expect(submitted.mails.map((m) => m.to)).toEqual(['curator@lab.test']);
+		// The contributor gets a receipt.
+		expect(submitted.mails.map((m) => m.to)).toEqual(['curator@lab.test', 'contrib@lab.test']);
 		expect(submitted.mails[0]?.text).toContain(`${origin}/review/${submissionId}`);
 		const queued = await db
 			.selectFrom('curation_notice')

@@ -97,7 +97,10 @@ describe('runCurationAction', () => {
 			}
 		});
 		expect(sent).toEqual([result.mails]);
-		expect(result.mails.map((m) => m.to)).toEqual(['curator@hopline.test']);
+		expect(result.mails.map((m) => m.to)).toEqual([
+			'curator@hopline.test',
+			'contributor@hopline.test'
+		]);
 		expect(statusWhenSent).toEqual(['submitted']);
 		expect(result.submissionId).toBe(submissionId);
 	});

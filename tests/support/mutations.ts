@@ -211,7 +211,8 @@ export const MUTATIONS: Mutation[] = [
 		name,
 		url: `/review/999999?/${name}`,
 		least: 'curator' as const,
-		body: {},
+		// A batch's decision names what it decides; approving reaches the submission's look-up.
+		body: (name === 'batch' ? { decision: 'approve' } : {}) as Record<string, string>,
 		allowed: name === 'batch' ? noSubmission : invalid
 	})),
 	...(['check', 'commit'] as const).map((name) => ({
@@ -229,6 +230,23 @@ export const MUTATIONS: Mutation[] = [
 		least: 'contributor',
 		body: { json: {} },
 		allowed: { status: 400, code: 'bad_request' }
+	},
+	{
+		file: 'access/+page.server.ts',
+		name: 'request',
+		url: '/access?/request',
+		least: 'reader',
+		// A note longer than allowed: refused before anything is written or mailed.
+		body: { message: 'x'.repeat(1001) },
+		allowed: invalid
+	},
+	{
+		file: '(admin)/admin/users/+page.server.ts',
+		name: 'dismiss',
+		url: '/admin/users?/dismiss',
+		least: 'admin',
+		body: { userId: '' },
+		allowed: invalid
 	},
 	{
 		file: 'account/+page.server.ts',

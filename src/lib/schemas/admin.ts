@@ -37,3 +37,12 @@ export const removeMemberForm = z.object({
 	groupId: z.coerce.number().int().positive(),
 	userId: z.string().min(1)
 });
+
+/** A reader's request for contributor access: an optional note to the admins. */
+export const accessRequestForm = z.object({
+	message: z.string().trim().max(1000, 'at most 1000 characters').default('')
+});
+
+export const dismissAccessRequestForm = z.object({
+	userId: z.string().min(1, 'choose a request')
+});

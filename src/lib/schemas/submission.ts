@@ -5,6 +5,7 @@ import type { EntryData } from './entryData';
 import { fieldErrors } from './fieldErrors';
 import type { FieldErrors } from './searchParams';
 import { VISIBILITIES } from './vocabulary';
+import { SUBMISSION_STATES } from '$lib/catalogue/submissionStates';
 
 /*
  * What a contributor sends: entry data in each kind's input schema (for potentials, the value as
@@ -154,15 +155,7 @@ export const noticePreferenceForm = z.object({
 	})
 });
 
-export const SUBMISSION_STATES = [
-	'draft',
-	'submitted',
-	'returned',
-	'approved',
-	'partially_approved',
-	'rejected',
-	'withdrawn'
-] as const;
+export { SUBMISSION_STATES } from '$lib/catalogue/submissionStates';
 
 /** Filters of the curators' queue, from the URL. */
 export const queueQuerySchema = z.strictObject({
@@ -170,20 +163,6 @@ export const queueQuerySchema = z.strictObject({
 	kind: entryKindParam.optional(),
 	contributor: z.string().trim().max(200).optional(),
 	flag: z.enum(['warnings', 'conflicts']).optional()
-});
-
-/** Filters of the audit log view, from the URL. */
-export const auditQuerySchema = z.strictObject({
-	action: z
-		.string()
-		.trim()
-		.max(60)
-		.regex(/^[a-z._]+$/, 'an action such as review.approve, or its start such as review')
-		.optional(),
-	actor: z.string().trim().toLowerCase().email('an e-mail address').optional(),
-	accession: z.string().trim().regex(ACCESSION_PATTERN, ACCESSION_HINT).optional(),
-	submission: z.coerce.number().int().positive().optional(),
-	before: z.coerce.number().int().positive().optional()
 });
 
 /**

@@ -65,6 +65,12 @@ const configSchema = z.object({
 	MAIL_REQUESTS_PER_ADDRESS: z.coerce.number().int().min(1).max(100_000).default(10),
 	MAIL_REQUESTS_PER_RECIPIENT: z.coerce.number().int().min(1).max(1000).default(5),
 	/**
+	 * Hours a reader waits after asking for contributor access before asking again (an open
+	 * request, or one dismissed within this time, refuses a new one): admins get one mail per
+	 * request (src/lib/server/admin/accessRequests.ts).
+	 */
+	ACCESS_REQUEST_INTERVAL_HOURS: z.coerce.number().int().min(1).max(8760).default(24),
+	/**
 	 * Password hashing (scrypt, 128 MiB and about a second of CPU each): how many run at once, and
 	 * how many more may wait; beyond that a sign-in, sign-up or reset is refused at once with
 	 * "busy" (src/lib/server/auth/hashingQueue.ts).

@@ -5,6 +5,7 @@ import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { oidcSettings } from '$lib/server/auth/oidc';
 import type { PasswordRefusal } from '$lib/server/auth/passwordSignIn';
 import { signInWithPassword } from '$lib/server/auth/signInWith';
+import { signInReason } from '$lib/signInReason';
 import type { Actions, PageServerLoad } from './$types';
 
 const form = z.object({
@@ -63,6 +64,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const oidc = await oidcSettings();
 	return {
 		redirectTo: url.searchParams.get('redirectTo') ?? '/',
+		reason: signInReason(url.searchParams.get('redirectTo')),
 		failure: failureMessage(url.searchParams.get('error'), url.searchParams.get('code')),
 		oidcName: oidc?.name ?? null
 	};

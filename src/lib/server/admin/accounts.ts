@@ -3,6 +3,8 @@ import { DomainError } from '$lib/domainError';
 import type { Database, Role } from '../db/schema';
 import { writeAudit } from '../audit/log';
 import { endAllSessions } from '../auth/sessions';
+import { roleAtLeast } from '../auth/roles';
+import { closeAccessRequests } from './accessRequests';
 
 /* Admin services: users, roles and groups. Every change is written to the audit log. */
 
@@ -15,6 +17,11 @@ export class AdminRuleError extends DomainError {
 		super('bad_request', message, { fields: { [field]: [message] } });
 		this.name = 'AdminRuleError';
 	}
+}
+
+/** How an account is named in messages: its name, else its e-mail address. */
+export function displayName(user: { name: string | null; email: string | null }): string {
+	return user.name?.trim() || user.email || 'an account without a name';
 }
 
 function audit(
@@ -63,10 +70,10 @@ export async function setUserRole(
 	actorId: string,
 	userId: string,
 	role: Role
-): Promise<void> {
+): Promise<{ name: string; from: Role; to: Role }> {
 	const user = await trx
 		.selectFrom('User')
-		.select(['id', 'role', 'email'])
+		.select(['id', 'role', 'email', 'name'])
 		.where('id', '=', userId)
 		.executeTakeFirst();
 	if (!user) throw new AdminRuleError('userId', 'no such user');
@@ -78,6 +85,9 @@ export async function setUserRole(
 	}
 	await trx.updateTable('User').set({ role }).where('id', '=', userId).execute();
 	await audit(trx, actorId, 'user.role', { userId, role: user.role }, { userId, role });
+	// A role that answers an open request for access closes it.
+	if (roleAtLeast(role, 'contributor')) await closeAccessRequests(trx, actorId, userId, 'granted');
+	return { name: displayName(user), from: user.role, to: role };
 }
 
 /**
@@ -89,10 +99,10 @@ export async function setUserDisabled(
 	actorId: string,
 	userId: string,
 	disabled: boolean
-): Promise<void> {
+): Promise<{ name: string }> {
 	const user = await trx
 		.selectFrom('User')
-		.select(['id', 'role', 'disabledAt'])
+		.select(['id', 'role', 'disabledAt', 'name', 'email'])
 		.where('id', '=', userId)
 		.executeTakeFirst();
 	if (!user) throw new AdminRuleError('userId', 'no such user');
@@ -110,6 +120,7 @@ export async function setUserDisabled(
 		{ userId, disabledAt: user.disabledAt },
 		{ userId, disabledAt }
 	);
+	return { name: displayName(user) };
 }
 
 export async function listGroups(db: Kysely<Database>) {
@@ -123,7 +134,7 @@ export async function listGroups(db: Kysely<Database>) {
 	return groups.map((g) => ({ ...g, members: members.filter((m) => m.group_id === g.id) }));
 }
 
-/** @throws {AdminRuleError} when the slug is taken. */
+/** @throws {AdminRuleError} when the short name (the `slug` column) is taken. */
 export async function createGroup(
 	trx: Kysely<Database>,
 	actorId: string,
@@ -134,7 +145,8 @@ export async function createGroup(
 		.select('id')
 		.where('slug', '=', group.slug)
 		.executeTakeFirst();
-	if (taken) throw new AdminRuleError('slug', `a group "${group.slug}" exists already`);
+	if (taken)
+		throw new AdminRuleError('slug', `the short name "${group.slug}" is taken by another group`);
 	const { id } = await trx
 		.insertInto('research_group')
 		.values(group)
@@ -144,14 +156,15 @@ export async function createGroup(
 	return id;
 }
 
-/** @throws {AdminRuleError} when there is no such group. */
-async function requireGroup(trx: Kysely<Database>, groupId: number): Promise<void> {
+/** The group's name. @throws {AdminRuleError} when there is no such group. */
+async function requireGroup(trx: Kysely<Database>, groupId: number): Promise<string> {
 	const group = await trx
 		.selectFrom('research_group')
-		.select('id')
+		.select(['id', 'name'])
 		.where('id', '=', groupId)
 		.executeTakeFirst();
 	if (!group) throw new AdminRuleError('groupId', 'no such group');
+	return group.name;
 }
 
 /** @throws {AdminRuleError} for an unknown group or e-mail, or an existing membership. */
@@ -160,11 +173,11 @@ export async function addGroupMember(
 	actorId: string,
 	groupId: number,
 	email: string
-): Promise<void> {
-	await requireGroup(trx, groupId);
+): Promise<{ name: string; group: string }> {
+	const groupName = await requireGroup(trx, groupId);
 	const user = await trx
 		.selectFrom('User')
-		.select('id')
+		.select(['id', 'name', 'email'])
 		.where('email', '=', email.toLowerCase())
 		.executeTakeFirst();
 	if (!user) throw new AdminRuleError('email', `no account with the e-mail address ${email}`);
@@ -177,6 +190,7 @@ export async function addGroupMember(
 	if (existing) throw new AdminRuleError('email', `${email} is a member already`);
 	await trx.insertInto('group_member').values({ group_id: groupId, user_id: user.id }).execute();
 	await audit(trx, actorId, 'group.add_member', null, { groupId, userId: user.id });
+	return { name: displayName(user), group: groupName };
 }
 
 /**
@@ -188,8 +202,13 @@ export async function removeGroupMember(
 	actorId: string,
 	groupId: number,
 	userId: string
-): Promise<void> {
-	await requireGroup(trx, groupId);
+): Promise<{ name: string; group: string }> {
+	const groupName = await requireGroup(trx, groupId);
+	const person = await trx
+		.selectFrom('User')
+		.select(['name', 'email'])
+		.where('id', '=', userId)
+		.executeTakeFirst();
 	const removed = await trx
 		.deleteFrom('group_member')
 		.where('group_id', '=', groupId)
@@ -198,4 +217,5 @@ export async function removeGroupMember(
 	if (Number(removed.numDeletedRows) === 0)
 		throw new AdminRuleError('userId', 'that account is not a member of this group');
 	await audit(trx, actorId, 'group.remove_member', { groupId, userId }, null);
+	return { name: person ? displayName(person) : 'the account', group: groupName };
 }

@@ -20,7 +20,8 @@ export function requireRole(event: Pick<RequestEvent, 'locals' | 'url'>, least: 
 	const user = requireUser(event);
 	if (!roleAtLeast(user.role, least))
 		error(403, {
-			message: `This page needs the ${least} role; you are signed in as ${user.role}.`
+			message: `This page needs the ${least} role; you are signed in as ${user.role}.`,
+			neededRole: least
 		});
 	return user;
 }

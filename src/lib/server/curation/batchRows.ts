@@ -1,5 +1,12 @@
 import { sql, type Kysely } from 'kysely';
-import { ENTRY_KIND_LABELS, KINDS, fieldLabel, formatKindField, type EntryKind } from '$lib/kinds';
+import {
+	ENTRY_KIND_LABELS,
+	KINDS,
+	fieldLabel,
+	formatKindField,
+	referencesOf,
+	type EntryKind
+} from '$lib/kinds';
 import {
 	parseStoredWarnings,
 	type VersionWarning,
@@ -50,17 +57,26 @@ export interface BatchRow {
 	kind: EntryKind;
 	kindLabel: string;
 	status: string;
-	/** The kind's list fields (src/lib/kinds) that the row fills, as text. */
-	values: { label: string; text: string }[];
+	/**
+	 * The kind's list fields (src/lib/kinds), as text; a field naming another entry also carries
+	 * the accession it holds, for the page to name.
+	 */
+	values: { field: string; label: string; text: string; accession?: string }[];
 	warnings: VersionWarning[];
 	comments: string[];
 }
 
-function listValues(kind: EntryKind, data: Record<string, unknown>) {
-	return KINDS[kind].listFields.map((field) => ({
-		label: fieldLabel(kind, field),
-		text: formatKindField(kind, field, data[field])
-	}));
+function listValues(kind: EntryKind, data: Record<string, unknown>): BatchRow['values'] {
+	const references = referencesOf(kind);
+	return KINDS[kind].listFields.map((field) => {
+		const value = data[field];
+		return {
+			field,
+			label: fieldLabel(kind, field),
+			text: formatKindField(kind, field, value),
+			...(Object.hasOwn(references, field) && typeof value === 'string' ? { accession: value } : {})
+		};
+	});
 }
 
 /** One page of a CSV batch's rows in file order; `flagged` keeps rows with warnings. */

@@ -1,5 +1,10 @@
-import type { Kysely } from 'kysely';
+import { sql, type Kysely } from 'kysely';
+import { submissionStateName } from '$lib/catalogue/submissionStates';
+import { parseEntryData } from '$lib/schemas/entryData';
+import type { VersionWarningKind } from '$lib/schemas/versionWarning';
+import { readJson } from '../db/json';
 import type { Database, SubmissionRow } from '../db/schema';
+import { warningsForVersion, type WarningAudience } from './checks';
 import type { OutgoingMail } from './outbox';
 
 /*
@@ -20,7 +25,77 @@ async function curatorsToNotify(trx: Kysely<Database>, exceptUserId: string | nu
 	return q.execute();
 }
 
-/** Mails for curators who want them at once; queued notices for those who want a digest. */
+/** How many rows (a batch) or entries (a form) carry a warning of each kind. */
+export type WarningCounts = Partial<Record<VersionWarningKind, number>>;
+
+/**
+ * Warning counts of a submission for one audience: a batch's stored warnings (made against what
+ * its contributor may see), a form's computed now — against every approved value for curators,
+ * against what the contributor may see for their own receipt.
+ */
+export async function submissionWarningCounts(
+	trx: Kysely<Database>,
+	submission: Pick<SubmissionRow, 'id' | 'channel'>,
+	audience: WarningAudience
+): Promise<WarningCounts> {
+	const counts: WarningCounts = {};
+	if (submission.channel === 'csv') {
+		const rows = await sql<{ kind: VersionWarningKind; n: number }>`
+			select w.value ->> 'kind' as kind, count(distinct entry_version.id) as n
+			from entry_version, json_each(entry_version.warnings) as w
+			where entry_version.submission_id = ${submission.id} and entry_version.warnings is not null
+			group by 1`.execute(trx);
+		for (const r of rows.rows) counts[r.kind] = Number(r.n);
+		return counts;
+	}
+	const versions = await trx
+		.selectFrom('entry_version')
+		.innerJoin('entry', 'entry.id', 'entry_version.entry_id')
+		.select(['entry_version.data', 'entry.kind', 'entry.id as entryId'])
+		.where('entry_version.submission_id', '=', submission.id)
+		.execute();
+	for (const v of versions) {
+		const warnings = await warningsForVersion(trx, parseEntryData(v.kind, readJson(v.data)), {
+			entryId: v.entryId,
+			audience
+		});
+		for (const kind of new Set(warnings.map((w) => w.kind))) counts[kind] = (counts[kind] ?? 0) + 1;
+	}
+	return counts;
+}
+
+const WARNING_WORDS: Record<VersionWarningKind, string> = {
+	range: 'outside the typical range for the cofactor type and couple',
+	conflict: 'differing from an approved value beyond the stated uncertainties',
+	duplicate: 'repeating a value already in the registry',
+	other: 'with another warning'
+};
+
+/** The warnings of a submission in a sentence (counts and kinds, no values), or a no-warning line. */
+export function warningSummary(
+	counts: WarningCounts,
+	unit: readonly [one: string, many: string]
+): string {
+	const parts = (Object.keys(WARNING_WORDS) as VersionWarningKind[])
+		.filter((k) => (counts[k] ?? 0) > 0)
+		.map((k) => `${counts[k]} ${counts[k] === 1 ? unit[0] : unit[1]} ${WARNING_WORDS[k]}`);
+	return parts.length ? `Warnings: ${parts.join('; ')}.` : 'No warnings.';
+}
+
+/** The group ids of a user, for reading as they may read. */
+async function viewerOfUser(trx: Kysely<Database>, userId: string) {
+	const groups = await trx
+		.selectFrom('group_member')
+		.select('group_id')
+		.where('user_id', '=', userId)
+		.execute();
+	return { groupIds: groups.map((g) => g.group_id) };
+}
+
+/**
+ * Mails for curators who want them at once (with the submission's warnings counted by kind);
+ * queued notices for those who want a digest; and the contributor's receipt.
+ */
 export async function noticesForNewSubmission(
 	trx: Kysely<Database>,
 	submission: SubmissionRow,
@@ -34,7 +109,13 @@ export async function noticesForNewSubmission(
 				.executeTakeFirst()
 		: undefined;
 	const mails: OutgoingMail[] = [];
-	for (const curator of await curatorsToNotify(trx, submission.submitted_by)) {
+	const unit =
+		submission.channel === 'csv' ? (['row', 'rows'] as const) : (['entry', 'entries'] as const);
+	const curators = await curatorsToNotify(trx, submission.submitted_by);
+	const forCurators = curators.some((c) => c.curationNotices !== 'daily')
+		? warningSummary(await submissionWarningCounts(trx, submission, 'curator'), unit)
+		: '';
+	for (const curator of curators) {
 		if (curator.curationNotices === 'daily') {
 			await trx
 				.insertInto('curation_notice')
@@ -45,7 +126,22 @@ export async function noticesForNewSubmission(
 		mails.push({
 			to: curator.email as string,
 			subject: `New submission #${submission.id} to review: ${submission.title}`,
-			text: `${submitter?.name ?? submitter?.email ?? 'A contributor'} submitted #${submission.id} for review:\n\n  ${submission.title}\n\nReview it here:\n${origin}/review/${submission.id}\n\nYou receive one message per submission; choose a daily digest or no notices on your account page (${origin}/account).\n`
+			text: `${submitter?.name ?? submitter?.email ?? 'A contributor'} submitted #${submission.id} for review:\n\n  ${submission.title}\n\n${forCurators}\n\nReview it here:\n${origin}/review/${submission.id}\n\nYou receive one message per submission; choose a daily digest or no notices on your account page (${origin}/account).\n`
+		});
+	}
+	if (submission.submitted_by && submitter?.email) {
+		const own = warningSummary(
+			await submissionWarningCounts(
+				trx,
+				submission,
+				await viewerOfUser(trx, submission.submitted_by)
+			),
+			unit
+		);
+		mails.push({
+			to: submitter.email,
+			subject: `Received: submission #${submission.id}, ${submissionStateName('submitted')}`,
+			text: `Your submission #${submission.id} is ${submissionStateName('submitted')}:\n\n  ${submission.title}\n\n${own}\n\nA curator will approve it, return it for changes, or reject it; you will hear by e-mail. Follow it here:\n${origin}/submissions/${submission.id}\n`
 		});
 	}
 	return mails;
@@ -167,7 +263,7 @@ export async function dueDigests(
 			.execute();
 		const lines = pending.map(
 			(p) =>
-				`  #${p.submissionId} [${p.status}] ${p.title}\n    ${options.origin}/review/${p.submissionId}`
+				`  #${p.submissionId} [${submissionStateName(p.status)}] ${p.title}\n    ${options.origin}/review/${p.submissionId}`
 		);
 		mails.push({
 			to: curator.email as string,

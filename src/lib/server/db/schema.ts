@@ -37,6 +37,7 @@ export interface Database extends KindTables {
 	release: ReleaseTable;
 	release_entry: ReleaseEntryTable;
 	audit_log: AuditLogTable;
+	access_request: AccessRequestTable;
 	curation_notice: CurationNoticeTable;
 	saved_search: SavedSearchTable;
 	api_token: ApiTokenTable;
@@ -284,6 +285,18 @@ export interface AuditLogTable {
 	before: string | null;
 	after: string | null;
 	detail: string | null;
+}
+
+/** A reader's request for contributor access (migration 0012): one open request per user. */
+export interface AccessRequestTable {
+	id: Generated<number>;
+	user_id: string;
+	role: 'contributor';
+	message: string | null;
+	status: 'open' | 'granted' | 'dismissed';
+	created_at: Generated<string>;
+	closed_at: string | null;
+	closed_by: string | null;
 }
 
 export interface SavedSearchTable {

@@ -25,7 +25,9 @@ export const actions: Actions = {
 			.transaction()
 			.execute((trx) => createGroup(trx, admin.id, form.data))
 			.then(
-				() => ({ done: `Group ${form.data.name} created.` }),
+				() => ({
+					done: `Group ${form.data.name} created (short name ${form.data.slug}).`
+				}),
 				(e: unknown) => toFormFailure(e, event, form.values)
 			);
 	},
@@ -37,7 +39,7 @@ export const actions: Actions = {
 			.transaction()
 			.execute((trx) => addGroupMember(trx, admin.id, form.data.groupId, form.data.email))
 			.then(
-				() => ({ done: `${form.data.email} added.` }),
+				(r) => ({ done: `${r.name} added to ${r.group}.` }),
 				(e: unknown) => toFormFailure(e, event, form.values)
 			);
 	},
@@ -49,7 +51,7 @@ export const actions: Actions = {
 			.transaction()
 			.execute((trx) => removeGroupMember(trx, admin.id, form.data.groupId, form.data.userId))
 			.then(
-				() => ({ done: 'Member removed.' }),
+				(r) => ({ done: `${r.name} removed from ${r.group}.` }),
 				(e: unknown) => toFormFailure(e, event, form.values)
 			);
 	}

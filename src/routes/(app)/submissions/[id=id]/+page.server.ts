@@ -8,6 +8,8 @@ import { groupsForSharing, valuesOfVersion } from '$lib/server/curation/formDefa
 import { runCurationAction } from '$lib/server/curation/outbox';
 import { allowedActions } from '$lib/server/curation/transitions';
 import { loadSubmissionView, submissionKind } from '$lib/server/curation/submissionView';
+import { namesForSubmissionPage } from '$lib/server/catalogue/referenceNames';
+import { viewerOf } from '$lib/server/catalogue/visibility';
 import { submitForReview, updateDraft, withdrawSubmission } from '$lib/server/curation/submissions';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
@@ -20,10 +22,12 @@ export const load: PageServerLoad = async (event) => {
 	const id = Number(event.params.id);
 	const view = await orNotFound(loadSubmissionView(db, user, id), `no submission ${id} of yours`);
 	const first = view.versions[0];
+	const batch = view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null;
 	return {
 		view,
 		can: allowedActions(view.submission.status),
-		batch: view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null,
+		batch,
+		names: await namesForSubmissionPage(db, viewerOf(user), view.versions, batch?.rows),
 		groups: await groupsForSharing(db, user),
 		fields: first ? KINDS[first.kind].formFields : [],
 		values: first

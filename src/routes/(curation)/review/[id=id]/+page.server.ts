@@ -6,6 +6,8 @@ import { db } from '$lib/server/db';
 import { runCurationAction } from '$lib/server/curation/outbox';
 import { allowedActions } from '$lib/server/curation/transitions';
 import { loadSubmissionView } from '$lib/server/curation/submissionView';
+import { namesForSubmissionPage } from '$lib/server/catalogue/referenceNames';
+import { viewerOf } from '$lib/server/catalogue/visibility';
 import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
@@ -17,7 +19,13 @@ export const load: PageServerLoad = async (event) => {
 	const id = Number(event.params.id);
 	const view = await orNotFound(loadSubmissionView(db, user, id), `no submission ${id}`);
 	const batch = view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null;
-	return { view, batch, can: allowedActions(view.submission.status) };
+	return {
+		view,
+		batch,
+		can: allowedActions(view.submission.status),
+		// Names as this curator may see them: role does not widen visibility (visibleEntry.ts).
+		names: await namesForSubmissionPage(db, viewerOf(user), view.versions, batch?.rows)
+	};
 };
 
 // Given the database, a large approval commits in chunks (see curation/reviews.ts): the
@@ -51,17 +59,37 @@ export const actions: Actions = {
 		}
 		return { decided: parsed.data.decision, approved: outcome.approved };
 	},
-	/** A CSV batch row by row: approve every row except those listed, which go back with the comment. */
+	/**
+	 * The one decision on a CSV batch: approve every row except those listed (which go back with
+	 * their comments), or return or reject the whole file.
+	 */
 	batch: async (event) => {
 		const user = requireRole(event, 'curator');
 		const id = Number(event.params.id);
 		const values = Object.fromEntries(await event.request.formData());
-		const parsed = batchDecisionSchema.safeParse(values);
 		const strings = {
+			decision: String(values.decision ?? ''),
 			returnRows: String(values.returnRows ?? ''),
 			rowComments: String(values.rowComments ?? ''),
 			comment: String(values.comment ?? '')
 		};
+		if (strings.decision !== 'approve') {
+			// Returning or rejecting the whole file: the same decision as on a single entry.
+			const parsed = reviewDecisionSchema.safeParse(values);
+			if (!parsed.success) return fail(400, { values: strings, errors: fieldErrors(parsed.error) });
+			let outcome;
+			try {
+				outcome = await runCurationAction(
+					db,
+					(database) => decideSubmission(database, user, id, parsed.data, event.url.origin),
+					chunked
+				);
+			} catch (e) {
+				return toFormFailure(e, event, strings);
+			}
+			return { decided: parsed.data.decision, approved: outcome.approved };
+		}
+		const parsed = batchDecisionSchema.safeParse(values);
 		if (!parsed.success) return fail(400, { values: strings, errors: fieldErrors(parsed.error) });
 		let outcome;
 		try {
