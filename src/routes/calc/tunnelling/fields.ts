@@ -1,6 +1,7 @@
 import { separatorOf, type Separator } from '$lib/schemas/columnSeparator';
 import { readDecimal } from '$lib/schemas/decimal';
 import { ENERGY_UNIT_LABELS, convertEnergy, type EnergyUnit } from '$lib/science/units';
+import { formatNumber } from '$lib/formatNumber';
 
 /*
  * The tunnelling form's fields, shared by the page and its action: names, defaults, the energy
@@ -55,42 +56,7 @@ export const ENERGY_FIELDS = ['barrier', 'wellBarrier', 'asymmetry'] as const;
 
 export const unitLabel = (unit: PageEnergyUnit) => ENERGY_UNIT_LABELS[unit];
 
-const SUPERSCRIPT: Record<string, string> = {
-	'-': '⁻',
-	'0': '⁰',
-	'1': '¹',
-	'2': '²',
-	'3': '³',
-	'4': '⁴',
-	'5': '⁵',
-	'6': '⁶',
-	'7': '⁷',
-	'8': '⁸',
-	'9': '⁹'
-};
-
-/** "1.23 × 10⁻⁵" for very small or large numbers, plain digits otherwise; a true minus sign. */
-export function formatNumber(value: number, significant = 4): string {
-	const abs = Math.abs(value);
-	if (value !== 0 && (abs < 1e-3 || abs >= 1e6)) {
-		const [mantissa, exponent] = value.toExponential(significant - 1).split('e') as [
-			string,
-			string
-		];
-		const power = String(Number(exponent)).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
-		return `${Number(mantissa)} × 10${power}`.replace('-', '−');
-	}
-	return String(Number(value.toPrecision(significant))).replace('-', '−');
-}
-
-/** A value rounded to one significant figure, as an order of magnitude: "≈ 8 × 10³", "≈ 3". */
-export function formatOrderOfMagnitude(value: number): string {
-	const rounded = Number(value.toPrecision(1));
-	if (Math.abs(rounded) < 10) return `≈ ${formatNumber(rounded, 1)}`;
-	const exponent = Math.floor(Math.log10(Math.abs(rounded)));
-	const power = String(exponent).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
-	return `≈ ${Math.round(rounded / 10 ** exponent)} × 10${power}`;
-}
+export { formatNumber, formatOrderOfMagnitude } from '$lib/formatNumber';
 
 /** An energy computed in kcal/mol, in the page's unit, with the unit. */
 export function formatEnergy(kcalMol: number, unit: PageEnergyUnit, significant = 4): string {
