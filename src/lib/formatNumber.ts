@@ -44,10 +44,7 @@ export function formatNumber(value: number, significant = 4): string {
 /** Always in powers of ten with `significant` figures: "4.14 × 10⁷", "2.9 × 10⁻⁴". */
 export function formatPowerOfTen(value: number, significant = 3): string {
 	if (value === 0) return '0';
-	const [mantissa, exponent] = value.toExponential(significant - 1).split('e') as [
-		string,
-		string
-	];
+	const [mantissa, exponent] = value.toExponential(significant - 1).split('e') as [string, string];
 	const power = String(Number(exponent)).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
 	return withMinus(`${mantissa} × 10${power}`);
 }
@@ -64,8 +61,10 @@ export function formatOrderOfMagnitude(value: number): string {
 /** Numbers written as 1.2e-9 or -0.5 inside a text (notes from the science), typeset. */
 export function typesetNumbersIn(text: string): string {
 	return text
-		.replace(/(\d(?:\.\d+)?)e([-+]?\d+)/g, (_, m: string, e: string) =>
-			`${m} × 10${String(Number(e)).replace(/./g, (c) => SUPERSCRIPT[c] ?? c)}`
+		.replace(
+			/(\d(?:\.\d+)?)e([-+]?\d+)/g,
+			(_, m: string, e: string) =>
+				`${m} × 10${String(Number(e)).replace(/./g, (c) => SUPERSCRIPT[c] ?? c)}`
 		)
 		.replace(/(^|[\s(=,;:[])-(?=\.?\d)/g, '$1−');
 }

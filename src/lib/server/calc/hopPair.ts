@@ -253,10 +253,7 @@ export async function hopPair(
 		.limit(MAX_POTENTIALS)
 		.execute();
 	const of = (id: number) =>
-		nearestByCouple(
-			rows.filter((r) => r.centre_entry_id === id).map(toComparable),
-			conditions
-		);
+		nearestByCouple(rows.filter((r) => r.centre_entry_id === id).map(toComparable), conditions);
 	const given = choosePotential(donor.kind, of(donor.entryId), 'entry', conditions);
 	const taken = choosePotential(acceptor.kind, of(acceptor.entryId), 'exit', conditions);
 	const used = (pick: NonNullable<typeof given>): UsedValue => ({

@@ -51,8 +51,7 @@ export const load: PageServerLoad = async ({ url, locals }) => {
 		if (pair.distance) next.set('distance', pair.distance.text);
 		if ((pair.dG || pair.distance) && blank(values.lambda))
 			next.set('lambda', String(HOP_DEFAULT_LAMBDA_EV));
-		if (next.toString() !== url.searchParams.toString())
-			redirect(303, `${url.pathname}?${next}`);
+		if (next.toString() !== url.searchParams.toString()) redirect(303, `${url.pathname}?${next}`);
 	}
 
 	const shown = {
