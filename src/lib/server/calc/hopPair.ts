@@ -7,6 +7,7 @@ import type { HopPick } from '$lib/schemas/calc';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary';
 import { formatNumberText } from '$lib/formatNumber';
+import { deltaGFromPotentials } from '$lib/science';
 import type { Database } from '../db/schema';
 import { COMPARABLE_COLUMNS, toComparable } from '../catalogue/comparablePotential';
 import { potentialIsVisible, type Viewer } from '../catalogue/visibility';
@@ -32,7 +33,7 @@ import { CHAIN_LAMBDA_EV, choosePotential } from './chainEstimate';
  * two-electron couple standing in, marked, where the one-electron couple is not recorded; of each
  * couple, the value measured nearest the chosen pH and temperature (the ladder's rule,
  * ladder.ts, conditionsDistance). No pH or temperature correction is applied.
- * ΔG° = −e·(Em(acceptor) − Em(donor)), in eV per electron: Em in mV / 1000.
+ * ΔG° = −(Em(acceptor) − Em(donor)) for one electron, in eV (science: deltaGFromPotentials).
  *
  * The distance: of the distance entries between the two centres, the one the chain estimate uses
  * (the most recent, the highest accession), edge to edge.
@@ -273,7 +274,7 @@ export async function hopPair(
 				`${end.label} (${end.accession}) has no potential you can see, so ΔG° cannot be filled in.`
 			);
 	if (given && taken) {
-		const ev = (given.potential.emMvShe - taken.potential.emMvShe) / 1000;
+		const ev = deltaGFromPotentials(given.potential.emMvShe, taken.potential.emMvShe);
 		out.dG = { ev, text: dGText(ev), donor: used(given), acceptor: used(taken) };
 	}
 
