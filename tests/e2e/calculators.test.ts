@@ -77,7 +77,7 @@ describe('calculators in Chromium', () => {
 		await page.locator('textarea[name=points]').fill('-400,1\n-300,abc\n-200,0\n-100,0\n0,0');
 		await page.getByRole('button', { name: 'Fit' }).click();
 		expect(await page.locator('[data-field-error=points]').textContent()).toContain(
-			'row 2, signal: "abc" is not a number'
+			'row 2: signal “abc” is not a number; expected a decimal number such as −400 or 0,98'
 		);
 	});
 	it('tunnelling: the default double well gives levels, an assessment and an isotope effect', async () => {

@@ -93,8 +93,8 @@ describe('titration page in Chromium', () => {
 		const list = page.locator('[data-field-error=points] li');
 		await list.first().waitFor();
 		expect(await list.allTextContents()).toEqual([
-			'row 2, potential: "0x10" is not a number',
-			'row 3, signal: "abc" is not a number'
+			'row 2: potential “0x10” is not a number; expected a decimal number such as −400 or 0,98',
+			'row 3: signal “abc” is not a number; expected a decimal number such as −400 or 0,98'
 		]);
 		await page.context().close();
 	});

@@ -9,7 +9,7 @@ import {
 import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { AddressWindow, addressKey } from '$lib/server/calc/addressLimit';
 import { CalcTimeLimitError } from '$lib/server/calc/errors';
-import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
+import { parseTwoColumnText } from '$lib/schemas/twoColumnText';
 
 describe('addressKey', () => {
 	it('keeps IPv4 addresses whole, also when written IPv4-mapped', () => {
@@ -98,18 +98,22 @@ describe('parseTwoColumnText limits', () => {
 				[3, 4],
 				[5, 6]
 			],
-			errors: []
+			lines: [2, 3, 4],
+			problems: [],
+			tooMany: null
 		});
 	});
 	it('stops reading one row past the limit and says so', () => {
 		const text = Array.from({ length: 100_000 }, (_, i) => `${i},${i}`).join('\n');
-		const { rows, errors } = parseTwoColumnText(text, ['E', 'signal'], 3);
+		const { rows, problems, tooMany } = parseTwoColumnText(text, ['E', 'signal'], 3);
 		expect(rows.length).toBeLessThanOrEqual(5);
-		expect(errors).toEqual(['at most 3 rows; the text has more']);
+		expect(problems).toEqual([]);
+		expect(tooMany).toBe('at most 3 rows; the text has more');
 	});
 	it('does not count blank lines against the limit', () => {
 		const text = '1,2\n\n\n\n3,4\n\n\n5,6\n\n';
-		expect(parseTwoColumnText(text, ['E', 'signal'], 3).errors).toEqual([]);
+		expect(parseTwoColumnText(text, ['E', 'signal'], 3).problems).toEqual([]);
+		expect(parseTwoColumnText(text, ['E', 'signal'], 3).tooMany).toBeNull();
 		expect(parseTwoColumnText(text, ['E', 'signal'], 3).rows).toHaveLength(3);
 	});
 });

@@ -33,7 +33,7 @@ describe('the tunnelling form’s unit switch', () => {
 		expect(convertFormEnergies(next, 'kJ/mol', 'kcal/mol').wellBarrier).toBe('6');
 	});
 	it('reads the points with the separator the server reads them with', () => {
-		// The same texts parseTwoColumnText reads (server/calc/twoColumnText.ts): one separator for
+		// The same texts parseTwoColumnText reads (schemas/twoColumnText.ts): one separator for
 		// the whole text, a decimal comma wherever commas do not separate the columns.
 		const convert = (pointsText: string) =>
 			convertFormEnergies({ ...DEFAULTS, pointsText }, 'kcal/mol', 'kJ/mol').pointsText;

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { MOSER_DUTTON_CONTACT_A } from '$lib/science/electronTransfer';
+import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
 import { queryNumber } from './searchParams';
 
 /*
@@ -40,6 +41,31 @@ export const hopRateQuerySchema = z.object({
 	beta: queryNumber(0, 5, ' Å⁻¹').optional()
 });
 export type HopRateQuery = z.infer<typeof hopRateQuerySchema>;
+
+/*
+ * The hop-rate page's choice of two centres from the registry, carried in the page's query string
+ * beside the API's parameters (which are passed on as they are): a protein (an accession or words
+ * from its name), the donor and acceptor centres (accessions: `?donor=HL000008&acceptor=HL000010`
+ * is the link a distance row on a protein page makes), the pH the potentials are chosen nearest
+ * to, and `fill`, sent by the button that asks for ΔG° and the distance to be filled in again.
+ */
+export const HOP_PICK_PARAMS = ['protein', 'donor', 'acceptor', 'ph', 'fill'] as const;
+export const MAX_PROTEIN_QUERY_LENGTH = 200;
+const centreAccession = z.string().regex(ACCESSION_PATTERN, `expected ${ACCESSION_HINT}`);
+export const hopPickSchema = z.object({
+	protein: z
+		.string()
+		.max(
+			MAX_PROTEIN_QUERY_LENGTH,
+			`at most ${MAX_PROTEIN_QUERY_LENGTH} characters: a protein's name, or its accession`
+		)
+		.optional(),
+	donor: centreAccession.optional(),
+	acceptor: centreAccession.optional(),
+	ph: queryNumber(0, 14).optional(),
+	fill: z.string().optional()
+});
+export type HopPick = z.infer<typeof hopPickSchema>;
 
 const finite = (min: number, max: number, unit = '') =>
 	z

@@ -25,10 +25,14 @@ export const hopRateResponseSchema = z.strictObject({
 });
 export type HopRateResponse = z.infer<typeof hopRateResponseSchema>;
 
-/** What every titration answer (API and page) says about its model and standard errors. */
+/**
+ * What every titration answer (API and page) says about its model and standard errors. The
+ * 5–10 mV spread between repeated titrations is from memory, no source: said to readers as a
+ * typical, approximate figure.
+ */
 export const TITRATION_CAUTION =
 	'Model: one or two independent Nernstian components on a constant offset, potentials at equilibrium. ' +
-	'The standard errors are linearised estimates (from the covariance at the least-squares minimum): they assume independent noise of equal variance and a correct model, and leave out systematic errors — mediator equilibration, electrode calibration, slow redox equilibria, drift — which commonly amount to 5–10 mV between repeated titrations (from memory, no source). ' +
+	'The standard errors are linearised estimates (from the covariance at the least-squares minimum): they assume independent noise of equal variance and a correct model, and leave out systematic errors — mediator equilibration, electrode calibration, slow redox equilibria, drift — which commonly amount to 5–10 mV between repeated titrations (a typical spread in practice; approximate, not from a published survey). ' +
 	'A fitted n is the apparent n, the slope of the transition, not a count of electrons.';
 
 /** The units of a titration answer: the page states the same. */

@@ -3,7 +3,7 @@
  * potential), decided once for the whole text: a tab if any line has one, else a semicolon if any
  * line has one, else spaces when every line is words separated by spaces with no comma beside a
  * space ("−400 0,98", "-400 0.98"), else a comma ("-400,0.98", "-400, 0.98"). The server's reader
- * (server/calc/twoColumnText.ts) and the page that converts pasted energies share it, so both
+ * (schemas/twoColumnText.ts) and the page that converts pasted energies share it, so both
  * read the same cells. Wherever commas do not separate the columns, a comma is a decimal comma.
  */
 

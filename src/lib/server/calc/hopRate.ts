@@ -100,13 +100,14 @@ export const RATE_VALIDITY = [
 		model: 'Moser–Dutton ruler',
 		text:
 			'empirical, fitted to protein electron-transfer rates measured near room temperature over roughly 4–25 Å edge to edge, with λ typically 0.3–1.5 eV (Moser et al., Nature 355, 796 (1992); Page et al., Nature 402, 47 (1999)). ' +
-			'Expect it to be right to about an order of magnitude either way (common practice, no source). ' +
+			// How far to trust it: common practice, no published source (so said to readers in plain words).
+			'Expect it to be right to about an order of magnitude either way (a common rule of thumb, not a published figure). ' +
 			'Its downhill rate has no temperature in it; only the uphill rate uses T, by detailed balance.'
 	},
 	{
 		model: 'Marcus (nonadiabatic)',
 		text:
-			'assumes weak electronic coupling (well below k_BT) and classical nuclear motion, so it underestimates rates deep in the inverted region; ' +
+			'assumes weak electronic coupling (well below the thermal energy k_BT) and classical nuclear motion, so it underestimates rates deep in the inverted region; ' +
 			'it is only as good as the coupling assumed (by default calibrated to the ruler at contact, 10¹³ s⁻¹ at 3.6 Å).'
 	}
 ] as const;

@@ -1,30 +1,35 @@
 import { fail } from '@sveltejs/kit';
-import { MAX_TITRATION_POINTS, titrationRequestSchema } from '$lib/schemas/calc';
-import { NOT_A_DECIMAL, readDecimal } from '$lib/schemas/decimal';
+import { titrationRequestSchema } from '$lib/schemas/calc';
 import { fieldErrors } from '$lib/schemas/fieldErrors';
+import { listRowProblems, type RowProblem } from '$lib/schemas/twoColumnText';
+import { typesetNumbersIn } from '$lib/formatNumber';
 import { titrationAnswer } from '$lib/server/calc/answers';
 import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
-import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import { toFormFailure } from '$lib/server/http/failures';
 import type { Actions } from './$types';
+import { TITRATION_DEFAULTS, titrationRequestOf, type TitrationValues } from './fields';
 
 const MAX_UPLOAD_BYTES = 1_000_000;
+const COLUMN = { potentialMv: 'potential', signal: 'signal' } as const;
 
 /*
  * Every answer carries `values`, the fields exactly as entered (the points as typed, or the
  * uploaded file's text), so that the form shows them again after a run, with or without
- * JavaScript. Numbers are read with readDecimal, as in every other form.
+ * JavaScript. Numbers are read with readDecimal, as in every other form. Every problem with the
+ * points is listed under them by line number (what was wrong, what was expected), capped.
  */
 export const actions: Actions = {
 	default: async (event) => {
 		const caller = callerOf(event);
 		const form = await event.request.formData();
 		const file = form.get('file');
-		const values = {
-			points: String(form.get('points') ?? ''),
-			components: String(form.get('components') ?? '1'),
+		const text = (name: keyof TitrationValues) =>
+			String(form.get(name) ?? TITRATION_DEFAULTS[name]);
+		const values: TitrationValues = {
+			points: text('points'),
+			components: text('components'),
 			n: String(form.get('n') ?? ''),
-			temperatureK: String(form.get('temperatureK') ?? '298.15')
+			temperatureK: text('temperatureK')
 		};
 		try {
 			checkCaller(caller);
@@ -36,28 +41,32 @@ export const actions: Actions = {
 				return fail(413, { values, errors: { file: ['the file is larger than 1 MB'] } });
 			values.points = await file.text();
 		}
-		const { rows, errors: rowErrors } = parseTwoColumnText(
-			values.points,
-			['potential', 'signal'],
-			MAX_TITRATION_POINTS
-		);
-		const errors: Record<string, string[]> = {};
-		if (rowErrors.length) errors.points = rowErrors;
-		const n = values.n.trim() === '' ? undefined : readDecimal(values.n);
-		const temperatureK = readDecimal(values.temperatureK);
-		const components = readDecimal(values.components);
-		if (n === null) errors.n = [NOT_A_DECIMAL];
-		if (temperatureK === null) errors.temperatureK = [NOT_A_DECIMAL];
-		if (components === null) errors.components = ['expected 1 or 2'];
-		if (Object.keys(errors).length) return fail(400, { values, errors });
-		const parsed = titrationRequestSchema.safeParse({
-			points: rows.map(([potentialMv, signal]) => ({ potentialMv, signal })),
-			components,
-			n,
-			temperatureK
-		});
-		if (!parsed.success) return fail(400, { values, errors: fieldErrors(parsed.error) });
-		const { points, ...options } = parsed.data;
+		const { body, lines, problems, errors } = titrationRequestOf(values);
+		const rowProblems: RowProblem[] = [...problems];
+		const general: string[] = errors.pointsCount ?? [];
+		delete errors.pointsCount;
+		let request = null;
+		if (rowProblems.length === 0 && general.length === 0 && Object.keys(errors).length === 0) {
+			const parsed = titrationRequestSchema.safeParse(body);
+			if (parsed.success) request = parsed.data;
+			else
+				for (const [key, messages] of Object.entries(fieldErrors(parsed.error))) {
+					const m = /^points\.(\d+)\.(potentialMv|signal)$/.exec(key);
+					if (!m) (errors[key] ??= []).push(...messages);
+					else {
+						const field = m[2] as keyof typeof COLUMN;
+						const value = body.points[Number(m[1])]?.[field];
+						rowProblems.push({
+							row: lines[Number(m[1])] ?? Number(m[1]) + 1,
+							message: typesetNumbersIn(`${COLUMN[field]} ${value}: ${messages.join('; ')}`)
+						});
+					}
+				}
+		}
+		if (rowProblems.length || general.length || errors.points)
+			errors.points = [...listRowProblems(rowProblems), ...general, ...(errors.points ?? [])];
+		if (!request) return fail(400, { values, errors });
+		const { points, ...options } = request;
 		try {
 			const result = await calculate({ kind: 'titration', points, options }, caller);
 			return { values, answer: titrationAnswer(result), points };

@@ -2,16 +2,15 @@ import { fail } from '@sveltejs/kit';
 import {
 	BARRIER_KJMOL_BOUNDS,
 	DOUBLE_WELL_BOUNDS,
-	MAX_POTENTIAL_SAMPLES,
 	SAMPLED_ENERGY_KCALMOL_BOUNDS,
 	tunnellingRequestSchema
 } from '$lib/schemas/calc';
-import { NOT_A_DECIMAL, readDecimal } from '$lib/schemas/decimal';
+import { listRowProblems, type RowProblem } from '$lib/schemas/twoColumnText';
+import { typesetNumbersIn } from '$lib/formatNumber';
 import { fieldErrors } from '$lib/schemas/fieldErrors';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import { convertEnergy, type EnergyUnit } from '$lib/science/units';
 import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
-import { parseTwoColumnText } from '$lib/server/calc/twoColumnText';
 import { tunnellingPlot } from '$lib/server/calc/tunnelling';
 import { TUNNELLING_CAUTION } from '$lib/server/calc/answers';
 import { toFormFailure } from '$lib/server/http/failures';
@@ -19,26 +18,13 @@ import type { Actions, PageServerLoad } from './$types';
 import {
 	DEFAULTS,
 	FIELD_NAMES,
-	PAGE_ENERGY_UNITS,
 	formatNumber,
 	isPageEnergyUnit,
 	unitLabel,
+	tunnellingRequestOf,
 	type FormValues,
 	type PageEnergyUnit
 } from './fields';
-
-const NUMERIC = [
-	'temperatureK',
-	'imagFreqCm1',
-	'barrier',
-	'wellBarrier',
-	'halfSeparationA',
-	'asymmetry',
-	'levels',
-	'xMinA',
-	'xMaxA',
-	'points'
-] as const;
 
 /** Where the request's errors are shown on the form, and the bounds of those that are energies. */
 const FORM_FIELD: Record<string, string> = {
@@ -59,18 +45,29 @@ function rangeIn(bounds: readonly [number, number], from: EnergyUnit, unit: Page
 	return `expected a number from ${min} to ${max} ${unitLabel(unit)}`;
 }
 
-/** The request's field errors under the form's field names, energies in the page's unit. */
-function formErrors(errors: FieldErrors, unit: PageEnergyUnit): FieldErrors {
+/**
+ * The request's field errors under the form's field names, energies in the page's unit; those of
+ * single pasted points as row problems, by the line number of the point (`lines`).
+ */
+function formErrors(
+	errors: FieldErrors,
+	unit: PageEnergyUnit,
+	lines: readonly number[],
+	rows: RowProblem[]
+): FieldErrors {
 	const out: FieldErrors = {};
 	for (const [key, messages] of Object.entries(errors)) {
 		const point = /^potential\.points\.(\d+)\.(xA|energyKcalMol)$/.exec(key);
 		if (point) {
-			const row = Number(point[1]) + 1;
+			const index = Number(point[1]);
 			const message =
 				point[2] === 'xA'
 					? messages.join('; ')
 					: rangeIn(SAMPLED_ENERGY_KCALMOL_BOUNDS, 'kcal/mol', unit);
-			(out.pointsText ??= []).push(`point ${row}, ${point[2] === 'xA' ? 'x' : 'V'}: ${message}`);
+			rows.push({
+				row: lines[index] ?? index + 1,
+				message: typesetNumbersIn(`${point[2] === 'xA' ? 'x' : 'V'}: ${message}`)
+			});
 			continue;
 		}
 		const field = key === 'potential.points' ? 'pointsText' : (FORM_FIELD[key] ?? key);
@@ -97,60 +94,23 @@ export const actions: Actions = {
 		} catch (e) {
 			return toFormFailure(e, event, values);
 		}
-		if (!isPageEnergyUnit(values.energyUnit)) {
-			return fail(400, {
-				values,
-				errors: { energyUnit: [`expected one of ${PAGE_ENERGY_UNITS.join(', ')}`] }
-			});
+		const unit = isPageEnergyUnit(values.energyUnit) ? values.energyUnit : 'kcal/mol';
+		const { body, lines, problems, errors } = tunnellingRequestOf(values);
+		const rows: RowProblem[] = [...problems];
+		const general = errors.pointsCount ?? [];
+		delete errors.pointsCount;
+		let request = null;
+		if (!rows.length && !general.length && !Object.keys(errors).length) {
+			const parsed = tunnellingRequestSchema.safeParse(body);
+			if (parsed.success) request = parsed.data;
+			else Object.assign(errors, formErrors(fieldErrors(parsed.error), unit, lines, rows));
 		}
-		const unit = values.energyUnit;
-		const errors: FieldErrors = {};
-		const numbers: Partial<Record<(typeof NUMERIC)[number], number>> = {};
-		for (const name of NUMERIC) {
-			if (values[name] === '') continue;
-			const value = readDecimal(values[name]);
-			if (value === null) errors[name] = [NOT_A_DECIMAL];
-			else numbers[name] = value;
-		}
-		const kind = values.potentialKind;
-		const sampled = parseTwoColumnText(values.pointsText, ['x', 'V'], MAX_POTENTIAL_SAMPLES);
-		if (kind === 'points' && sampled.errors.length) errors.pointsText = sampled.errors;
-		if (Object.keys(errors).length) return fail(400, { values, errors });
-
-		const toKcal = (v: number | undefined) =>
-			v === undefined ? undefined : convertEnergy(v, unit, 'kcal/mol');
-		const potential =
-			kind === 'double-well'
-				? {
-						kind,
-						barrierKcalMol: toKcal(numbers.wellBarrier),
-						halfSeparationA: numbers.halfSeparationA,
-						asymmetryKcalMol: toKcal(numbers.asymmetry) ?? 0
-					}
-				: kind === 'points'
-					? {
-							kind,
-							points: sampled.rows.map(([xA, energy]) => ({ xA, energyKcalMol: toKcal(energy) }))
-						}
-					: undefined;
-		const parsed = tunnellingRequestSchema.safeParse({
-			temperatureK: numbers.temperatureK ?? 298.15,
-			imagFreqCm1: numbers.imagFreqCm1,
-			barrierKJmol:
-				numbers.barrier === undefined ? undefined : convertEnergy(numbers.barrier, unit, 'kJ/mol'),
-			potential,
-			isotope: values.isotope || 'H',
-			levels: numbers.levels ?? 6,
-			xMinA: numbers.xMinA,
-			xMaxA: numbers.xMaxA,
-			points: numbers.points
-		});
-		if (!parsed.success) {
-			return fail(400, { values, errors: formErrors(fieldErrors(parsed.error), unit) });
-		}
+		if (rows.length || general.length)
+			errors.pointsText = [...listRowProblems(rows), ...general, ...(errors.pointsText ?? [])];
+		if (!request) return fail(400, { values, errors });
 		try {
-			const result = await calculate({ kind: 'tunnelling', request: parsed.data }, caller);
-			const plot = result.levels ? tunnellingPlot(parsed.data, result.levels) : null;
+			const result = await calculate({ kind: 'tunnelling', request }, caller);
+			const plot = result.levels ? tunnellingPlot(request, result.levels) : null;
 			return { values, result, plot };
 		} catch (e) {
 			return toFormFailure(e, event, values);

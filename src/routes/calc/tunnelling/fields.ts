@@ -1,6 +1,10 @@
+import { MAX_POTENTIAL_SAMPLES } from '$lib/schemas/calc';
 import { separatorOf, type Separator } from '$lib/schemas/columnSeparator';
-import { readDecimal } from '$lib/schemas/decimal';
+import { NOT_A_DECIMAL, readDecimal } from '$lib/schemas/decimal';
+import type { FieldErrors } from '$lib/schemas/searchParams';
+import { parseTwoColumnText, type RowProblem } from '$lib/schemas/twoColumnText';
 import { ENERGY_UNIT_LABELS, convertEnergy, type EnergyUnit } from '$lib/science/units';
+import { formatNumber } from '$lib/formatNumber';
 
 /*
  * The tunnelling form's fields, shared by the page and its action: names, defaults, the energy
@@ -55,42 +59,7 @@ export const ENERGY_FIELDS = ['barrier', 'wellBarrier', 'asymmetry'] as const;
 
 export const unitLabel = (unit: PageEnergyUnit) => ENERGY_UNIT_LABELS[unit];
 
-const SUPERSCRIPT: Record<string, string> = {
-	'-': '⁻',
-	'0': '⁰',
-	'1': '¹',
-	'2': '²',
-	'3': '³',
-	'4': '⁴',
-	'5': '⁵',
-	'6': '⁶',
-	'7': '⁷',
-	'8': '⁸',
-	'9': '⁹'
-};
-
-/** "1.23 × 10⁻⁵" for very small or large numbers, plain digits otherwise; a true minus sign. */
-export function formatNumber(value: number, significant = 4): string {
-	const abs = Math.abs(value);
-	if (value !== 0 && (abs < 1e-3 || abs >= 1e6)) {
-		const [mantissa, exponent] = value.toExponential(significant - 1).split('e') as [
-			string,
-			string
-		];
-		const power = String(Number(exponent)).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
-		return `${Number(mantissa)} × 10${power}`.replace('-', '−');
-	}
-	return String(Number(value.toPrecision(significant))).replace('-', '−');
-}
-
-/** A value rounded to one significant figure, as an order of magnitude: "≈ 8 × 10³", "≈ 3". */
-export function formatOrderOfMagnitude(value: number): string {
-	const rounded = Number(value.toPrecision(1));
-	if (Math.abs(rounded) < 10) return `≈ ${formatNumber(rounded, 1)}`;
-	const exponent = Math.floor(Math.log10(Math.abs(rounded)));
-	const power = String(exponent).replace(/./g, (c) => SUPERSCRIPT[c] ?? c);
-	return `≈ ${Math.round(rounded / 10 ** exponent)} × 10${power}`;
-}
+export { formatNumber, formatOrderOfMagnitude } from '$lib/formatNumber';
 
 /** An energy computed in kcal/mol, in the page's unit, with the unit. */
 export function formatEnergy(kcalMol: number, unit: PageEnergyUnit, significant = 4): string {
@@ -145,4 +114,79 @@ export function convertFormEnergies(
 		})
 		.join('\n');
 	return next;
+}
+
+/** The numeric fields, read by readDecimal (empty: left out, for the defaults to apply). */
+export const NUMERIC_FIELDS = [
+	'temperatureK',
+	'imagFreqCm1',
+	'barrier',
+	'wellBarrier',
+	'halfSeparationA',
+	'asymmetry',
+	'levels',
+	'xMinA',
+	'xMaxA',
+	'points'
+] as const;
+
+/**
+ * The API request the fields make (energies converted from the page's unit into the API's), the
+ * line number of each pasted point, and what could not be read. Shared by the action, which
+ * checks the request with the API's schema, and the page's "API:" line.
+ */
+export function tunnellingRequestOf(values: FormValues): {
+	body: Record<string, unknown>;
+	lines: number[];
+	problems: RowProblem[];
+	errors: FieldErrors;
+} {
+	const errors: FieldErrors = {};
+	const unit: PageEnergyUnit = isPageEnergyUnit(values.energyUnit) ? values.energyUnit : 'kcal/mol';
+	if (!isPageEnergyUnit(values.energyUnit))
+		errors.energyUnit = [`expected one of ${PAGE_ENERGY_UNITS.join(', ')}`];
+	const numbers: Partial<Record<(typeof NUMERIC_FIELDS)[number], number>> = {};
+	for (const name of NUMERIC_FIELDS) {
+		if (values[name].trim() === '') continue;
+		const value = readDecimal(values[name]);
+		if (value === null) errors[name] = [NOT_A_DECIMAL];
+		else numbers[name] = value;
+	}
+	const kind = values.potentialKind;
+	const sampled =
+		kind === 'points'
+			? parseTwoColumnText(values.pointsText, ['x', 'V'], MAX_POTENTIAL_SAMPLES)
+			: { rows: [], lines: [], problems: [], tooMany: null };
+	if (sampled.tooMany) errors.pointsCount = [sampled.tooMany];
+	const toKcal = (v: number | undefined) =>
+		v === undefined ? undefined : convertEnergy(v, unit, 'kcal/mol');
+	const potential =
+		kind === 'double-well'
+			? {
+					kind,
+					barrierKcalMol: toKcal(numbers.wellBarrier),
+					halfSeparationA: numbers.halfSeparationA,
+					asymmetryKcalMol: toKcal(numbers.asymmetry) ?? 0
+				}
+			: kind === 'points'
+				? {
+						kind,
+						points: sampled.rows.map(([xA, energy]) => ({ xA, energyKcalMol: toKcal(energy) }))
+					}
+				: undefined;
+	const body: Record<string, unknown> = {
+		temperatureK: numbers.temperatureK ?? 298.15,
+		imagFreqCm1: numbers.imagFreqCm1,
+		barrierKJmol:
+			numbers.barrier === undefined ? undefined : convertEnergy(numbers.barrier, unit, 'kJ/mol'),
+		potential,
+		isotope: values.isotope || 'H',
+		levels: numbers.levels ?? 6,
+		xMinA: numbers.xMinA,
+		xMaxA: numbers.xMaxA,
+		points: numbers.points
+	};
+	// Left out rather than sent as undefined, as a script would write it.
+	for (const key of Object.keys(body)) if (body[key] === undefined) delete body[key];
+	return { body, lines: sampled.lines, problems: sampled.problems, errors };
 }
