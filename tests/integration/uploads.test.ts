@@ -275,7 +275,8 @@ describe('committing and reviewing a batch', () => {
 			})
 		);
 		expect(result.created).toBe(4);
-		expect(result.mails.map((m) => m.to)).toEqual(['k@lab.test']);
+		// The curators' notice, then the contributor's receipt.
+		expect(result.mails.map((m) => m.to)).toEqual(['k@lab.test', 'c@lab.test']);
 		const versions = await db
 			.selectFrom('entry_version')
 			.innerJoin('entry', 'entry.id', 'entry_version.entry_id')

@@ -7,6 +7,7 @@ import { DomainError } from '$lib/domainError';
 import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { parseVisibilityRequest, visibilityFromForm } from '$lib/schemas/submission';
 import { AdminRuleError } from '$lib/server/admin/accounts';
+import { AccessRequestError } from '$lib/server/admin/accessRequests';
 import { apiHandler } from '$lib/server/api/handler';
 import {
 	ApiTokenInputError,
@@ -116,6 +117,12 @@ const CASES: Record<string, Case> = {
 		fields: { ph: ['expected a number'] }
 	},
 	PendingLimitError: { error: new PendingLimitError(10, 5, 12), status: 409, code: 'conflict' },
+	AccessRequestError: {
+		error: new AccessRequestError('too_many_requests', 'you asked 2 hours ago', 79_200),
+		status: 429,
+		code: 'too_many_requests',
+		retryAfter: '79200'
+	},
 	CalcBusyError: {
 		error: new CalcBusyError(7),
 		status: 503,
