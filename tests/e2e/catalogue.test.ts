@@ -119,7 +119,7 @@ describe('catalogue in Chromium', () => {
 			.click();
 		await page.getByRole('img', { name: /^Energy ladder/ }).waitFor();
 		const chain = await page.getByTestId('chain-estimate').textContent();
-		expect(chain).toMatch(/Steady-state electron flux .* s⁻¹/);
+		expect(chain).toMatch(/Steady-state electron flux .*\ss⁻¹/);
 		expect(chain).toContain('mean first-passage time');
 		expect(chain).toContain('Model estimate');
 	});
