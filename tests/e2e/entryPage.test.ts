@@ -69,13 +69,17 @@ describe('a potential’s page', () => {
 	it('puts Em vs SHE first, with its uncertainty and conditions, marked as converted', async () => {
 		const page = await open(`/e/${converted.accession}`);
 		const headline = page.getByTestId('headline');
-		// The headline comes before the as-reported fields in the frozen block.
-		const order = await page.getByTestId('frozen-version').evaluate((block) => {
-			const h = block.querySelector('[data-testid="headline"]');
-			const f = block.querySelector('[data-testid="frozen-fields"]');
-			return h && f ? h.compareDocumentPosition(f) & Node.DOCUMENT_POSITION_FOLLOWING : 0;
+		// The headline comes right under the title, before the citing strip and the as-reported
+		// fields of the frozen block.
+		const order = await page.locator('main').evaluate((main) => {
+			const at = (id: string) => main.querySelector(`[data-testid="${id}"]`);
+			const [t, h, c, f] = ['entry-title', 'headline', 'cite-strip', 'frozen-fields'].map(at);
+			if (!t || !h || !c || !f) return 0;
+			const follows = (a: Element, b: Element) =>
+				(a.compareDocumentPosition(b) & Node.DOCUMENT_POSITION_FOLLOWING) > 0;
+			return follows(t, h) && follows(h, c) && follows(c, f) ? 1 : 0;
 		});
-		expect(order).toBeGreaterThan(0);
+		expect(order).toBe(1);
 		// Oracle: the API's emMvShe, rounded to the mV, with U+2212 for its sign.
 		const em = `−${Math.round(Math.abs(converted.emMvShe))} mV`;
 		expect(plain(await page.getByTestId('headline-value').textContent())).toContain(em);
@@ -297,9 +301,11 @@ describe('at 390 px', () => {
 		}
 	);
 
-	it('a potential’s page does not scroll sideways, headline first under the citing strip', async () => {
+	it('a potential’s page shows its headline value in the first screen and does not scroll sideways', async () => {
 		const page = await open(`/e/${converted.accession}`, PHONE);
 		expect(await sidewaysOverflow(page)).toBe(0);
+		const box = await page.getByTestId('headline-value').boundingBox();
+		expect(box && box.y + box.height).toBeLessThanOrEqual(PHONE.height);
 		await page.screenshot({ path: 'test-results/entry-potential-390.png', fullPage: true });
 		expect(await seriousViolations(page)).toEqual([]);
 		await page.context().close();

@@ -76,6 +76,8 @@ interface FrozenCapture {
 	title: string;
 	/** The server's HTML of the version's title (<h1>), beside the frozen block. */
 	heading: string;
+	/** The server's HTML of the headline value under the title (a potential's Em vs SHE). */
+	headline: string;
 	documentTitle: string;
 	/** The server's HTML of the frozen block, as sent. */
 	block: string;
@@ -125,6 +127,7 @@ async function capture(path: string): Promise<FrozenCapture> {
 	const captured = {
 		title: /<title>([\s\S]*?)<\/title>/.exec(html)?.[1] ?? '',
 		heading: /<h1[^>]*id="entry-title"[^>]*>[\s\S]*?<\/h1>/.exec(html)?.[0] ?? '',
+		headline: /<div[^>]*data-testid="headline"[^>]*>[\s\S]*?<\/div>/.exec(html)?.[0] ?? '',
 		documentTitle: await page.title(),
 		block,
 		hydratedBlock: await page.getByTestId('frozen-version').evaluate((el) => el.outerHTML),
@@ -204,6 +207,7 @@ describe('a version page is frozen', () => {
 		expect(centreV1.block).toContain(fx.proteinName);
 		expect(Object.values(centreV1.citations).join('\n')).toContain(fx.proteinName);
 		expect(centreV1.heading).toContain(fx.proteinName);
+		expect(before.get(`/e/${fx.potential}/v1`)?.headline).toContain('mV');
 		expect(centreV1.citations['bib']).toContain('2026-03-02');
 		const potentialV1 = JSON.parse(apiBefore.get(versioned[3] as string) as string);
 		expect(potentialV1.references.centreAccession).toMatchObject({
@@ -267,6 +271,7 @@ describe('a version page is frozen', () => {
 			const was = before.get(path) as FrozenCapture;
 			expect(after.title, path).toBe(was.title);
 			expect(after.heading, path).toBe(was.heading);
+			expect(after.headline, path).toBe(was.headline);
 			expect(after.documentTitle, path).toBe(was.documentTitle);
 			expect(after.block, path).toBe(was.block);
 			expect(after.hydratedBlock, path).toBe(was.hydratedBlock);
