@@ -93,8 +93,9 @@ describe('catalogue in Chromium', () => {
 		await expect(page.getByTestId('newer-version-notice').textContent()).resolves.toContain(
 			`newer version exists: version ${revised?.version}`
 		);
-		await page.getByRole('button', { name: 'Copy' }).click();
-		await page.getByRole('button', { name: 'Copied' }).waitFor();
+		await page.getByTestId('cite-formats').click();
+		await page.getByRole('button', { name: 'Copy BibTeX' }).click();
+		await page.getByTestId('cite-status').filter({ hasText: 'BibTeX copied' }).waitFor();
 		const clipboard = await page.evaluate(() => navigator.clipboard.readText());
 		expect(clipboard).toMatch(new RegExp(`^@misc\\{hopline_${accession}_v1,`));
 		expect(clipboard).toContain(`url = {${base}/e/${accession}/v1}`);
@@ -116,9 +117,9 @@ describe('catalogue in Chromium', () => {
 			.getByRole('link', { name: /RoxA–H/ })
 			.first()
 			.click();
-		await page.locator('svg[aria-label^="Energy ladder"]').waitFor();
+		await page.getByRole('img', { name: /^Energy ladder/ }).waitFor();
 		const chain = await page.getByTestId('chain-estimate').textContent();
-		expect(chain).toMatch(/Throughput .* s⁻¹/);
+		expect(chain).toMatch(/Steady-state electron flux .*\ss⁻¹/);
 		expect(chain).toContain('mean first-passage time');
 		expect(chain).toContain('Model estimate');
 	});

@@ -256,6 +256,7 @@ describe('the Cite box in Chromium', () => {
 		'takes the access date from the reader’s calendar (%s)',
 		async (timezoneId) => {
 			const context = await browser.newContext({ baseURL: base, timezoneId });
+			await context.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: base });
 			const page = await context.newPage();
 			const problems: string[] = [];
 			page.on('console', (m) => m.type() === 'error' && problems.push(m.text()));
@@ -268,7 +269,15 @@ describe('the Cite box in Chromium', () => {
 				new Intl.DateTimeFormat('en-CA', { timeZone: timezoneId }).format(new Date())
 			);
 			await page.getByTestId('cite-accessed').filter({ hasText: local }).waitFor();
-			expect(await page.locator('#citation-text').inputValue()).toContain(`urldate = {${local}}`);
+			await page.getByTestId('cite-formats').click();
+			await page.getByTestId('cite-copy-bib').click();
+			await page.getByTestId('cite-status').filter({ hasText: 'BibTeX copied' }).waitFor();
+			expect(await page.evaluate(() => navigator.clipboard.readText())).toContain(
+				`urldate = {${local}}`
+			);
+			expect(await page.getByTestId('cite-text-record').textContent()).toContain(
+				`(accessed ${local})`
+			);
 			const href = await page.getByTestId('cite-download-bib').getAttribute('href');
 			expect(href).toBe(`/e/${accession}/v1/cite.bib?accessed=${local}`);
 			const download = await page.evaluate(async (url) => (await fetch(url)).status, href ?? '');
@@ -283,7 +292,8 @@ describe('the Cite box in Chromium', () => {
 		const page = await context.newPage();
 		await page.goto(`/e/${accession}/v1`);
 		expect(await page.getByTestId('cite-accessed').textContent()).toContain('No access date');
-		expect(await page.locator('#citation-text').inputValue()).not.toContain('urldate');
+		expect(await page.getByTestId('cite-text-record').textContent()).not.toContain('accessed');
+		expect(await page.getByTestId('cite-copy-bib').count()).toBe(0);
 		const href = await page.getByTestId('cite-download-ris').getAttribute('href');
 		expect(href).toBe(`/e/${accession}/v1/cite.ris`);
 		await page.screenshot({ path: 'test-results/cite-without-scripts.png', fullPage: true });

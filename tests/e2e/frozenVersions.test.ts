@@ -58,7 +58,9 @@ beforeAll(async () => {
 	server = await startServer(path);
 	base = server.baseUrl;
 	browser = await launchChromium();
-	reader = await (await browser.newContext({ baseURL: base })).newPage();
+	const readerContext = await browser.newContext({ baseURL: base });
+	await readerContext.grantPermissions(['clipboard-read', 'clipboard-write'], { origin: base });
+	reader = await readerContext.newPage();
 	await reader.clock.setFixedTime(READ_AT);
 }, 120_000);
 
@@ -72,6 +74,10 @@ afterAll(async () => {
 /** Everything a frozen version page and its API answer cite. */
 interface FrozenCapture {
 	title: string;
+	/** The server's HTML of the version's title (<h1>), beside the frozen block. */
+	heading: string;
+	/** The server's HTML of the headline value under the title (a potential's Em vs SHE). */
+	headline: string;
 	documentTitle: string;
 	/** The server's HTML of the frozen block, as sent. */
 	block: string;
@@ -93,21 +99,35 @@ async function capture(path: string): Promise<FrozenCapture> {
 
 	await reader.goto(path);
 	const page = reader;
+	// The "How to cite" strip: the plain texts as shown, and each format of its menu as copied.
 	const cite = page.getByTestId('frozen-citation');
-	const formats = cite.getByRole('radio');
+	await cite.getByTestId('cite-accessed').filter({ hasText: 'Access date' }).waitFor();
 	const citations: Record<string, string> = {};
-	const count = await formats.count();
-	expect(count, 'the page offers citation formats').toBeGreaterThanOrEqual(4);
-	for (let i = 0; i < count; i++) {
-		const format = formats.nth(i);
-		await format.click();
-		await expect(format.getAttribute('aria-checked')).resolves.toBe('true');
-		citations[(await format.textContent())?.trim() ?? String(i)] = await cite
-			.locator('textarea')
-			.inputValue();
+	for (const id of ['cite-text-record', 'cite-text-original']) {
+		const text = cite.getByTestId(id);
+		if ((await text.count()) > 0) citations[id] = (await text.textContent())?.trim() ?? '';
 	}
+	const formats: [string, string][] = [
+		['bib', 'BibTeX'],
+		['ris', 'RIS'],
+		['json', 'CSL-JSON']
+	];
+	for (const [extension, label] of formats) {
+		await cite.getByTestId('cite-formats').click();
+		await cite.getByTestId(`cite-copy-${extension}`).click();
+		await cite
+			.getByTestId('cite-status')
+			.filter({ hasText: `${label} copied` })
+			.waitFor();
+		citations[extension] = await page.evaluate(() => navigator.clipboard.readText());
+	}
+	expect(Object.keys(citations).length, 'the page offers citation formats').toBeGreaterThanOrEqual(
+		4
+	);
 	const captured = {
 		title: /<title>([\s\S]*?)<\/title>/.exec(html)?.[1] ?? '',
+		heading: /<h1[^>]*id="entry-title"[^>]*>[\s\S]*?<\/h1>/.exec(html)?.[0] ?? '',
+		headline: /<div[^>]*data-testid="headline"[^>]*>[\s\S]*?<\/div>/.exec(html)?.[0] ?? '',
 		documentTitle: await page.title(),
 		block,
 		hydratedBlock: await page.getByTestId('frozen-version').evaluate((el) => el.outerHTML),
@@ -186,7 +206,9 @@ describe('a version page is frozen', () => {
 		expect(centreV1.title).toContain(fx.proteinName);
 		expect(centreV1.block).toContain(fx.proteinName);
 		expect(Object.values(centreV1.citations).join('\n')).toContain(fx.proteinName);
-		expect(centreV1.citations['BibTeX']).toContain('2026-03-02');
+		expect(centreV1.heading).toContain(fx.proteinName);
+		expect(before.get(`/e/${fx.potential}/v1`)?.headline).toContain('mV');
+		expect(centreV1.citations['bib']).toContain('2026-03-02');
 		const potentialV1 = JSON.parse(apiBefore.get(versioned[3] as string) as string);
 		expect(potentialV1.references.centreAccession).toMatchObject({
 			accession: fx.centre,
@@ -248,6 +270,8 @@ describe('a version page is frozen', () => {
 			const after = await capture(path);
 			const was = before.get(path) as FrozenCapture;
 			expect(after.title, path).toBe(was.title);
+			expect(after.heading, path).toBe(was.heading);
+			expect(after.headline, path).toBe(was.headline);
 			expect(after.documentTitle, path).toBe(was.documentTitle);
 			expect(after.block, path).toBe(was.block);
 			expect(after.hydratedBlock, path).toBe(was.hydratedBlock);

@@ -1,11 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { apiNumberText, curlPost, hopRateApiUrl } from '$lib/calcApi';
-import {
-	formatNumber,
-	formatNumberText,
-	formatPowerOfTen,
-	typesetNumbersIn
-} from '$lib/formatNumber';
+import { formatNumber, formatPowerOfTen, formatSignificant, typesetNumbersIn } from '$lib/format';
 import { hopPickSchema, titrationRequestSchema, tunnellingRequestSchema } from '$lib/schemas/calc';
 import { parseSearchParams } from '$lib/schemas/searchParams';
 import { TITRATION_DEFAULTS, titrationRequestOf } from '../../src/routes/calc/titration/fields';
@@ -116,8 +111,8 @@ describe('numbers as the calculator pages show them', () => {
 	it('use a true minus sign and powers of ten', () => {
 		expect(formatPowerOfTen(41_400_000)).toBe('4.14 × 10⁷');
 		expect(formatPowerOfTen(0.000285)).toBe('2.85 × 10⁻⁴');
-		expect(formatNumber(-0.5)).toBe('−0.5');
-		expect(formatNumberText(-0.09)).toBe('−0.09');
+		expect(formatSignificant(-0.5)).toBe('−0.5');
+		expect(formatNumber(-0.09)).toBe('−0.09');
 	});
 	it('typeset the numbers inside a note, leaving words alone', () =>
 		expect(typesetNumbersIn('Grid -1.033 to 1.034 Å: decayed to 5.8e-9 (well-known, x=-2)')).toBe(

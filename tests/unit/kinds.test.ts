@@ -56,7 +56,7 @@ describe('fields named through their kind', () => {
 	it("takes the kind's own label first, then the shared one, then the field's name", () => {
 		expect(fieldLabel('distance', 'edgeToEdgeA')).toBe('Edge-to-edge distance');
 		// Not a form field (computed on normalising), so named by the shared table.
-		expect(fieldLabel('potential', 'emMvShe')).toBe('Em (normalised)');
+		expect(fieldLabel('potential', 'emMvShe')).toBe('Em vs SHE (converted)');
 		expect(fieldLabel('potential', 'somethingNew')).toBe('somethingNew');
 	});
 

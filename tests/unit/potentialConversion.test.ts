@@ -28,7 +28,7 @@ describe('how a potential was converted to SHE', () => {
 	it('reads the electrode and temperature from a version’s data, or gives none', () => {
 		expect(
 			potentialConversionNote({ referenceElectrode: 'SHE', temperatureK: null, other: 1 })
-		).toBe('Reported vs SHE: the normalised Em is the value as reported.');
+		).toBe('Reported vs SHE: Em vs SHE is the value as reported.');
 		expect(potentialConversionNote({ name: 'a protein' })).toBeNull();
 	});
 });

@@ -1,10 +1,9 @@
 import { describe, expect, it } from 'vitest';
+import { formatOrderOfMagnitude, formatSignificant } from '$lib/format';
 import {
 	DEFAULTS,
 	convertFormEnergies,
-	formatEnergy,
-	formatNumber,
-	formatOrderOfMagnitude
+	formatEnergy
 } from '../../src/routes/calc/tunnelling/fields';
 
 // The tunnelling page's unit switch and number formatting (src/routes/calc/tunnelling/fields.ts).
@@ -57,8 +56,8 @@ describe('numbers on the tunnelling page', () => {
 		expect(formatOrderOfMagnitude(1.64)).toBe('≈ 2');
 	});
 	it('small and large numbers in powers of ten, with a true minus sign', () => {
-		expect(formatNumber(1.2345e-5, 3)).toBe('1.23 × 10⁻⁵');
-		expect(formatNumber(-0.5)).toBe('−0.5');
+		expect(formatSignificant(1.2345e-5, 3)).toBe('1.23 × 10⁻⁵');
+		expect(formatSignificant(-0.5)).toBe('−0.5');
 		expect(formatEnergy(1, 'kJ/mol')).toBe('4.184\u00a0kJ/mol');
 		expect(formatEnergy(1, 'cm-1', 6)).toBe('349.755\u00a0cm⁻¹');
 	});

@@ -379,24 +379,32 @@ function textAuthors(names: string[]): string {
 	return `${names.slice(0, -1).join(', ')}, & ${names.at(-1)}`;
 }
 
-function textOf(record: CitableRecord, accessed: CalendarDate | null): string {
+/** The plain-text citations, apart: the record's version, and the original work where known. */
+export function plainCitations(
+	record: CitableRecord,
+	accessed: CalendarDate | null
+): { record: string; original: string | null } {
 	const year = approvalDate(record)[0];
 	const authors =
 		record.authors.length > 0
 			? textAuthors(record.authors.map((p) => initialledName(personParts(p))))
 			: UNNAMED_AUTHORS;
-	const lines = [
-		`${authors} (${year}). ${record.title} (${PUBLISHER} record ${record.accession}, version ${record.version}) [Data set]. ${PUBLISHER}. ${record.permalink}${accessed ? ` (accessed ${accessed})` : ''}`
-	];
+	const own = `${authors} (${year}). ${record.title} (${PUBLISHER} record ${record.accession}, version ${record.version}) [Data set]. ${PUBLISHER}. ${record.permalink}${accessed ? ` (accessed ${accessed})` : ''}`;
 	const o = record.original;
-	if (o) {
-		const who = textAuthors(o.authors.map((a) => initialledName(storedAuthorParts(a))));
-		const where = o.sourceKind === 'dataset' ? 'Unpublished dataset' : o.journal;
-		lines.push(
-			`Cite ${originalRole(record.kind)}: ${who} (${o.year ?? 'n.d.'}). ${o.title}.${where ? ` ${where.replace(/\.$/, '')}.` : ''}${o.doi ? ` ${doiUrl(o.doi)}` : ''}`
-		);
-	}
-	return lines.join('\n');
+	if (!o) return { record: own, original: null };
+	const who = textAuthors(o.authors.map((a) => initialledName(storedAuthorParts(a))));
+	const where = o.sourceKind === 'dataset' ? 'Unpublished dataset' : o.journal;
+	return {
+		record: own,
+		original: `${who} (${o.year ?? 'n.d.'}). ${o.title}.${where ? ` ${where.replace(/\.$/, '')}.` : ''}${o.doi ? ` ${doiUrl(o.doi)}` : ''}`
+	};
+}
+
+function textOf(record: CitableRecord, accessed: CalendarDate | null): string {
+	const parts = plainCitations(record, accessed);
+	return parts.original === null
+		? parts.record
+		: `${parts.record}\nCite ${originalRole(record.kind)}: ${parts.original}`;
 }
 
 /** The version's citations; `accessed` is the reader's date, or null where it is not known. */

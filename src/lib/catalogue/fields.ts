@@ -1,4 +1,14 @@
-import { formatAngstrom, formatKelvin, formatMv, formatSpin } from '$lib/format';
+import {
+	formatAngstrom,
+	formatGValues,
+	formatKelvin,
+	formatMv,
+	formatNumber,
+	formatPhValue,
+	formatReportedValue,
+	formatSpin,
+	formatUncertaintyMv
+} from '$lib/format';
 import {
 	REFERENCE_ELECTRODE_LABELS,
 	type ReferenceElectrode
@@ -35,7 +45,7 @@ export const FIELD_LABELS: Record<string, string> = {
 	coordinatesA: 'Centroid (Å)',
 	centreAccession: 'Centre',
 	couple: 'Couple',
-	emMvShe: 'Em (normalised)',
+	emMvShe: 'Em vs SHE (converted)',
 	reportedValue: 'Value as reported',
 	reportedUnit: 'Unit as reported',
 	referenceElectrode: 'Reference electrode',
@@ -48,7 +58,7 @@ export const FIELD_LABELS: Record<string, string> = {
 	uncertaintyMv: 'Uncertainty',
 	sourceAccession: 'Source',
 	note: 'Note',
-	oxidationLevel: 'Oxidation level',
+	oxidationLevel: 'Redox state',
 	spinS: 'Spin S',
 	gValues: 'g-values',
 	centreAAccession: 'Centre A',
@@ -74,13 +84,17 @@ export function formatField(field: string, value: unknown, unit?: string): strin
 		return '—';
 	switch (field) {
 		case 'emMvShe':
-			return `${formatMv(value as number, 1)} vs SHE`;
+			return `${formatMv(value as number)} vs SHE`;
 		case 'uncertaintyMv':
-			return `± ${formatMv(value as number)}`;
+			return formatUncertaintyMv(value as number);
+		case 'reportedValue':
+			return formatReportedValue(value as number);
+		case 'ph':
+			return formatPhValue(value as number);
 		case 'temperatureK':
 			return formatKelvin(value as number);
 		case 'ionicStrengthM':
-			return `${value} M`;
+			return `${formatNumber(value as number)}\u00a0M`;
 		case 'edgeToEdgeA':
 		case 'centreToCentreA':
 			return formatAngstrom(value as number);
@@ -91,14 +105,18 @@ export function formatField(field: string, value: unknown, unit?: string): strin
 		case 'spinS':
 			return formatSpin(value as number);
 		case 'gValues':
-			return (value as number[]).map((g) => g.toFixed(3)).join(', ');
+			return formatGValues(value as number[]);
 		case 'coordinatesA': {
 			const c = value as { x: number; y: number; z: number };
-			return `(${c.x}, ${c.y}, ${c.z})`;
+			return `(${[c.x, c.y, c.z].map(formatNumber).join(', ')})`;
 		}
 		case 'method':
 			return METHOD_LABELS[value as Method] ?? String(value);
 	}
-	const text = Array.isArray(value) ? value.join(field === 'authors' ? '; ' : ', ') : String(value);
+	const text = Array.isArray(value)
+		? value.join(field === 'authors' ? '; ' : ', ')
+		: typeof value === 'number'
+			? formatNumber(value)
+			: String(value);
 	return unit ? `${text} ${unit}` : text;
 }

@@ -21,7 +21,7 @@ export function conversionNote(electrode: ReferenceElectrode, temperatureK: numb
 	const t = temperatureK ?? STANDARD_TEMPERATURE_K;
 	const at = `${Number((t - ZERO_CELSIUS_K).toFixed(2))} °C${temperatureK === null ? ' (no temperature given: 25 °C assumed)' : ''}`;
 	const label = REFERENCE_ELECTRODE_LABELS[electrode];
-	if (electrode === 'SHE') return 'Reported vs SHE: the normalised Em is the value as reported.';
+	if (electrode === 'SHE') return 'Reported vs SHE: Em vs SHE is the value as reported.';
 	if (electrode === 'NHE') {
 		const atm = Math.abs(hydrogenElectrodePressureShiftMv(1.01325)).toFixed(2);
 		return `Reported vs NHE, converted as SHE (offset 0): papers writing "vs NHE" almost always mean the SHE. A historical NHE (1 N acid, hydrogen at 1 atm) differs from the SHE by a few mV, mostly from the activity of H⁺ in 1 N acid; the 1 atm / 1 bar change of standard pressure alone is ${atm} mV.`;
@@ -29,7 +29,7 @@ export function conversionNote(electrode: ReferenceElectrode, temperatureK: numb
 	const problem = electrodeTemperatureProblem(electrode, t);
 	if (problem !== null) {
 		// Possible only for versions approved before the ranges were checked.
-		return `Converted from ${label} at ${at}, outside the ${describeTemperatureRange(electrode)} over which this conversion holds (approved before that range was checked): the normalised Em may be off by tens of mV.`;
+		return `Converted from ${label} at ${at}, outside the ${describeTemperatureRange(electrode)} over which this conversion holds (approved before that range was checked): Em vs SHE may be off by tens of mV.`;
 	}
 	const offset = electrodeOffsetMv(electrode, t);
 	return electrode === 'SCE'

@@ -6,7 +6,7 @@ import { isAccession } from '$lib/schemas/accession';
 import type { HopPick } from '$lib/schemas/calc';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import { COFACTOR_KIND_LABELS, type CofactorKind } from '$lib/schemas/vocabulary';
-import { formatNumberText } from '$lib/formatNumber';
+import { formatNumber } from '$lib/format';
 import { deltaGFromPotentials } from '$lib/science';
 import type { Database } from '../db/schema';
 import { COMPARABLE_COLUMNS, toComparable } from '../catalogue/comparablePotential';
@@ -180,7 +180,7 @@ function nearestByCouple(
 
 /** ΔG° in eV as the field shows it: to 0.1 meV, a true minus sign. */
 export function dGText(ev: number): string {
-	return formatNumberText(Number(ev.toFixed(4)));
+	return formatNumber(Number(ev.toFixed(4)));
 }
 
 export async function hopPair(
@@ -293,7 +293,7 @@ export async function hopPair(
 	if (chosen)
 		out.distance = {
 			angstrom: chosen.edgeToEdgeAngstrom,
-			text: formatNumberText(chosen.edgeToEdgeAngstrom),
+			text: formatNumber(chosen.edgeToEdgeAngstrom),
 			accession: chosen.accession,
 			structureId: chosen.structureId,
 			centreToCentreA: chosen.centreToCentreAngstrom,

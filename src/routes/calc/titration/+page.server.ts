@@ -2,7 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { titrationRequestSchema } from '$lib/schemas/calc';
 import { fieldErrors } from '$lib/schemas/fieldErrors';
 import { listRowProblems, type RowProblem } from '$lib/schemas/twoColumnText';
-import { typesetNumbersIn } from '$lib/formatNumber';
+import { typesetNumbersIn } from '$lib/format';
 import { titrationAnswer } from '$lib/server/calc/answers';
 import { calculate, callerOf, checkCaller } from '$lib/server/calc/compute';
 import { toFormFailure } from '$lib/server/http/failures';

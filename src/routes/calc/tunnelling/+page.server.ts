@@ -6,7 +6,7 @@ import {
 	tunnellingRequestSchema
 } from '$lib/schemas/calc';
 import { listRowProblems, type RowProblem } from '$lib/schemas/twoColumnText';
-import { typesetNumbersIn } from '$lib/formatNumber';
+import { formatSignificant, typesetNumbersIn } from '$lib/format';
 import { fieldErrors } from '$lib/schemas/fieldErrors';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import { convertEnergy, type EnergyUnit } from '$lib/science/units';
@@ -18,7 +18,6 @@ import type { Actions, PageServerLoad } from './$types';
 import {
 	DEFAULTS,
 	FIELD_NAMES,
-	formatNumber,
 	isPageEnergyUnit,
 	unitLabel,
 	tunnellingRequestOf,
@@ -41,7 +40,7 @@ const ENERGY_BOUNDS: Record<string, { bounds: readonly [number, number]; unit: E
 
 /** A range message in the page's unit (the request's bounds are in the API's units). */
 function rangeIn(bounds: readonly [number, number], from: EnergyUnit, unit: PageEnergyUnit) {
-	const [min, max] = bounds.map((b) => formatNumber(convertEnergy(b, from, unit)));
+	const [min, max] = bounds.map((b) => formatSignificant(convertEnergy(b, from, unit)));
 	return `expected a number from ${min} to ${max} ${unitLabel(unit)}`;
 }
 

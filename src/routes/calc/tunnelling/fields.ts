@@ -4,7 +4,7 @@ import { NOT_A_DECIMAL, readDecimal } from '$lib/schemas/decimal';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import { parseTwoColumnText, type RowProblem } from '$lib/schemas/twoColumnText';
 import { ENERGY_UNIT_LABELS, convertEnergy, type EnergyUnit } from '$lib/science/units';
-import { formatNumber } from '$lib/formatNumber';
+import { formatSignificant } from '$lib/format';
 
 /*
  * The tunnelling form's fields, shared by the page and its action: names, defaults, the energy
@@ -59,11 +59,9 @@ export const ENERGY_FIELDS = ['barrier', 'wellBarrier', 'asymmetry'] as const;
 
 export const unitLabel = (unit: PageEnergyUnit) => ENERGY_UNIT_LABELS[unit];
 
-export { formatNumber, formatOrderOfMagnitude } from '$lib/formatNumber';
-
 /** An energy computed in kcal/mol, in the page's unit, with the unit. */
 export function formatEnergy(kcalMol: number, unit: PageEnergyUnit, significant = 4): string {
-	return `${formatNumber(convertEnergy(kcalMol, 'kcal/mol', unit), significant)}\u00a0${unitLabel(unit)}`;
+	return `${formatSignificant(convertEnergy(kcalMol, 'kcal/mol', unit), significant)}\u00a0${unitLabel(unit)}`;
 }
 
 /** A typed number as it should reappear in a field after a unit change (six significant figures). */
