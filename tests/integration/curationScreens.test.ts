@@ -214,9 +214,10 @@ describe('the audit log', () => {
 			new RegExp(`^edited submission #${submissionId} \\(potential HL\\d{6}\\)$`)
 		);
 		// Only the fields that changed, by their labels (kinds/potential.ts), before and after:
-		// the value typed and the Em converted from it; the visibility, stored in two shapes, did not.
+		// the value typed and the Em converted from it (both with the Unicode minus of displayed
+		// numbers); the visibility, stored in two shapes, did not.
 		expect(edit?.changes.map((c) => [c.field, c.before, c.after])).toEqual([
-			['Value as reported', '-250', '-260'],
+			['Value as reported', '−250', '−260'],
 			[
 				expect.stringMatching(/^Em/),
 				expect.stringMatching(/^−250\smV vs SHE$/u),
