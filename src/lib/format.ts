@@ -76,7 +76,12 @@ export function formatUncertaintyMv(mv: number | null): string {
 }
 
 export function formatKelvin(k: number | null): string {
-	return k === null ? '—' : `${trim(k, 2)}${NBSP}K`;
+	return k === null ? '—' : `${formatKelvinValue(k)}${NBSP}K`;
+}
+
+/** A temperature in K without its unit, for a column whose header names it: "298.15". */
+export function formatKelvinValue(k: number): string {
+	return trim(k, 2);
 }
 
 /** Temperature in °C from kelvin, to 0.01 °C ("25 °C"). */

@@ -15,7 +15,7 @@ describe('administration in Chromium', () => {
 	it('creates a group, adds a member, and the member list shows it', async () => {
 		await page.goto('/admin/groups');
 		await page.getByLabel('Name', { exact: true }).fill('Demo photosynthesis lab');
-		await page.getByLabel('Short name (slug)').fill('demo-photosynthesis-lab');
+		await page.getByLabel('Short name').fill('demo-photosynthesis-lab');
 		await page.getByRole('button', { name: 'Create group' }).click();
 		const group = page.locator('[data-group=demo-photosynthesis-lab]');
 		await group.waitFor();
@@ -30,7 +30,7 @@ describe('administration in Chromium', () => {
 	it('refuses a bad slug with a message beside the field', async () => {
 		await page.goto('/admin/groups');
 		await page.getByLabel('Name', { exact: true }).fill('Bad');
-		await page.getByLabel('Short name (slug)').fill('Not A Slug!');
+		await page.getByLabel('Short name').fill('Not A Slug!');
 		await page.getByRole('button', { name: 'Create group' }).click();
 		expect(await page.locator('[data-field-error=slug]').textContent()).toContain(
 			'lower-case letters'

@@ -20,7 +20,7 @@ beforeEach(async () => {
 });
 
 async function emColumn(): Promise<number[]> {
-	const texts = await page.locator('tbody tr td:nth-child(7) span.font-medium').allTextContents();
+	const texts = await page.locator('tbody tr td:nth-child(5) span.font-medium').allTextContents();
 	return texts.map((t) => Number(t.replace('−', '-').replace(/[^\d.-]/g, '')));
 }
 
@@ -29,7 +29,8 @@ describe('catalogue in Chromium', () => {
 		await page.goto('/');
 		await page.getByRole('link', { name: '[4Fe-4S]', exact: true }).click();
 		await page.waitForURL(/\/search\?kind=fe4s4/);
-		const kinds = await page.locator('tbody tr td:nth-child(5)').allTextContents();
+		// Columns: accession, protein, centre, couple, Em, cofactor type, … (organism hidden by default).
+		const kinds = await page.locator('tbody tr td:nth-child(6)').allTextContents();
 		expect(kinds.length).toBeGreaterThan(0);
 		expect(new Set(kinds.map((k) => k.trim()))).toEqual(new Set(['[4Fe-4S]']));
 		await page.screenshot({ path: 'test-results/search-kind.png', fullPage: true });
@@ -53,7 +54,7 @@ describe('catalogue in Chromium', () => {
 			expect(v).toBeLessThanOrEqual(-200);
 		}
 		// Sorting by a column header keeps the filters and puts the order in the URL.
-		await page.getByRole('button', { name: /Em \(mV vs SHE\)/ }).click();
+		await page.getByRole('button', { name: /Em vs SHE/ }).click();
 		await page.waitForURL(/sort=em/);
 		await page.waitForFunction(() => document.querySelector('th[aria-sort="ascending"]') !== null);
 		const sorted = await emColumn();
@@ -63,13 +64,18 @@ describe('catalogue in Chromium', () => {
 
 	it('hides a column and keeps that in a shareable URL', async () => {
 		await page.goto('/search');
-		await page.getByText('Columns').click();
-		await page.getByLabel('Organism', { exact: true }).last().uncheck();
-		await page.waitForURL(/hide=organism/);
+		// Organism and the value as reported are hidden by default; hiding Method as well is kept.
+		await page.getByText('Columns', { exact: true }).click();
+		const menu = page.locator('details', { hasText: 'Columns' });
+		await menu.getByLabel('Method', { exact: true }).uncheck();
+		await page.waitForURL(/hide=[^&]*method/);
 		const shared = page.url();
 		const other = await context.newPage();
 		await other.goto(shared);
+		await other.locator('tbody tr').first().waitFor();
+		await expect(other.locator('thead th', { hasText: 'Method' }).count()).resolves.toBe(0);
 		await expect(other.locator('thead th', { hasText: 'Organism' }).count()).resolves.toBe(0);
+		await expect(other.locator('thead th', { hasText: 'Source' }).count()).resolves.toBe(1);
 	});
 
 	it('opens an entry, then an older version by permalink, and copies its BibTeX', async () => {

@@ -158,7 +158,7 @@ describe('curation, end to end', () => {
 		};
 		expect(api.items.map((i) => i.accession)).toContain(accession);
 		await visitor.goto(`/search?centre=${target.centre}`);
-		await visitor.locator(`a[href="/e/${accession}"]`).first().waitFor();
+		await visitor.locator(`tbody a[href="/e/${accession}"]`).first().waitFor();
 		const mail = await mailTo('contributor@demo.hopline.test', /approved/);
 		expect(mail).toContain(`/e/${accession}/v1`);
 		// Its citation names the contributor (with the iD recorded above) and the curator.
@@ -207,7 +207,7 @@ describe('curation, end to end', () => {
 		expect(csv).toContain(accession);
 		expect(csv).not.toContain(embargoed);
 		await visitor.goto(`/search?centre=${target.centre}`);
-		await visitor.locator(`a[href="/e/${accession}"]`).first().waitFor();
+		await visitor.locator(`tbody a[href="/e/${accession}"]`).first().waitFor();
 		expect(await visitor.locator(`a[href="/e/${embargoed}"]`).count()).toBe(0);
 
 		// A member of the group sees it already.

@@ -83,6 +83,8 @@ describe('entry forms with JavaScript', () => {
 
 	it('suggest centres while typing: arrows, Enter and Escape, as an ARIA combobox', async () => {
 		await page.goto('/submissions/new/potential');
+		// The combobox roles arrive with the script (without it the field is a plain text input).
+		await page.locator('[name=centreAccession][role=combobox]').waitFor();
 		const input = field(page, 'centreAccession');
 		expect(await input.getAttribute('role')).toBe('combobox');
 		expect(await input.getAttribute('aria-expanded')).toBe('false');

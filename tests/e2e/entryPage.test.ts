@@ -122,6 +122,8 @@ describe('the How to cite strip and the version dots', () => {
 		const page = await open(`/e/${revised.accession}/v1`, WIDE, { clipboard: true });
 		const strip = page.getByTestId('cite-strip');
 		await strip.getByTestId('cite-accessed').filter({ hasText: 'Access date' }).waitFor();
+		// The access date joins the citation once the reader's own calendar has been read.
+		await strip.getByTestId('cite-text-record').filter({ hasText: '(accessed ' }).waitFor();
 		const record = plain(await strip.getByTestId('cite-text-record').textContent());
 		expect(record).toContain(`${base}/e/${revised.accession}/v1`);
 		expect(record).toContain('version 1');

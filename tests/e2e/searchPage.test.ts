@@ -1,7 +1,11 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousViolations } from '../support/axe';
 import { launchChromium } from '../support/browser';
+import { startServer, type RunningServer } from '../support/server';
 
 /*
  * The search page at a glance: the trade's spellings through the page, a dense table at
@@ -10,15 +14,26 @@ import { launchChromium } from '../support/browser';
  * axe (0 critical, 0 serious) on each state.
  */
 
-const base = inject('baseUrl');
+// A server of its own with the demo scenario untouched: the expected counts are the demo's, and
+// other test files add potentials to the shared server.
+let server: RunningServer;
+let dir: string;
+let base: string;
 const DESK = { width: 1366, height: 900 };
 const PHONE = { width: 390, height: 844 };
 let browser: Browser;
 
 beforeAll(async () => {
+	dir = mkdtempSync(join(tmpdir(), 'hopline-search-page-'));
+	server = await startServer(join(dir, 'search.sqlite'));
+	base = server.baseUrl;
 	browser = await launchChromium();
+}, 120_000);
+afterAll(async () => {
+	await browser?.close();
+	await server?.stop();
+	rmSync(dir, { recursive: true, force: true });
 });
-afterAll(async () => browser?.close());
 
 async function open(path: string, viewport = DESK, javaScriptEnabled = true): Promise<Page> {
 	const context = await browser.newContext({
@@ -48,6 +63,22 @@ describe('search vocabulary through the page', () => {
 		expect(await count(page)).toBe(expected);
 		await page.context().close();
 	});
+});
+
+describe('a new search', () => {
+	it.each([true, false])(
+		'keeps the chosen filters and sort (JavaScript %s)',
+		async (javaScriptEnabled) => {
+			const page = await open('/search?kind=fe4s4&sort=em&order=asc', DESK, javaScriptEnabled);
+			await page.getByRole('searchbox', { name: 'Search the registry' }).fill('ferredoxin');
+			await page.getByRole('button', { name: 'Search', exact: true }).click();
+			await page.waitForURL(/q=ferredoxin/);
+			const params = new URL(page.url()).searchParams;
+			expect(params.get('kind')).toBe('fe4s4');
+			expect(params.get('sort')).toBe('em');
+			expect(params.get('order')).toBe('asc');
+		}
+	);
 });
 
 describe('at 1366 px', () => {

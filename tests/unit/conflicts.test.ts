@@ -9,7 +9,7 @@ import {
 	potentialConflict,
 	type ListedPotential
 } from '$lib/catalogue/conflicts';
-import { warningText } from '$lib/schemas/versionWarning';
+import { warningText } from '$lib/catalogue/warningText';
 
 describe('values that differ beyond their stated uncertainties', () => {
 	const base = { couple: 'Fe3+/Fe2+', emMvShe: 100, uncertaintyMv: 3, ph: 7, temperatureK: 298.15 };

@@ -1,4 +1,4 @@
-import type { EntryKind, UploadKind } from '$lib/kinds';
+import { ENTRY_KINDS, ENTRY_KIND_LABELS, type EntryKind, type UploadKind } from '$lib/kinds';
 import type { KindOnServer, ServerKindModule, UploadRules } from './kind';
 import { centre } from './centre';
 import { distance } from './distance';
@@ -22,6 +22,14 @@ export const SERVER_KINDS = {
  * cannot see that a union's kind and data correspond (microsoft/TypeScript#30581), so the
  * correspondence is asserted here, once.
  */
+/**
+ * The kinds with their labels, for pages that offer a choice of kind: sent with the page's data
+ * so that the page does not ship the table of kinds (and the schemas in it) to the browser.
+ */
+export function kindChoices(): { kind: EntryKind; label: string }[] {
+	return ENTRY_KINDS.map((kind) => ({ kind, label: ENTRY_KIND_LABELS[kind] }));
+}
+
 export function serverKind(kind: EntryKind): ServerKindModule<EntryKind> {
 	return SERVER_KINDS[kind] as unknown as ServerKindModule<EntryKind>;
 }

@@ -4,6 +4,7 @@ import { queueQuerySchema } from '$lib/schemas/submission';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { listQueue } from '$lib/server/curation/submissionLists';
+import { kindChoices } from '$lib/server/kinds';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -16,5 +17,5 @@ export const load: PageServerLoad = async (event) => {
 				.join(' · ')
 		});
 	}
-	return { filter: query.data, rows: await listQueue(db, query.data) };
+	return { filter: query.data, rows: await listQueue(db, query.data), kinds: kindChoices() };
 };

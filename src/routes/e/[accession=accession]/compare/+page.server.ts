@@ -1,5 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { z } from 'zod';
+import { fieldLabel, formatKindField } from '$lib/kinds';
 import { compareVersions } from '$lib/server/catalogue/entryView';
 import { queryInteger, parseSearchParams } from '$lib/schemas/searchParams';
 import { db } from '$lib/server/db';
@@ -16,5 +17,17 @@ export const load: PageServerLoad = async ({ params, url, locals }) => {
 		compareVersions(db, params.accession, from, to, locals.viewer),
 		`Entry ${params.accession} has no version ${from} or ${to}.`
 	);
-	return { accession: params.accession, ...result };
+	// Labelled and formatted here, so that the page does not ship the table of kinds (with its
+	// schemas) to the browser for a few labels.
+	const changes = result.changes.map((change) => ({
+		field: change.field,
+		label: fieldLabel(result.kind, change.field),
+		before: formatKindField(result.kind, change.field, change.before),
+		after: formatKindField(result.kind, change.field, change.after),
+		typeset: TYPESET_FIELDS.has(change.field)
+	}));
+	return { accession: params.accession, ...result, changes };
 };
+
+/** Fields shown as a couple or a redox state: their charges typeset. */
+const TYPESET_FIELDS = new Set(['couple', 'oxidationLevel']);

@@ -42,6 +42,7 @@ export const load: PageServerLoad = async (event) => {
 	}
 	return {
 		kind,
+		kindLabel: KINDS[kind].label,
 		fields: KINDS[kind].formFields,
 		edit,
 		values,
