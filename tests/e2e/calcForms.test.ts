@@ -95,7 +95,8 @@ describe('titration form', () => {
 
 	it('lists a point out of range under its line number', async () => {
 		const page = await newPage();
-		await page.goto('/calc/titration');
+		// Typed only once the page's script has started: hydration sets the field to its value.
+		await page.goto('/calc/titration', { waitUntil: 'networkidle' });
 		await page
 			.locator('textarea[name=points]')
 			.fill('E signal\n\n-400 1\n-300 0.5\n5000 0.2\n-100 0');
