@@ -3,7 +3,8 @@ import { encodeOffsetCursor } from '$lib/schemas/pagination';
 
 /* Translating the search page's URL state into API requests and new page URLs. */
 
-const FILTER_KEYS = [
+/** The parameters that choose which rows the search shows (not their order, page or columns). */
+export const FILTER_KEYS = [
 	'q',
 	'kind',
 	'organism',

@@ -1,3 +1,4 @@
+import { SUBMISSION_STATES } from '$lib/catalogue/submissionStates';
 import type { SubmissionStatus } from '../db/schema';
 import { SubmissionStateError } from './errors';
 
@@ -40,15 +41,8 @@ export const SUBMISSION_ACTIONS: readonly SubmissionAction[] = [
 	'comment'
 ];
 
-export const SUBMISSION_STATUSES: readonly SubmissionStatus[] = [
-	'draft',
-	'submitted',
-	'returned',
-	'approved',
-	'partially_approved',
-	'rejected',
-	'withdrawn'
-];
+/** Every state a submission can be in (one list, with the names people read them by). */
+export const SUBMISSION_STATUSES: readonly SubmissionStatus[] = SUBMISSION_STATES;
 
 /** (state, action) → the state after it; an action missing from a state's row is refused. */
 export const SUBMISSION_TRANSITIONS: Readonly<
