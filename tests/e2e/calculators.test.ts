@@ -61,10 +61,8 @@ describe('calculators in Chromium', () => {
 			await context.close();
 		});
 	}
-	// Fields are typed once the page's script has started ('networkidle'): hydration sets each
-	// field to the page's value, and text typed before it would be replaced.
 	it('titration: pasted points give Em with its standard error and plots', async () => {
-		await page.goto('/calc/titration', { waitUntil: 'networkidle' });
+		await page.goto('/calc/titration');
 		const rows = ['potential_mv;signal'];
 		for (let e = -500; e <= 0; e += 20)
 			rows.push(`${e};${(1 / (1 + Math.exp((e + 300) / 25.69))).toFixed(4).replace('.', ',')}`);
@@ -75,7 +73,7 @@ describe('calculators in Chromium', () => {
 		expect(await page.locator('figure > svg').count()).toBe(2);
 	});
 	it('titration: a bad row is reported with its number', async () => {
-		await page.goto('/calc/titration', { waitUntil: 'networkidle' });
+		await page.goto('/calc/titration');
 		await page.locator('textarea[name=points]').fill('-400,1\n-300,abc\n-200,0\n-100,0\n0,0');
 		await page.getByRole('button', { name: 'Fit' }).click();
 		expect(await page.locator('[data-field-error=points]').textContent()).toContain(
@@ -83,7 +81,7 @@ describe('calculators in Chromium', () => {
 		);
 	});
 	it('tunnelling: the default double well gives levels, an assessment and an isotope effect', async () => {
-		await page.goto('/calc/tunnelling', { waitUntil: 'networkidle' });
+		await page.goto('/calc/tunnelling');
 		await page.getByRole('button', { name: 'Calculate' }).click();
 		await page.getByTestId('level-results').waitFor();
 		expect(await page.getByTestId('kappa-results').textContent()).toContain('κ Wigner');
@@ -94,7 +92,7 @@ describe('calculators in Chromium', () => {
 		await page.screenshot({ path: 'test-results/tunnelling.png', fullPage: true });
 	});
 	it('tunnelling: every field has a label', async () => {
-		await page.goto('/calc/tunnelling', { waitUntil: 'networkidle' });
+		await page.goto('/calc/tunnelling');
 		const unlabelled = await page
 			.locator('form[aria-label="Tunnelling inputs"]')
 			.evaluate((form) =>
@@ -157,7 +155,7 @@ describe('calculators in Chromium', () => {
 		}
 	});
 	it('tunnelling: the unit switch converts the energies typed and the results shown', async () => {
-		await page.goto('/calc/tunnelling', { waitUntil: 'networkidle' });
+		await page.goto('/calc/tunnelling');
 		await page.getByRole('button', { name: 'Calculate' }).click();
 		await page.getByTestId('level-results').waitFor();
 		const kcal = await page.getByTestId('double-well').textContent();
@@ -171,7 +169,7 @@ describe('calculators in Chromium', () => {
 		expect(await page.getByText('Barrier of the untilted well (kJ/mol)').count()).toBe(1);
 	});
 	it('tunnelling: a tilt is explained beside the barrier, and no isotope effect when adiabatic', async () => {
-		await page.goto('/calc/tunnelling', { waitUntil: 'networkidle' });
+		await page.goto('/calc/tunnelling');
 		await page.locator('[name=asymmetry]').fill('0.2');
 		await page.getByRole('button', { name: 'Calculate' }).click();
 		await page.getByTestId('barrier-note').waitFor();

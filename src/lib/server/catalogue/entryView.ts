@@ -46,7 +46,7 @@ async function approvedVersion(db: Kysely<Database>, entryId: number, version: n
 }
 
 /** A reference of an approved version, at the version it was approved against. */
-interface Pin {
+export interface Pin {
 	field: string;
 	accession: string;
 	kind: EntryKind;
@@ -58,7 +58,10 @@ interface Pin {
 }
 
 /** The pinned references of approved versions, by version id (entry_version_reference). */
-async function pinsOf(db: Kysely<Database>, versionIds: number[]): Promise<Map<number, Pin[]>> {
+export async function pinsOf(
+	db: Kysely<Database>,
+	versionIds: number[]
+): Promise<Map<number, Pin[]>> {
 	const byVersion = new Map<number, Pin[]>();
 	if (versionIds.length === 0) return byVersion;
 	const rows = await db

@@ -4,6 +4,7 @@ import { ACCESSION_PATTERN } from '$lib/schemas/accession';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { versionTitle } from '../kinds';
+import { pinsOf } from './entryView';
 import type { Viewer } from './visibility';
 import { findVisibleEntry } from './visibleEntry';
 
@@ -54,21 +55,11 @@ async function titleOf(
 		.limit(1)
 		.executeTakeFirst();
 	if (!latest) return null;
-	const pins = await db
-		.selectFrom('entry_version_reference as r')
-		.innerJoin('entry as e', 'e.id', 'r.referenced_entry_id')
-		.innerJoin('entry_version as v', (join) =>
-			join
-				.onRef('v.entry_id', '=', 'r.referenced_entry_id')
-				.onRef('v.version', '=', 'r.referenced_version')
-		)
-		.select(['r.field', 'e.accession', 'v.data'])
-		.where('r.entry_version_id', '=', latest.id)
-		.execute();
+	const pins = (await pinsOf(db, [latest.id])).get(latest.id) ?? [];
 	const refs: Record<string, Record<string, unknown>> = {};
 	for (const p of pins) {
 		// A title never names what the reader may not see.
-		if (await findVisibleEntry(db, p.accession, viewer)) refs[p.field] = readJson(p.data);
+		if (await findVisibleEntry(db, p.accession, viewer)) refs[p.field] = p.data;
 	}
 	return versionTitle(kind, readJson(latest.data), refs);
 }

@@ -12,7 +12,7 @@ import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
 import { orNotFound, toFormFailure } from '$lib/server/http/failures';
-import type { Actions, PageServerLoad } from './$types';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'curator');
@@ -32,32 +32,36 @@ export const load: PageServerLoad = async (event) => {
 // decisions open their own transactions.
 const chunked = { ownTransactions: true };
 
+/** One decision on the whole submission, as its form answers: the input echoed on a refusal. */
+async function decideWhole(
+	event: RequestEvent,
+	user: ReturnType<typeof requireRole>,
+	values: Record<string, FormDataEntryValue>,
+	echo: Record<string, string>
+) {
+	const id = Number(event.params.id);
+	const parsed = reviewDecisionSchema.safeParse(values);
+	if (!parsed.success) return fail(400, { values: echo, errors: fieldErrors(parsed.error) });
+	try {
+		const outcome = await runCurationAction(
+			db,
+			(database) => decideSubmission(database, user, id, parsed.data, event.url.origin),
+			chunked
+		);
+		return { decided: parsed.data.decision, approved: outcome.approved };
+	} catch (e) {
+		return toFormFailure(e, event, echo);
+	}
+}
+
 export const actions: Actions = {
 	decide: async (event) => {
 		const user = requireRole(event, 'curator');
-		const id = Number(event.params.id);
 		const values = Object.fromEntries(await event.request.formData());
-		const parsed = reviewDecisionSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, {
-				values: { decision: String(values.decision ?? ''), comment: String(values.comment ?? '') },
-				errors: fieldErrors(parsed.error)
-			});
-		}
-		let outcome;
-		try {
-			outcome = await runCurationAction(
-				db,
-				(database) => decideSubmission(database, user, id, parsed.data, event.url.origin),
-				chunked
-			);
-		} catch (e) {
-			return toFormFailure(e, event, {
-				decision: parsed.data.decision,
-				comment: parsed.data.comment
-			});
-		}
-		return { decided: parsed.data.decision, approved: outcome.approved };
+		return decideWhole(event, user, values, {
+			decision: String(values.decision ?? ''),
+			comment: String(values.comment ?? '')
+		});
 	},
 	/**
 	 * The one decision on a CSV batch: approve every row except those listed (which go back with
@@ -65,7 +69,6 @@ export const actions: Actions = {
 	 */
 	batch: async (event) => {
 		const user = requireRole(event, 'curator');
-		const id = Number(event.params.id);
 		const values = Object.fromEntries(await event.request.formData());
 		const strings = {
 			decision: String(values.decision ?? ''),
@@ -73,35 +76,21 @@ export const actions: Actions = {
 			rowComments: String(values.rowComments ?? ''),
 			comment: String(values.comment ?? '')
 		};
-		if (strings.decision !== 'approve') {
-			// Returning or rejecting the whole file: the same decision as on a single entry.
-			const parsed = reviewDecisionSchema.safeParse(values);
-			if (!parsed.success) return fail(400, { values: strings, errors: fieldErrors(parsed.error) });
-			let outcome;
-			try {
-				outcome = await runCurationAction(
-					db,
-					(database) => decideSubmission(database, user, id, parsed.data, event.url.origin),
-					chunked
-				);
-			} catch (e) {
-				return toFormFailure(e, event, strings);
-			}
-			return { decided: parsed.data.decision, approved: outcome.approved };
-		}
+		// Returning or rejecting the whole file: the same decision as on a single entry.
+		if (strings.decision !== 'approve') return decideWhole(event, user, values, strings);
 		const parsed = batchDecisionSchema.safeParse(values);
 		if (!parsed.success) return fail(400, { values: strings, errors: fieldErrors(parsed.error) });
-		let outcome;
+		const id = Number(event.params.id);
 		try {
-			outcome = await runCurationAction(
+			const outcome = await runCurationAction(
 				db,
 				(database) => decideBatch(database, user, id, parsed.data, event.url.origin),
 				chunked
 			);
+			return { batchDone: { approved: outcome.approved.length, returned: outcome.returned } };
 		} catch (e) {
 			return toFormFailure(e, event, strings);
 		}
-		return { batchDone: { approved: outcome.approved.length, returned: outcome.returned } };
 	},
 	comment: async (event) => {
 		const user = requireRole(event, 'curator');
