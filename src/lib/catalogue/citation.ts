@@ -1,5 +1,5 @@
 import type { EntryKind } from '$lib/kinds';
-import { orcidUrl } from '$lib/schemas/orcid';
+import { orcidUrl } from '$lib/schemas/orcidId';
 import { toLatex } from './latex';
 import { displayNameParts, initialledName, storedAuthorParts, type NameParts } from './personName';
 
