@@ -2,7 +2,7 @@
 // adapter-node gives hooks the Node request as `event.platform.req` (absent under vite dev).
 import type { Viewer } from '$lib/server/catalogue/visibility';
 import type { SessionUser } from '$lib/server/auth/roles';
-import type { ApiTokenScope } from '$lib/schemas/apiToken';
+import type { ApiTokenScope } from '$lib/schemas/apiTokenScopes';
 
 declare global {
 	namespace App {

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Database } from '$lib/server/db/schema';
 import { hopPair } from '$lib/server/calc/hopPair';
-import { DEFAULT_CHAIN_CONDITIONS } from '$lib/schemas/chainChoice';
+import { DEFAULT_CHAIN_CONDITIONS } from '$lib/schemas/chainConditions';
 import { buildHiddenFixtures, HIDDEN_MARKS, type HiddenFixtures } from '../support/hiddenFixtures';
 import { createTempDatabase } from '../support/tempDb';
 

@@ -1,11 +1,13 @@
 import fc from 'fast-check';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { fillAccessDate, localCalendarDate } from '$lib/catalogue/accessDate';
 import {
 	citeRecord,
 	cslItems,
 	doiUrl,
-	localCalendarDate,
-	originalKey
+	originalKey,
+	pageCitation,
+	plainCitations
 } from '$lib/catalogue/citation';
 import { toLatex } from '$lib/catalogue/latex';
 import { displayNameParts, initialledName, storedAuthorParts } from '$lib/catalogue/personName';
@@ -152,6 +154,36 @@ describe('the access date', () => {
 		// 23:30 local on 1 December, whatever the machine's zone: the local fields decide.
 		const late = new Date(2026, 11, 1, 23, 30);
 		expect(localCalendarDate(late)).toBe('2026-12-01');
+	});
+});
+
+describe('an entry page’s citation, with holes for the reader’s date', () => {
+	const page = pageCitation(POTENTIAL);
+	it('fills to the bytes of each file for that date', () => {
+		for (const date of ['2026-12-02', '2031-01-09']) {
+			const files = citeRecord(POTENTIAL, date);
+			expect(page.files.map((f) => [f.extension, fillAccessDate(f.text, date)])).toEqual([
+				['bib', files.bibtex],
+				['ris', files.ris],
+				['json', files.cslJson]
+			]);
+			expect(fillAccessDate(page.datedRecord, date)).toBe(plainCitations(POTENTIAL, date).record);
+		}
+	});
+	it('names no date until the page fills one in', () => {
+		expect(page.plain).toEqual(plainCitations(POTENTIAL, null));
+		expect(page.files.map((f) => f.path)).toEqual([
+			'/e/HL000046/v2/cite.bib',
+			'/e/HL000046/v2/cite.ris',
+			'/e/HL000046/v2/cite.json'
+		]);
+	});
+	it('marks its holes with a character the record does not hold', () => {
+		// U+E000 is the first mark tried: a title holding it must come through as it is.
+		const record = { ...POTENTIAL, title: 'Odd \uE000iso\uE000 title', original: null };
+		const text = fillAccessDate(pageCitation(record).datedRecord, '2026-12-02');
+		expect(text).toContain('Odd \uE000iso\uE000 title');
+		expect(text).toMatch(/\(accessed 2026-12-02\)$/);
 	});
 });
 

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { isValidOrcid, orcidCheckCharacter, orcidInputSchema } from '$lib/schemas/orcid';
+import { orcidInputSchema } from '$lib/schemas/orcid';
+import { isValidOrcid, orcidCheckCharacter } from '$lib/schemas/orcidId';
 
 /*
  * Oracle: ORCID's documentation, "Structure of the ORCID Identifier"

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { parseRelatedPages, relatedPageHref } from '$lib/schemas/relatedPages';
+import { relatedPageHref } from '$lib/schemas/relatedLists';
+import { parseRelatedPages } from '$lib/schemas/relatedPages';
 
 describe('pages of the related lists on entry pages', () => {
 	it('default to page 1 and ignore unrelated parameters', () => {

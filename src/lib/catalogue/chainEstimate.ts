@@ -1,5 +1,5 @@
 import type { ChainResult, MonteCarloResult } from '$lib/science';
-import type { ChainConditions } from '$lib/schemas/chainChoice';
+import type { ChainConditions } from '$lib/schemas/chainConditions';
 
 /** What a centre does in the chain: the entry gives up the electron, the others take it on. */
 export type ChainRole = 'entry' | 'relay' | 'exit';

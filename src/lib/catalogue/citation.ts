@@ -1,5 +1,12 @@
 import type { EntryKind } from '$lib/kinds';
-import { orcidUrl } from '$lib/schemas/orcid';
+import { orcidUrl } from '$lib/schemas/orcidId';
+import {
+	fillAccessDate,
+	isAccessDateForm,
+	type AccessDateForm,
+	type CalendarDate,
+	type DatedText
+} from './accessDate';
 import { toLatex } from './latex';
 import { displayNameParts, initialledName, storedAuthorParts, type NameParts } from './personName';
 
@@ -14,7 +21,9 @@ import { displayNameParts, initialledName, storedAuthorParts, type NameParts } f
  *   carries the publication (or dataset) itself the same way.
  * - The access date is the reader's, known only in their browser: without it (downloads without
  *   scripts, content negotiation) the citations say nothing about access rather than something
- *   wrong, and stay the same bytes forever.
+ *   wrong, and stay the same bytes forever. Each citation is written once with holes where the
+ *   date goes (`citationTemplates`); the files fill them here, an entry page in the browser
+ *   (accessDate.ts), so that both give the same bytes for the same date.
  * - BibTeX is written for classic styles and pdflatex: the title in braces so styles keep its
  *   case ("[4Fe-4S]", "NADH"), the permalink in `howpublished` as `\url{…}` (classic styles print
  *   neither `url` nor `urldate`), and ASCII only (latex.ts).
@@ -62,9 +71,6 @@ export interface CitableRecord {
 	original: OriginalWork | null;
 }
 
-/** A calendar date, YYYY-MM-DD. */
-export type CalendarDate = string;
-
 export interface Citations {
 	bibtex: string;
 	ris: string;
@@ -97,12 +103,6 @@ export function citationFilePath(
 	return `/e/${accession}/v${version}/cite.${extension}`;
 }
 
-/** The reader's local calendar date (in the browser: the reader's own time zone). */
-export function localCalendarDate(d: Date): CalendarDate {
-	const pad = (n: number) => String(n).padStart(2, '0');
-	return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
-}
-
 /** What the original work is to the record: the measurement behind a value, or the source itself. */
 export function originalRole(kind: EntryKind): string {
 	return kind === 'source' ? 'the publication itself' : 'the original measurement';
@@ -132,10 +132,11 @@ function isoDate([y, m, d]: [number, number, number]): string {
 	return `${y}-${String(m).padStart(2, '0')}-${String(d).padStart(2, '0')}`;
 }
 
-function dateParts(date: CalendarDate): [number, number, number] {
-	const [y, m, d] = date.split('-').map(Number);
-	return [y ?? 0, m ?? 0, d ?? 0];
-}
+/**
+ * Writes a hole for the access date in the form named: the form between two marks, a character
+ * the record's own text does not hold (`holesOf` finds them again).
+ */
+type AccessHole = (form: AccessDateForm) => string;
 
 /**
  * A URL as `\url{…}` and the `url` field take it: characters BibTeX would count as braces or
@@ -183,11 +184,11 @@ function orcidNote(people: CitedPerson[]): string | null {
 	return `ORCID iDs: ${named.map((p) => `${toLatex(p.name)} \\url{${orcidUrl(p.orcid)}}`).join(', ')}`;
 }
 
-function bibtexOf(record: CitableRecord, accessed: CalendarDate | null): string {
+function bibtexOf(record: CitableRecord, accessed: AccessHole | null): string {
 	const approved = approvalDate(record);
 	const url = safeUrl(record.permalink);
 	const note = [
-		accessed ? `Accessed ${accessed}` : null,
+		accessed ? `Accessed ${accessed('iso')}` : null,
 		orcidNote([...record.authors, ...record.editors])
 	]
 		.filter(Boolean)
@@ -211,7 +212,7 @@ function bibtexOf(record: CitableRecord, accessed: CalendarDate | null): string 
 			['date', isoDate(approved)],
 			['version', String(record.version)],
 			['url', url],
-			['urldate', accessed],
+			['urldate', accessed ? accessed('iso') : null],
 			['note', note]
 		])
 	];
@@ -267,7 +268,7 @@ function risRecord(lines: [string, string | null][]): string {
 	].join('\r\n');
 }
 
-function risOf(record: CitableRecord, accessed: CalendarDate | null): string {
+function risOf(record: CitableRecord, accessed: AccessHole | null): string {
 	const approved = approvalDate(record);
 	const orcids = withOrcid([...record.authors, ...record.editors]);
 	const records = [
@@ -285,7 +286,7 @@ function risOf(record: CitableRecord, accessed: CalendarDate | null): string {
 			['AN', record.accession],
 			['ET', String(record.version)],
 			['UR', record.permalink],
-			['Y2', accessed ? accessed.replaceAll('-', '/') : null],
+			['Y2', accessed ? accessed('slashed') : null],
 			[
 				'N1',
 				orcids.length > 0
@@ -330,10 +331,14 @@ function cslName(parts: NameParts, orcid: string | null = null): CslName {
 		: { family: parts.family, ...withOrcid };
 }
 
-/** The CSL-JSON items: the record, then the original work when there is one. */
-export function cslItems(
+/**
+ * The CSL-JSON items: the record, then the original work when there is one. The access date's
+ * parts are holes written as JSON strings; `holesOf` takes the quotes with them, so that the
+ * date fills them as numbers.
+ */
+function cslItemsWith(
 	record: CitableRecord,
-	accessed: CalendarDate | null
+	accessed: AccessHole | null
 ): Record<string, unknown>[] {
 	const items: Record<string, unknown>[] = [
 		{
@@ -351,7 +356,9 @@ export function cslItems(
 			number: record.accession,
 			version: String(record.version),
 			issued: { 'date-parts': [approvalDate(record)] },
-			...(accessed ? { accessed: { 'date-parts': [dateParts(accessed)] } } : {}),
+			...(accessed
+				? { accessed: { 'date-parts': [[accessed('year'), accessed('month'), accessed('day')]] } }
+				: {}),
 			URL: record.permalink
 		}
 	];
@@ -379,17 +386,16 @@ function textAuthors(names: string[]): string {
 	return `${names.slice(0, -1).join(', ')}, & ${names.at(-1)}`;
 }
 
-/** The plain-text citations, apart: the record's version, and the original work where known. */
-export function plainCitations(
+function plainWith(
 	record: CitableRecord,
-	accessed: CalendarDate | null
+	accessed: AccessHole | null
 ): { record: string; original: string | null } {
 	const year = approvalDate(record)[0];
 	const authors =
 		record.authors.length > 0
 			? textAuthors(record.authors.map((p) => initialledName(personParts(p))))
 			: UNNAMED_AUTHORS;
-	const own = `${authors} (${year}). ${record.title} (${PUBLISHER} record ${record.accession}, version ${record.version}) [Data set]. ${PUBLISHER}. ${record.permalink}${accessed ? ` (accessed ${accessed})` : ''}`;
+	const own = `${authors} (${year}). ${record.title} (${PUBLISHER} record ${record.accession}, version ${record.version}) [Data set]. ${PUBLISHER}. ${record.permalink}${accessed ? ` (accessed ${accessed('iso')})` : ''}`;
 	const o = record.original;
 	if (!o) return { record: own, original: null };
 	const who = textAuthors(o.authors.map((a) => initialledName(storedAuthorParts(a))));
@@ -400,19 +406,158 @@ export function plainCitations(
 	};
 }
 
-function textOf(record: CitableRecord, accessed: CalendarDate | null): string {
-	const parts = plainCitations(record, accessed);
+function textOf(record: CitableRecord, accessed: AccessHole | null): string {
+	const parts = plainWith(record, accessed);
 	return parts.original === null
 		? parts.record
 		: `${parts.record}\nCite ${originalRole(record.kind)}: ${parts.original}`;
 }
 
+/* ---------------------------------------------------------------- holes for the access date */
+
+/** A character in the Private Use Area that the record's text does not hold, to mark holes. */
+function freeMark(record: CitableRecord): string {
+	const text = JSON.stringify(record);
+	for (let code = 0xe000; code <= 0xf8ff; code++) {
+		const mark = String.fromCharCode(code);
+		if (!text.includes(mark)) return mark;
+	}
+	throw new RangeError('the record holds every private-use character: no mark is left');
+}
+
+/** Text written with `mark`ed holes, in pieces. A CSL-JSON hole takes its quotes with it. */
+function holesOf(text: string, mark: string): DatedText {
+	const hole = new RegExp(`"${mark}(year|month|day)${mark}"|${mark}(iso|slashed)${mark}`, 'g');
+	const pieces: (string | { accessed: AccessDateForm })[] = [];
+	let last = 0;
+	for (const match of text.matchAll(hole)) {
+		const form = match[1] ?? match[2] ?? '';
+		if (!isAccessDateForm(form)) throw new Error(`no access date form "${form}"`);
+		pieces.push(text.slice(last, match.index), { accessed: form });
+		last = match.index + match[0].length;
+	}
+	pieces.push(text.slice(last));
+	const out = pieces.filter((p) => p !== '');
+	if (out.some((p) => typeof p === 'string' && p.includes(mark)))
+		throw new Error('an access date hole was written in a form holesOf does not read');
+	return out;
+}
+
+export interface CitationTemplates {
+	/** Each format, with holes for the access date (none when made without one). */
+	formats: Record<CitationFormat, DatedText>;
+	/** The plain-text citation of the version (with holes) and of the original work. */
+	plain: { record: DatedText; original: string | null };
+}
+
+/**
+ * The version's citations with holes where the reader's access date goes (`withAccessDate`), or
+ * without any access date; fillAccessDate (accessDate.ts) writes a date into the holes.
+ */
+export function citationTemplates(
+	record: CitableRecord,
+	withAccessDate: boolean
+): CitationTemplates {
+	const mark = freeMark(record);
+	const hole: AccessHole | null = withAccessDate ? (form) => `${mark}${form}${mark}` : null;
+	const holes = (text: string) => holesOf(text, mark);
+	const plain = plainWith(record, hole);
+	return {
+		formats: {
+			bibtex: holes(bibtexOf(record, hole)),
+			ris: holes(risOf(record, hole)),
+			cslJson: holes(JSON.stringify(cslItemsWith(record, hole), null, 2) + '\n'),
+			text: holes(textOf(record, hole))
+		},
+		plain: { record: holes(plain.record), original: plain.original }
+	};
+}
+
+const filled = (text: DatedText, accessed: CalendarDate | null) =>
+	fillAccessDate(text, accessed ?? '');
+
 /** The version's citations; `accessed` is the reader's date, or null where it is not known. */
 export function citeRecord(record: CitableRecord, accessed: CalendarDate | null): Citations {
+	const { formats } = citationTemplates(record, accessed !== null);
 	return {
-		bibtex: bibtexOf(record, accessed),
-		ris: risOf(record, accessed),
-		cslJson: JSON.stringify(cslItems(record, accessed), null, 2) + '\n',
-		text: textOf(record, accessed)
+		bibtex: filled(formats.bibtex, accessed),
+		ris: filled(formats.ris, accessed),
+		cslJson: filled(formats.cslJson, accessed),
+		text: filled(formats.text, accessed)
+	};
+}
+
+/** The plain-text citations, apart: the record's version, and the original work where known. */
+export function plainCitations(
+	record: CitableRecord,
+	accessed: CalendarDate | null
+): { record: string; original: string | null } {
+	const { plain } = citationTemplates(record, accessed !== null);
+	return { record: filled(plain.record, accessed), original: plain.original };
+}
+
+/** The CSL-JSON items: the record, then the original work when there is one. */
+export function cslItems(
+	record: CitableRecord,
+	accessed: CalendarDate | null
+): Record<string, unknown>[] {
+	return JSON.parse(citeRecord(record, accessed).cslJson);
+}
+
+/** A citation format an entry page offers to copy or download. */
+export interface PageCitationFile {
+	extension: CitationFileExtension;
+	label: string;
+	mediaType: string;
+	/** The file without an access date; the page adds `?accessed=` when it knows the date. */
+	path: string;
+	/** What Copy puts on the clipboard, with holes for the reader's access date. */
+	text: DatedText;
+}
+
+/**
+ * What an entry page's "How to cite" box shows, copies and links to, made on the server so that
+ * the page carries no code that writes citations: the texts without an access date (the page
+ * as rendered, and as it stays without scripts), and with holes the browser fills with the
+ * reader's date.
+ */
+export interface PageCitation {
+	accession: string;
+	version: number;
+	authors: CitedPerson[];
+	editors: CitedPerson[];
+	/** Plain text, with no access date. */
+	plain: { record: string; original: string | null };
+	/** The version's plain text with holes for the access date. */
+	datedRecord: DatedText;
+	/** What the original work is to the record ("the original measurement"); null without one. */
+	originalRole: string | null;
+	files: PageCitationFile[];
+}
+
+export function pageCitation(record: CitableRecord): PageCitation {
+	const undated = citationTemplates(record, false);
+	const dated = citationTemplates(record, true);
+	return {
+		accession: record.accession,
+		version: record.version,
+		authors: record.authors,
+		editors: record.editors,
+		plain: {
+			record: fillAccessDate(undated.plain.record, ''),
+			original: undated.plain.original
+		},
+		datedRecord: dated.plain.record,
+		originalRole: record.original ? originalRole(record.kind) : null,
+		files: CITATION_FILE_EXTENSIONS.map((extension) => {
+			const file = CITATION_FILES[extension];
+			return {
+				extension,
+				label: file.label,
+				mediaType: file.mediaType,
+				path: citationFilePath(record.accession, record.version, extension),
+				text: dated.formats[file.format]
+			};
+		})
 	};
 }

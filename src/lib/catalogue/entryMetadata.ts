@@ -1,5 +1,5 @@
 import type { LinkedReference } from './dto';
-import { orcidUrl } from '$lib/schemas/orcid';
+import { orcidUrl } from '$lib/schemas/orcidId';
 import {
 	CITATION_FILES,
 	CITATION_FILE_EXTENSIONS,

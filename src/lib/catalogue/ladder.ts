@@ -1,4 +1,4 @@
-import { DEFAULT_CHAIN_CONDITIONS, type ChainConditions } from '$lib/schemas/chainChoice';
+import { DEFAULT_CHAIN_CONDITIONS, type ChainConditions } from '$lib/schemas/chainConditions';
 import type { CentreDto, DistanceDto, PotentialDto } from './dto';
 
 /** What the ladder reads of each record: callers may pass full DTOs or just these fields. */

@@ -1,27 +1,11 @@
 import { z } from 'zod';
+import { API_TOKEN_SCOPES, type ApiTokenScope } from './apiTokenScopes';
 
 /*
- * Personal API tokens: the scopes, the form that creates one on /account, and what the list
- * there shows. The tokens themselves are made, hashed and checked in
+ * Personal API tokens: the form that creates one on /account, and what the list there shows
+ * (the scopes are in apiTokenScopes.ts). The tokens themselves are made, hashed and checked in
  * src/lib/server/auth/apiTokens.ts.
  */
-
-/**
- * `read`: every read of the API with the owner's visibility (their groups' entries too).
- * `read+submit`: also the submission and upload-check APIs (with the contributor role).
- */
-export const API_TOKEN_SCOPES = ['read', 'read+submit'] as const;
-export type ApiTokenScope = (typeof API_TOKEN_SCOPES)[number];
-
-export const API_TOKEN_SCOPE_LABELS: Record<ApiTokenScope, string> = {
-	read: 'read: the API with what you may see',
-	'read+submit': 'read + submit: also send submissions and check uploads'
-};
-
-/** Whether a token of scope `held` may do what needs `needed`. */
-export function scopeIncludes(held: ApiTokenScope, needed: ApiTokenScope): boolean {
-	return held === 'read+submit' || needed === 'read';
-}
 
 /**
  * Every token starts with this, so that people, logs scrubbers and secret scanners can tell one

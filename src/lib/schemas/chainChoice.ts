@@ -1,5 +1,11 @@
 import { z } from 'zod';
 import { ACCESSION_HINT, ACCESSION_PATTERN } from './accession';
+import {
+	CHAIN_PH_RANGE,
+	CHAIN_TEMPERATURE_RANGE,
+	DEFAULT_CHAIN_CONDITIONS,
+	type ChainConditions
+} from './chainConditions';
 import { parseSearchParams, queryNumber, type FieldErrors } from './searchParams';
 
 /*
@@ -12,21 +18,6 @@ import { parseSearchParams, queryNumber, type FieldErrors } from './searchParams
  */
 
 export const CHAIN_CHOICE_PARAMS = ['entry', 'exit', 'ph', 'temperature'] as const;
-
-/** pH of the conditions the potentials are chosen for: the scale's usual range. */
-export const CHAIN_PH_RANGE = { min: 0, max: 14 } as const;
-/**
- * Temperature of the estimate, K: liquid water at ordinary pressure (0–100 °C). Detailed balance
- * is applied at this temperature; the ruler's forward rates do not depend on it.
- */
-export const CHAIN_TEMPERATURE_RANGE = { min: 273.15, max: 373.15 } as const;
-
-export const DEFAULT_CHAIN_CONDITIONS = { ph: 7, temperatureK: 298.15 } as const;
-
-export interface ChainConditions {
-	ph: number;
-	temperatureK: number;
-}
 
 export interface ChainChoice {
 	/** Centre accessions; null: the default ends (chainEstimate.ts, defaultEnds). */

@@ -1,13 +1,11 @@
 import { z } from 'zod';
 import { fieldErrors } from './fieldErrors';
+import { RELATED_LISTS } from './relatedLists';
 
 /*
- * Which page of each related list an entry page shows (`?potentials=3`). Lists on entry pages
- * are paged, never sent whole: a centre may hold thousands of values.
+ * Which page of each related list an entry page shows (`?potentials=3`); the lists, their page
+ * size and the links between pages are in relatedLists.ts.
  */
-export const RELATED_PAGE_SIZE = 50;
-export const RELATED_LISTS = ['centres', 'potentials', 'spinRecords', 'distances'] as const;
-export type RelatedList = (typeof RELATED_LISTS)[number];
 
 const pageNumber = z.coerce
 	.number({ error: 'expected a page number' })
@@ -36,13 +34,4 @@ export function parseRelatedPages(
 	const parsed = relatedPagesSchema.safeParse(raw);
 	if (parsed.success) return { ok: true, pages: parsed.data };
 	return { ok: false, fields: fieldErrors(parsed.error) };
-}
-
-/** The link to page `n` of one list, keeping the other lists' pages; jumps to the list. */
-export function relatedPageHref(url: URL, list: RelatedList, n: number): string {
-	const params = new URLSearchParams(url.search);
-	if (n === 1) params.delete(list);
-	else params.set(list, String(n));
-	const query = params.toString();
-	return `${url.pathname}${query ? `?${query}` : ''}#${list}-heading`;
 }

@@ -1,5 +1,5 @@
 import { DomainError } from '$lib/domainError';
-import type { ApiTokenScope } from '$lib/schemas/apiToken';
+import type { ApiTokenScope } from '$lib/schemas/apiTokenScopes';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 
 /*

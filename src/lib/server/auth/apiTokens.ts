@@ -5,9 +5,9 @@ import {
 	API_TOKEN_PATTERN,
 	API_TOKEN_PREFIX,
 	type ApiTokenInput,
-	type ApiTokenScope,
 	type ApiTokenSummary
 } from '$lib/schemas/apiToken';
+import type { ApiTokenScope } from '$lib/schemas/apiTokenScopes';
 import { writeAudit } from '../audit/log';
 import type { Database } from '../db/schema';
 import {

@@ -1,4 +1,4 @@
-import type { ApiTokenScope } from '$lib/schemas/apiToken';
+import type { ApiTokenScope } from '$lib/schemas/apiTokenScopes';
 
 /*
  * What a personal API token may be used for. Reads (GET, HEAD, OPTIONS) anywhere under /api/v1

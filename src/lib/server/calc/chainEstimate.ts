@@ -13,7 +13,8 @@ import {
 	type LadderDistance
 } from '$lib/catalogue/ladder';
 import { analyseChain, monteCarloChain, type ChainInput } from '$lib/science';
-import type { ChainChoice, ChainConditions } from '$lib/schemas/chainChoice';
+import type { ChainChoice } from '$lib/schemas/chainChoice';
+import type { ChainConditions } from '$lib/schemas/chainConditions';
 import type { FieldErrors } from '$lib/schemas/searchParams';
 import { COUPLES_BY_KIND, type CofactorKind } from '$lib/schemas/vocabulary';
 

@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { ListedPotential } from '$lib/catalogue/conflicts';
 import { conditionsDistance } from '$lib/catalogue/ladder';
-import type { ChainConditions } from '$lib/schemas/chainChoice';
+import type { ChainConditions } from '$lib/schemas/chainConditions';
 import { isAccession } from '$lib/schemas/accession';
 import type { HopPick } from '$lib/schemas/calc';
 import type { FieldErrors } from '$lib/schemas/searchParams';

@@ -1,6 +1,6 @@
 import { sql, type Kysely } from 'kysely';
 import type { ListedPotential } from '$lib/catalogue/conflicts';
-import { DEFAULT_CHAIN_CONDITIONS, type ChainConditions } from '$lib/schemas/chainChoice';
+import { DEFAULT_CHAIN_CONDITIONS, type ChainConditions } from '$lib/schemas/chainConditions';
 import type { CentreDto } from '$lib/catalogue/dto';
 import type { LadderDistance } from '$lib/catalogue/ladder';
 import type { Database } from '../db/schema';

@@ -1,6 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { CentreDto, DistanceDto, PotentialDto, SpinRecordDto } from '$lib/catalogue/dto';
-import { RELATED_PAGE_SIZE, type RelatedPages } from '$lib/schemas/relatedPages';
+import { RELATED_PAGE_SIZE } from '$lib/schemas/relatedLists';
+import type { RelatedPages } from '$lib/schemas/relatedPages';
 import type { EntryKind } from '$lib/kinds';
 import type { Database } from '../db/schema';
 import { listCentres } from '../kinds/centre';

@@ -1,11 +1,7 @@
 import type { Kysely } from 'kysely';
 import { DomainError } from '$lib/domainError';
-import {
-	CITATION_FILES,
-	citeRecord,
-	type CalendarDate,
-	type CitationFileExtension
-} from '$lib/catalogue/citation';
+import type { CalendarDate } from '$lib/catalogue/accessDate';
+import { CITATION_FILES, citeRecord, type CitationFileExtension } from '$lib/catalogue/citation';
 import { getEntryView } from '../catalogue/entryView';
 import type { Viewer } from '../catalogue/visibility';
 import type { Database } from '../db/schema';

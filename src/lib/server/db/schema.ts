@@ -49,7 +49,7 @@ export interface Database extends KindTables {
 export type { Role } from '$lib/roles';
 import type { Role } from '$lib/roles';
 import type { Visibility } from '$lib/schemas/vocabulary';
-import type { ApiTokenScope } from '$lib/schemas/apiToken';
+import type { ApiTokenScope } from '$lib/schemas/apiTokenScopes';
 import type { EntryKind } from '$lib/kinds';
 import type { JsonColumn } from './json';
 

@@ -1,6 +1,7 @@
 import type { Handle } from '@sveltejs/kit';
 import { DomainError } from '$lib/domainError';
-import { API_TOKEN_PREFIX, scopeIncludes } from '$lib/schemas/apiToken';
+import { API_TOKEN_PREFIX } from '$lib/schemas/apiToken';
+import { scopeIncludes } from '$lib/schemas/apiTokenScopes';
 import { isApiPath } from '../api/paths';
 import {
 	ApiTokenRateLimitError,

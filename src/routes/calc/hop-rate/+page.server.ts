@@ -1,6 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { HOP_PICK_PARAMS, hopPickSchema, hopRateQuerySchema } from '$lib/schemas/calc';
-import { DEFAULT_CHAIN_CONDITIONS } from '$lib/schemas/chainChoice';
+import { DEFAULT_CHAIN_CONDITIONS } from '$lib/schemas/chainConditions';
 import { readDecimal } from '$lib/schemas/decimal';
 import { parseSearchParams } from '$lib/schemas/searchParams';
 import { HOP_DEFAULT_LAMBDA_EV, hopPair } from '$lib/server/calc/hopPair';

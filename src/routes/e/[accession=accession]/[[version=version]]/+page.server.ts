@@ -1,5 +1,8 @@
+import { pageCitation } from '$lib/catalogue/citation';
 import { describeConflictRule } from '$lib/catalogue/conflicts';
+import { entryHead } from '$lib/catalogue/entryMetadata';
 import { buildLadder } from '$lib/catalogue/ladder';
+import { drawLadders } from '$lib/catalogue/ladderLayout';
 import { roleAtLeast } from '$lib/roles';
 import { parseChainChoice } from '$lib/schemas/chainChoice';
 import { planChain } from '$lib/server/calc/chainEstimate';
@@ -15,12 +18,14 @@ import { negotiateEntryRepresentation } from '$lib/server/citations/negotiate';
 import { db } from '$lib/server/db';
 import { orNotFound, queryError } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
+import { presentEntry } from './presentEntry';
 import { shownRelated } from './shownRelated';
 
 /**
  * An entry at one version, with (for proteins and centres) its related records one page per
  * list, conflict flags for the potentials shown, and a protein's energy ladder — every part
- * bounded, however many records the entry has.
+ * bounded, however many records the entry has. Words, citations and the ladder's geometry are
+ * made here, so that the page's script only draws them (and fills in the reader's access date).
  */
 export const load: PageServerLoad = async ({
 	params,
@@ -70,11 +75,16 @@ export const load: PageServerLoad = async ({
 		view.kind === 'potential'
 			? await conflictFlagsOfPotential(db, view.accession, locals.viewer)
 			: await conflictFlags(db, related?.potentials.items ?? [], locals.viewer);
+	const citation = await entryCitation(db, view, url.origin);
+	const words = presentEntry(view.kind, view.data);
 	return {
 		view,
-		citation: await entryCitation(db, view, url.origin),
+		words,
+		head: entryHead(citation, words.kindLabel, url.origin),
+		cite: pageCitation(citation.record),
 		related: related ? shownRelated(related) : null,
 		ladder,
+		ladderDrawings: ladder ? drawLadders(ladder) : null,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
 		chain: chain.estimate,
 		chainNote: chain.note ?? (plan?.ok ? plan.note : null),

@@ -1,17 +1,21 @@
 import type { CentreDto, DistanceDto, PotentialDto, SpinRecordDto } from '$lib/catalogue/dto';
 import type { RelatedPage, RelatedRecords } from '$lib/server/catalogue/related';
+import { COFACTOR_KIND_LABELS } from '$lib/schemas/vocabulary';
 
 /*
  * The columns the entry page's related tables show, and nothing else: every field of a load's
  * answer is serialised into the page, and the full rows repeat the protein and its organism in
- * each of them, which these tables never print.
+ * each of them, which these tables never print. A centre's cofactor kind comes with its label,
+ * so that the page needs no vocabulary.
  */
 type Shown<T, K extends keyof T> = Pick<T, K>;
 type Label = { accession: string; label: string };
 
 export interface ShownRelated {
 	centres: RelatedPage<
-		Shown<CentreDto, 'accession' | 'label' | 'cofactorKind' | 'ligation' | 'chainId' | 'residues'>
+		Shown<CentreDto, 'accession' | 'label' | 'ligation' | 'chainId' | 'residues'> & {
+			cofactorLabel: string;
+		}
 	> | null;
 	potentials: RelatedPage<
 		Shown<
@@ -52,7 +56,7 @@ export function shownRelated(related: RelatedRecords): ShownRelated {
 			? mapPage(related.centres, (c) => ({
 					accession: c.accession,
 					label: c.label,
-					cofactorKind: c.cofactorKind,
+					cofactorLabel: COFACTOR_KIND_LABELS[c.cofactorKind],
 					ligation: c.ligation,
 					chainId: c.chainId,
 					residues: c.residues
