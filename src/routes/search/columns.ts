@@ -5,7 +5,7 @@ import {
 	tableFeatures
 } from '@tanstack/svelte-table';
 import type { PotentialDto } from '$lib/catalogue/dto';
-import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/schemas/catalogueQuery';
+import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/catalogue/searchTable';
 import type { PotentialMethod } from '$lib/schemas/vocabulary';
 
 /*
