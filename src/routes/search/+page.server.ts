@@ -8,12 +8,14 @@ import {
 	exportParamsForPage,
 	facetParamsForPage
 } from '$lib/server/catalogue/searchRequests';
+import { searchFacets, searchRows } from '$lib/server/catalogue/searchRows';
 import type { PageServerLoad } from './$types';
 
 // Every page of results, the first and each one after a change of the URL, is read from the read
 // API (SvelteKit's server `fetch` calls the endpoint in-process, as the reader), so the table and
 // the API can never disagree. The query is parsed here, on the server, so that the page's browser
-// code needs no schema library: it gets the parsed query and ready-made download links.
+// code needs no schema library, number formats or vocabularies: it gets the parsed query, the
+// rows and facets as text to show (searchRows.ts) and ready-made download links.
 export const load: PageServerLoad = async ({ url, fetch }) => {
 	const parsed = parseSearchParams(potentialPageQuery, url.searchParams, LIST_KEYS);
 	if (!parsed.ok) {
@@ -31,8 +33,8 @@ export const load: PageServerLoad = async ({ url, fetch }) => {
 	}
 	return {
 		query,
-		results: (await rows.json()) as Page<PotentialDto>,
-		facets: (await facets.json()) as CatalogueFacets,
+		results: searchRows((await rows.json()) as Page<PotentialDto>),
+		facets: searchFacets((await facets.json()) as CatalogueFacets, query),
 		/** This page's rows as CSV, straight from the API. */
 		pageCsvHref: `/api/v1/potentials?${rowsParams}&format=csv`,
 		/** Every matching row as CSV, in the page's order. */
