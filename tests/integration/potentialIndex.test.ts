@@ -17,11 +17,8 @@ import {
 	type PotentialMethod,
 	type Visibility
 } from '$lib/schemas/vocabulary';
-import {
-	POTENTIAL_SORTS,
-	type PotentialFilter,
-	type PotentialSort
-} from '$lib/schemas/catalogueQuery';
+import { POTENTIAL_SORTS, type PotentialSort } from '$lib/catalogue/searchTable';
+import type { PotentialFilter } from '$lib/schemas/catalogueQuery';
 import { loadDemoScenario } from '$seed/load';
 import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/entries';
 import { normalisePotential, potentialInputSchema } from '$lib/schemas/potential';

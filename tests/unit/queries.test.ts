@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { LIST_KEYS, potentialApiQuery, potentialPageQuery } from '$lib/schemas/catalogueQuery';
 import { parseSearchParams } from '$lib/schemas/searchParams';
-import { apiParamsForPage, exportParamsForPage, searchHref } from '$lib/catalogue/searchUrl';
+import { searchHref } from '$lib/catalogue/searchUrl';
+import { apiParamsForPage, exportParamsForPage } from '$lib/server/catalogue/searchRequests';
 import { decodeCursor, encodeCursor } from '$lib/schemas/pagination';
 
 const parse = (qs: string) =>

@@ -1,7 +1,7 @@
-import type { PotentialPageQuery } from '$lib/schemas/catalogueQuery';
-import { encodeOffsetCursor } from '$lib/schemas/pagination';
-
-/* Translating the search page's URL state into API requests and new page URLs. */
+/*
+ * The search page's URL state in the browser: new page URLs. (The API requests that answer a
+ * page's URL are built on the server: src/lib/server/catalogue/searchRequests.ts.)
+ */
 
 /** The parameters that choose which rows the search shows (not their order, page or columns). */
 export const FILTER_KEYS = [
@@ -18,39 +18,6 @@ export const FILTER_KEYS = [
 	'protein',
 	'centre'
 ] as const;
-
-/** The API query that returns exactly the rows the search page shows. */
-export function apiParamsForPage(query: PotentialPageQuery): URLSearchParams {
-	const params = new URLSearchParams();
-	for (const key of FILTER_KEYS) {
-		const value = query[key];
-		if (value === undefined) continue;
-		if (Array.isArray(value)) for (const v of value) params.append(key, v);
-		else params.set(key, String(value));
-	}
-	if (query.sort) params.set('sort', query.sort);
-	if (query.order) params.set('order', query.order);
-	params.set('limit', String(query.size));
-	if (query.cursor) params.set('cursor', query.cursor);
-	else if (query.page > 1) params.set('cursor', encodeOffsetCursor((query.page - 1) * query.size));
-	return params;
-}
-
-/** The API query for exporting every row the search page matches, in its order. */
-export function exportParamsForPage(query: PotentialPageQuery): URLSearchParams {
-	const params = apiParamsForPage(query);
-	params.delete('limit');
-	params.delete('cursor');
-	return params;
-}
-
-/** The API query for the facet counts of what the search page matches: its filters only. */
-export function facetParamsForPage(query: PotentialPageQuery): URLSearchParams {
-	const params = exportParamsForPage(query);
-	params.delete('sort');
-	params.delete('order');
-	return params;
-}
 
 export type ParamChange = string | number | readonly string[] | null | undefined;
 

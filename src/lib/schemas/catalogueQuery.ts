@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { PAGE_SIZES, POTENTIAL_COLUMNS, POTENTIAL_SORTS } from '$lib/catalogue/searchTable';
 import { accessionField } from './fields';
 import { MAX_CURSOR_LENGTH, decodeCursor } from './pagination';
 import { queryInteger, queryNumber } from './searchParams';
@@ -56,20 +57,6 @@ export const potentialFilterSchema = z.object({
 });
 export type PotentialFilter = z.infer<typeof potentialFilterSchema>;
 
-export const POTENTIAL_SORTS = [
-	'relevance',
-	'accession',
-	'protein',
-	'centre',
-	'kind',
-	'couple',
-	'em',
-	'ph',
-	'temperature',
-	'method'
-] as const;
-export type PotentialSort = (typeof POTENTIAL_SORTS)[number];
-
 const order = z.enum(['asc', 'desc'], { error: 'expected asc or desc' });
 const cursor = z
 	.string()
@@ -112,39 +99,6 @@ export const potentialExportQuerySchema = potentialFilterSchema.extend({
 	order: order.optional()
 });
 export const potentialExportQuery = withOrderedBounds(potentialExportQuerySchema);
-
-/** Columns of the search table that a reader can hide (kept in the URL as `hide`). */
-export const POTENTIAL_COLUMNS = [
-	'accession',
-	'protein',
-	'organism',
-	'centre',
-	'kind',
-	'couple',
-	'em',
-	'reported',
-	'ph',
-	'temperature',
-	'method',
-	'source'
-] as const;
-export type PotentialColumn = (typeof POTENTIAL_COLUMNS)[number];
-
-/**
- * Columns hidden while the URL names none: the organism (in the protein's tooltip and the phone
- * cards) and the value as reported, so that every other column fits at 1366 px. `hide=none`
- * shows them all.
- */
-export const DEFAULT_HIDDEN_COLUMNS: readonly PotentialColumn[] = ['organism', 'reported'];
-
-/** The columns a page query hides. */
-export function hiddenColumns(hide: readonly (PotentialColumn | 'none')[] | undefined) {
-	return hide === undefined
-		? DEFAULT_HIDDEN_COLUMNS
-		: hide.filter((c): c is PotentialColumn => c !== 'none');
-}
-
-export const PAGE_SIZES = [25, 50, 100] as const;
 
 export const potentialPageQuerySchema = potentialFilterSchema.extend({
 	sort: z

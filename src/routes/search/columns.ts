@@ -4,9 +4,8 @@ import {
 	rowSortingFeature,
 	tableFeatures
 } from '@tanstack/svelte-table';
-import type { PotentialDto } from '$lib/catalogue/dto';
-import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/schemas/catalogueQuery';
-import type { PotentialMethod } from '$lib/schemas/vocabulary';
+import { POTENTIAL_SORTS, type PotentialColumn } from '$lib/catalogue/searchTable';
+import type { PageData } from './$types';
 
 /*
  * The search table's features and columns. Sorting runs on the server (manual mode) and paging
@@ -18,7 +17,10 @@ export const features = tableFeatures({
 	columnVisibilityFeature
 });
 
-const helper = createColumnHelper<typeof features, PotentialDto>();
+/** A row as the server shaped it for display (src/lib/server/catalogue/searchRows.ts). */
+type Row = PageData['results']['rows'][number];
+
+const helper = createColumnHelper<typeof features, Row>();
 const sortable = (id: PotentialColumn) => (POTENTIAL_SORTS as readonly string[]).includes(id);
 
 export const COLUMN_LABELS: Record<PotentialColumn, string> = {
@@ -36,30 +38,20 @@ export const COLUMN_LABELS: Record<PotentialColumn, string> = {
 	organism: 'Organism'
 };
 
-/** Methods as the table names them (the full name is the cell's tooltip). */
-export const METHOD_SHORT: Record<PotentialMethod, string> = {
-	epr_titration: 'EPR titration',
-	optical_titration: 'optical titration',
-	protein_film_voltammetry: 'PFV',
-	solution_voltammetry: 'solution voltammetry',
-	spectroelectrochemistry: 'SEC',
-	mcd_titration: 'MCD titration',
-	computed: 'computed'
-};
-
-const accessors: Record<PotentialColumn, (p: PotentialDto) => string | number | null> = {
-	accession: (p) => p.accession,
-	protein: (p) => p.protein.name,
-	organism: (p) => p.protein.organism,
-	centre: (p) => p.centre.label,
-	kind: (p) => p.centre.cofactorKind,
-	couple: (p) => p.couple,
-	em: (p) => p.emMvShe,
-	reported: (p) => p.reported.value,
-	ph: (p) => p.ph,
-	temperature: (p) => p.temperatureK,
-	method: (p) => p.method,
-	source: (p) => p.source?.accession ?? null
+/* What each column holds (the text it shows; sorting runs on the server, so tanstack never compares these). */
+const accessors: Record<PotentialColumn, (r: Row) => string | null> = {
+	accession: (r) => r.accession,
+	protein: (r) => r.protein.name,
+	organism: (r) => r.protein.organism,
+	centre: (r) => r.centre.label,
+	kind: (r) => r.kind,
+	couple: (r) => r.couple.text,
+	em: (r) => r.em,
+	reported: (r) => r.reported,
+	ph: (r) => r.phValue,
+	temperature: (r) => r.temperatureValue,
+	method: (r) => r.method.short,
+	source: (r) => r.source?.name ?? null
 };
 
 export const columns = helper.columns(

@@ -1,6 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { PotentialDto } from '$lib/catalogue/dto';
-import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
+import type { PotentialSort } from '$lib/catalogue/searchTable';
+import type { PotentialFilter } from '$lib/schemas/catalogueQuery';
 import type { Database } from '../db/schema';
 import type { ReadSnapshot } from '../db/snapshot';
 import { PotentialIndex, potentialIndex } from '../search/potentialIndex';

@@ -1,6 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { Page, PotentialDto } from '$lib/catalogue/dto';
-import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
+import type { PotentialSort } from '$lib/catalogue/searchTable';
+import type { PotentialFilter } from '$lib/schemas/catalogueQuery';
 import type { Database } from '../db/schema';
 import { withVisibleSource } from './lists';
 import { toPotentialDto } from './mappers';

@@ -1,7 +1,8 @@
 import { sql, type Kysely } from 'kysely';
 import type { FacetCount } from '$lib/catalogue/dto';
 import { coupleKey, coupleMatches, type CoupleKey } from '$lib/catalogue/searchTerms';
-import type { PotentialFilter, PotentialSort } from '$lib/schemas/catalogueQuery';
+import type { PotentialSort } from '$lib/catalogue/searchTable';
+import type { PotentialFilter } from '$lib/schemas/catalogueQuery';
 import { accessionNumber } from '$lib/schemas/accession';
 import type { KeyValue, RowKey } from '$lib/schemas/pagination';
 import type { Database } from '../db/schema';
