@@ -1,4 +1,5 @@
 import { error } from '@sveltejs/kit';
+import { formatDate } from '$lib/format';
 import { parseSearchParams } from '$lib/schemas/searchParams';
 import { queueQuerySchema } from '$lib/schemas/submission';
 import { requireRole } from '$lib/server/auth/guards';
@@ -17,5 +18,11 @@ export const load: PageServerLoad = async (event) => {
 				.join(' · ')
 		});
 	}
-	return { filter: query.data, rows: await listQueue(db, query.data), kinds: kindChoices() };
+	const rows = await listQueue(db, query.data);
+	return {
+		filter: query.data,
+		// The day is formatted here, so that the page needs no formatting code of its own.
+		rows: rows.map((r) => ({ ...r, submittedOn: r.submittedAt && formatDate(r.submittedAt) })),
+		kinds: kindChoices()
+	};
 };

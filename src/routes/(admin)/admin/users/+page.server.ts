@@ -7,6 +7,7 @@ import {
 	setUserDisabled,
 	setUserRole
 } from '$lib/server/admin/accounts';
+import { ROLES } from '$lib/roles';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { parseForm } from '$lib/server/http/forms';
@@ -15,7 +16,7 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'admin');
-	return { users: await listUsers(db), requests: await openAccessRequests(db) };
+	return { users: await listUsers(db), requests: await openAccessRequests(db), roles: ROLES };
 };
 
 export const actions: Actions = {
