@@ -40,20 +40,6 @@ const LIBRARIES = [
 ] as const;
 type Library = (typeof LIBRARIES)[number]['name'];
 
-/**
- * Pages held to the goal that still preload a library, until the work on them lands (the search
- * page, the entry pages and the account page each have their own): an entry is checked to be
- * still true, so that the list can only shrink. Take an entry off when its test says so.
- */
-const AWAITING: Partial<Record<string, Library[]>> = {
-	'/search': ['zod'],
-	'/search?kind=fe4s4': ['zod'],
-	'/e/HL000007': ['zod', 'd3-scale'],
-	'/e/HL000056': ['zod', 'd3-scale'],
-	'/e/HL000007/v1': ['zod', 'd3-scale'],
-	'/account': ['zod']
-};
-
 const budgetPages = PAGES.filter(([path]) => !(path in EXEMPT));
 const cookies = new Map<string, string>();
 const moduleText = new Map<string, Promise<string>>();
@@ -125,10 +111,6 @@ describe('pages held to the first-load goal', () => {
 
 	it.each(budgetPages)('%s preloads neither zod nor d3', async (path, role) => {
 		const found = await librariesPreloadedBy(path, role);
-		const awaiting = AWAITING[path] ?? [];
-		const message = awaiting.length
-			? `${path} preloads ${found.join(', ') || 'neither'} now: bring its AWAITING entry up to date`
-			: `${path} preloads ${found.join(', ')}`;
-		expect(found, message).toEqual(awaiting);
+		expect(found, `${path} preloads ${found.join(', ')}`).toEqual([]);
 	});
 });
