@@ -5,7 +5,10 @@
 // The production build answers every page with a `Link` header that lists each module the page
 // needs at start (SvelteKit's modulepreload list: the router, the layouts, the page and every
 // chunk they import); the figure is the sum of those files, each gzipped at level 9 as a server
-// or CDN would send it. Modules a page loads later on demand (dynamic imports) are not counted.
+// or CDN would send it. Pages served without hydration (`csr = false`: the entry pages) have no
+// such list but a script of their own in a `<script src>` tag; the scripts a page's HTML names
+// are counted too, each file once. Modules a page loads later on demand (dynamic imports) are
+// not counted.
 import { mkdtempSync, readFileSync, rmSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -55,6 +58,13 @@ export const PAGES: [path: string, role: Role | null][] = [
 	['/admin/backups', 'admin']
 ];
 
+/** Same-origin script files the page's HTML loads by `<script src>` (not inline scripts). */
+function scriptSources(html: string): string[] {
+	return [...html.matchAll(/<script\b[^>]*\bsrc="([^"]+)"/g)]
+		.map((m) => m[1] ?? '')
+		.filter((src) => src.startsWith('/'));
+}
+
 /** The module files a page preloads, from its `Link` header. */
 export function preloadedModules(link: string | null): string[] {
 	if (!link) return [];
@@ -96,9 +106,10 @@ export async function benchPageJs(): Promise<void> {
 				headers: role ? { cookie: cookies.get(role) as string } : {},
 				redirect: 'manual'
 			});
-			await res.arrayBuffer();
+			const html = await res.text();
 			if (res.status !== 200) throw new Error(`${path} answered ${res.status}`);
-			const modules = preloadedModules(res.headers.get('link'));
+			const files = [...preloadedModules(res.headers.get('link')), ...scriptSources(html)];
+			const modules = [...new Set(files.map((href) => new URL(href, 'http://x/').pathname))];
 			const sizes = modules.map(sizeOf);
 			const raw = sizes.reduce((sum, s) => sum + s.raw, 0) / 1000;
 			const gzip = sizes.reduce((sum, s) => sum + s.gzip, 0) / 1000;

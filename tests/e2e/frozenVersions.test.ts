@@ -81,8 +81,8 @@ interface FrozenCapture {
 	documentTitle: string;
 	/** The server's HTML of the frozen block, as sent. */
 	block: string;
-	/** The same block after hydration in the browser. */
-	hydratedBlock: string;
+	/** The same block in the browser, after the page’s enhancement script ran (it is not hydrated). */
+	enhancedBlock: string;
 	/** The citation in every format the page offers, by the format's label. */
 	citations: Record<string, string>;
 }
@@ -130,7 +130,7 @@ async function capture(path: string): Promise<FrozenCapture> {
 		headline: /<div[^>]*data-testid="headline"[^>]*>[\s\S]*?<\/div>/.exec(html)?.[0] ?? '',
 		documentTitle: await page.title(),
 		block,
-		hydratedBlock: await page.getByTestId('frozen-version').evaluate((el) => el.outerHTML),
+		enhancedBlock: await page.getByTestId('frozen-version').evaluate((el) => el.outerHTML),
 		citations
 	};
 	return captured;
@@ -274,7 +274,7 @@ describe('a version page is frozen', () => {
 			expect(after.headline, path).toBe(was.headline);
 			expect(after.documentTitle, path).toBe(was.documentTitle);
 			expect(after.block, path).toBe(was.block);
-			expect(after.hydratedBlock, path).toBe(was.hydratedBlock);
+			expect(after.enhancedBlock, path).toBe(was.enhancedBlock);
 			expect(after.citations, path).toEqual(was.citations);
 			expect(after.block, path).not.toContain(renamed);
 		}

@@ -22,6 +22,13 @@ import { presentEntry } from './presentEntry';
 import { shownRelated } from './shownRelated';
 
 /**
+ * A citable document: served as HTML with no hydration and no client-side router (links from it
+ * are ordinary page loads); the little that needs a script is done by the page's own
+ * ($lib/enhance/entryPage.ts). See DEVELOPERS.md, "Documents without hydration".
+ */
+export const csr = false;
+
+/**
  * An entry at one version, with (for proteins and centres) its related records one page per
  * list, conflict flags for the potentials shown, and a protein's energy ladder — every part
  * bounded, however many records the entry has. Words, citations and the ladder's geometry are
