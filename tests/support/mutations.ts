@@ -223,6 +223,15 @@ export const MUTATIONS: Mutation[] = [
 		body: { kind: 'potential' },
 		allowed: invalid
 	})),
+	// HL000001 is the demo's first protein (seed/demo.ts: entries are allocated in seed order).
+	...(['read', 'plan', 'submit'] as const).map((name) => ({
+		file: '(app)/submissions/upload/structure/+page.server.ts',
+		name,
+		url: `/submissions/upload/structure?protein=HL000001&/${name}`,
+		least: 'contributor' as const,
+		body: { structureId: 'x' },
+		allowed: invalid
+	})),
 	{
 		file: 'api/v1/uploads/check/+server.ts',
 		name: 'POST',
