@@ -175,7 +175,7 @@ describe('distances from an uploaded structure', () => {
 			'match.1': medial
 		};
 		const r = await planFromForm(db, contributor, protein, values, null);
-		expect(r).toEqual({
+		expect(r).toMatchObject({
 			ok: false,
 			status: 400,
 			errors: { 'match.1': [`${medial} is not a centre of ${protein.name}`] }

@@ -223,14 +223,14 @@ export const MUTATIONS: Mutation[] = [
 		body: { kind: 'potential' },
 		allowed: invalid
 	})),
-	// HL000001 is the demo's first protein (seed/demo.ts: entries are allocated in seed order).
+	// No such protein: past the role check, the answer is the 404 of an unknown protein.
 	...(['read', 'plan', 'submit'] as const).map((name) => ({
 		file: '(app)/submissions/upload/structure/+page.server.ts',
 		name,
-		url: `/submissions/upload/structure?protein=HL000001&/${name}`,
+		url: `/submissions/upload/structure?protein=HL999999&/${name}`,
 		least: 'contributor' as const,
 		body: { structureId: 'x' },
-		allowed: invalid
+		allowed: { type: 'error', status: 404, message: 'no protein HL999999' } as Answer
 	})),
 	{
 		file: 'api/v1/uploads/check/+server.ts',

@@ -78,7 +78,7 @@ export type PlanResult =
 			matches: string[];
 			plan: DistancePlan;
 	  }
-	| { ok: false; status: 400 | 404; errors: FieldErrors };
+	| { ok: false; status: 400 | 404; errors: FieldErrors; groups?: StructureReading['rows'] };
 
 /** Plans the distances from the posted form: the stored file, the confirmed match, the cutoff. */
 export async function planFromForm(
@@ -119,9 +119,15 @@ export async function planFromForm(
 		used.set(value, i);
 		return value;
 	});
-	if (Object.keys(errors).length > 0) return { ok: false, status: 400, errors };
+	if (Object.keys(errors).length > 0)
+		return { ok: false, status: 400, errors, groups: reading.rows };
 	if (used.size < 2)
-		return { ok: false, status: 400, errors: { form: ['match at least two groups to centres'] } };
+		return {
+			ok: false,
+			status: 400,
+			errors: { form: ['match at least two groups to centres'] },
+			groups: reading.rows
+		};
 	const plan = await planDistances(db, {
 		reading,
 		protein,

@@ -91,7 +91,7 @@ export const actions: Actions = {
 		const { user, protein: p } = await protein(event);
 		const { values } = await formValues(event);
 		const r = await planFromForm(db, user, p, values, null);
-		if (!r.ok) return fail(r.status, { values, errors: r.errors });
+		if (!r.ok) return fail(r.status, { values, errors: r.errors, groups: r.groups });
 		return {
 			step: 'pick' as const,
 			values,
@@ -109,7 +109,7 @@ export const actions: Actions = {
 		if (pairs.length === 0)
 			return fail(400, { values, errors: { form: ['tick at least one distance to submit'] } });
 		const r = await planFromForm(db, user, p, values, new Set(pairs));
-		if (!r.ok) return fail(r.status, { values, errors: r.errors });
+		if (!r.ok) return fail(r.status, { values, errors: r.errors, groups: r.groups });
 		const visibility = visibilityFromForm(values);
 		if (!visibility.ok) return fail(400, { values, errors: visibility.fields });
 		if (r.plan.check.errorCount > 0)
