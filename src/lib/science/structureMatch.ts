@@ -157,8 +157,16 @@ export function ligandResidues(
 ): { chainId: string; resSeq: number }[] {
 	const own = group.atoms.filter(isHeavy);
 	const found = new Map<string, { chainId: string; resSeq: number }>();
+	if (own.length === 0) return [];
 	const reach2 = LIGAND_REACH_A ** 2;
+	// The group's box grown by the reach: most atoms of a large file are rejected by six
+	// comparisons instead of one distance per atom of the group.
+	const lo = (k: 'x' | 'y' | 'z') => Math.min(...own.map((a) => a[k])) - LIGAND_REACH_A;
+	const hi = (k: 'x' | 'y' | 'z') => Math.max(...own.map((a) => a[k])) + LIGAND_REACH_A;
+	const [x0, x1, y0, y1, z0, z1] = [lo('x'), hi('x'), lo('y'), hi('y'), lo('z'), hi('z')];
 	for (const atom of atoms) {
+		if (atom.x < x0 || atom.x > x1 || atom.y < y0 || atom.y > y1 || atom.z < z0 || atom.z > z1)
+			continue;
 		if (!isHeavy(atom) || atom.resName === group.resName || atom.resName === 'HOH') continue;
 		const key = `${atom.chainId}|${atom.resSeq}`;
 		if (found.has(key)) continue;
