@@ -135,4 +135,32 @@ describe('distances from an uploaded structure, end to end', () => {
 		await curator.screenshot({ path: 'test-results/structure-protein-390.png', fullPage: true });
 		await matrix.screenshot({ path: 'test-results/structure-matrix-390.png' });
 	});
+
+	it('answers hostile and broken files with a clear 4xx over HTTP, and the server stays up', async () => {
+		const post = (name: string, buffer: Buffer) =>
+			contributor.request.post(`/submissions/upload/structure?protein=${hyl}&/read`, {
+				headers: { origin: base, accept: 'application/json' },
+				multipart: { file: { name, mimeType: 'application/octet-stream', buffer } }
+			});
+		const cases: [string, Buffer, number, RegExp][] = [
+			['image.pdb', Buffer.from([0x89, 0x50, 0x4e, 0x47, 0xff, 0xfe]), 400, /not text/],
+			// 64 MB of spaces packs into about 64 KB: refused at the unpacking cap (30 MB).
+			['bomb.pdb.gz', gzipSync(Buffer.alloc(64 * 1024 * 1024, 0x20)), 413, /unpacks to more than/],
+			[
+				'truncated.gz',
+				gzipSync(Buffer.from(STRUCTURE_PDB)).subarray(0, 40),
+				400,
+				/could not be unpacked/
+			],
+			['empty.pdb', Buffer.alloc(0), 400, /choose a PDB or mmCIF file/],
+			['text.pdb', Buffer.from('HEADER nothing\n'), 400, /no ATOM or HETATM/]
+		];
+		for (const [name, buffer, status, message] of cases) {
+			const res = await post(name, buffer);
+			const body = await res.text();
+			expect([name, res.status(), message.test(body)]).toEqual([name, 200, true]);
+			expect(body).toContain(`"status":${status}`);
+		}
+		expect((await contributor.request.get('/')).status()).toBe(200);
+	});
 });
