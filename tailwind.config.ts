@@ -13,7 +13,9 @@ export default {
 				oxidised: '#a14a25',
 				reduced: '#237080',
 				caution: { DEFAULT: '#8a4b08', pale: '#fff4e0' },
-				danger: { DEFAULT: '#9b1c1c', pale: '#fdecec' }
+				danger: { DEFAULT: '#9b1c1c', pale: '#fdecec' },
+				// The distance matrix's scale, near to far edge-to-edge (catalogue/distanceMatrix.ts).
+				reach: { 1: '#0d4a57', 2: '#2c7a80', 3: '#8bbcb0', 4: '#e3dcc0', 5: '#f6f3ea' }
 			},
 			fontFamily: {
 				sans: ['"Noto Sans"', 'system-ui', 'sans-serif'],

@@ -223,6 +223,15 @@ export const MUTATIONS: Mutation[] = [
 		body: { kind: 'potential' },
 		allowed: invalid
 	})),
+	// No such protein: past the role check, the answer is the 404 of an unknown protein.
+	...(['read', 'plan', 'submit'] as const).map((name) => ({
+		file: '(app)/submissions/upload/structure/+page.server.ts',
+		name,
+		url: `/submissions/upload/structure?protein=HL999999&/${name}`,
+		least: 'contributor' as const,
+		body: { structureId: 'x' },
+		allowed: { type: 'error', status: 404, message: 'no protein HL999999' } as Answer
+	})),
 	{
 		file: 'api/v1/uploads/check/+server.ts',
 		name: 'POST',

@@ -43,6 +43,7 @@ import {
 import { AccessDateError } from '$lib/server/citations/files';
 import { orNotFound, toApiResponse, toFormFailure } from '$lib/server/http/failures';
 import { UploadHasErrorsError } from '$lib/server/uploads/commitUpload';
+import { StructureFileError } from '$lib/server/structures/readStructureFile';
 import { z } from 'zod';
 
 /**
@@ -182,6 +183,11 @@ const CASES: Record<string, Case> = {
 	ApiTokenLimitError: { error: new ApiTokenLimitError(50), status: 409, code: 'conflict' },
 	ApiTokenNotFoundError: { error: new ApiTokenNotFoundError(7), status: 404, code: 'not_found' },
 	UploadHasErrorsError: { error: new UploadHasErrorsError(3), status: 400, code: 'bad_request' },
+	StructureFileError: {
+		error: new StructureFileError('the structure file is empty'),
+		status: 400,
+		code: 'bad_request'
+	},
 	CsvLimitError: {
 		error: new CsvLimitError('columns', 200, 1, 'Row 1 has more than 200 columns'),
 		status: 413,

@@ -83,6 +83,18 @@ const configSchema = z.object({
 		.int()
 		.min(1024)
 		.default(20 * 1024 * 1024),
+	/** Largest structure file (PDB or mmCIF, gzipped or not) as uploaded, bytes (default 10 MB). */
+	STRUCTURE_MAX_BYTES: z.coerce
+		.number()
+		.int()
+		.min(1024)
+		.default(10 * 1024 * 1024),
+	/** Largest structure text after unpacking gzip, bytes (default 30 MB): caps a gzip bomb. */
+	STRUCTURE_MAX_TEXT_BYTES: z.coerce
+		.number()
+		.int()
+		.min(1024)
+		.default(30 * 1024 * 1024),
 	/** Most rows in one CSV file after the header, blank rows included. */
 	UPLOAD_MAX_ROWS: z.coerce.number().int().min(1).default(200_000),
 	/**

@@ -48,6 +48,8 @@ export async function commitUpload(
 		changeNote: string | null;
 		origin: string;
 		pendingRowsMax: number;
+		/** The submission's title when the batch was not a CSV file (e.g. distances from a structure). */
+		title?: string;
 	}
 ): Promise<CommitResult> {
 	if (check.errorCount > 0) throw new UploadHasErrorsError(check.errorCount);
@@ -60,7 +62,9 @@ export async function commitUpload(
 		.values({
 			channel: 'csv',
 			status: 'submitted',
-			title: `CSV batch: ${check.entries.length} ${UPLOAD_KIND_NOUNS[check.kind]}${check.proteins.length ? ` and ${check.proteins.length} new protein(s)` : ''} from ${meta.filename}`,
+			title:
+				meta.title ??
+				`CSV batch: ${check.entries.length} ${UPLOAD_KIND_NOUNS[check.kind]}${check.proteins.length ? ` and ${check.proteins.length} new protein(s)` : ''} from ${meta.filename}`,
 			submitted_by: user.id,
 			content_sha256: check.sha256,
 			row_count: check.rowCount,

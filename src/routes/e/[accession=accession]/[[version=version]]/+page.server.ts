@@ -2,6 +2,7 @@ import { pageCitation } from '$lib/catalogue/citation';
 import { describeConflictRule } from '$lib/catalogue/conflicts';
 import { entryHead } from '$lib/catalogue/entryMetadata';
 import { buildLadder } from '$lib/catalogue/ladder';
+import { distanceMatrix } from '$lib/catalogue/distanceMatrix';
 import { drawLadders } from '$lib/catalogue/ladderLayout';
 import { roleAtLeast } from '$lib/roles';
 import { parseChainChoice } from '$lib/schemas/chainChoice';
@@ -16,6 +17,7 @@ import { relatedRecords } from '$lib/server/catalogue/related';
 import { entryCitation } from '$lib/server/citations/citable';
 import { negotiateEntryRepresentation } from '$lib/server/citations/negotiate';
 import { db } from '$lib/server/db';
+import { loadProteinForStructure } from '$lib/server/structures/structureDistances';
 import { orNotFound, queryError } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
 import { presentEntry } from './presentEntry';
@@ -82,6 +84,11 @@ export const load: PageServerLoad = async ({
 		view.kind === 'potential'
 			? await conflictFlagsOfPotential(db, view.accession, locals.viewer)
 			: await conflictFlags(db, related?.potentials.items ?? [], locals.viewer);
+	// The protein's current distances as a matrix (live data, shown apart from the version).
+	const matrixData =
+		view.kind === 'protein'
+			? await loadProteinForStructure(db, view.accession, locals.viewer)
+			: null;
 	const citation = await entryCitation(db, view, url.origin);
 	const words = presentEntry(view.kind, view.data);
 	return {
@@ -91,6 +98,7 @@ export const load: PageServerLoad = async ({
 		cite: pageCitation(citation.record),
 		related: related ? shownRelated(related) : null,
 		ladder,
+		distanceMatrix: matrixData ? distanceMatrix(matrixData.centres, matrixData.distances) : null,
 		ladderDrawings: ladder ? drawLadders(ladder) : null,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
 		chain: chain.estimate,

@@ -1,0 +1,145 @@
+import type { Kysely } from 'kysely';
+import { DomainError } from '$lib/domainError';
+import { fieldErrors } from '$lib/schemas/fieldErrors';
+import type { FieldErrors } from '$lib/schemas/searchParams';
+import { structurePlanSchema, type StructurePlanForm } from '$lib/schemas/structureDistances';
+import type { SessionUser } from '../auth/roles';
+import { config } from '../config';
+import type { Database } from '../db/schema';
+import { readStructureFile } from './readStructureFile';
+import { loadStructureBytes, saveStructureBytes } from './store';
+import {
+	loadProteinForStructure,
+	planDistances,
+	readGroups,
+	type DistancePlan,
+	type ProteinForStructure,
+	type StructureReading
+} from './structureDistances';
+
+/*
+ * The three steps of distances from a structure, as services the route calls: read the upload
+ * (store it, list the groups, propose a match), plan the distances from a confirmed match, and
+ * (in the route) commit the ticked ones through the CSV batch commit.
+ */
+export const structureLimits = () => ({
+	maxBytes: config.STRUCTURE_MAX_BYTES,
+	maxTextBytes: config.STRUCTURE_MAX_TEXT_BYTES
+});
+
+export async function proteinOr404(
+	db: Kysely<Database>,
+	accession: string,
+	user: SessionUser
+): Promise<ProteinForStructure> {
+	const protein = await loadProteinForStructure(db, accession, { groupIds: user.groupIds });
+	// The same answer for a hidden protein as for none: its existence is not revealed.
+	if (!protein) throw new DomainError('not_found', `no protein ${accession}`);
+	return protein;
+}
+
+export interface ReadResult {
+	sha256: string;
+	filename: string;
+	gzipped: boolean;
+	reading: StructureReading;
+}
+
+/** Reads, checks and stores an uploaded file; the groups and a proposed match. */
+export async function readUpload(
+	protein: ProteinForStructure,
+	bytes: Uint8Array,
+	filename: string
+): Promise<ReadResult> {
+	const file = await readStructureFile(bytes, structureLimits());
+	const reading = readGroups(file.text, protein);
+	await saveStructureBytes(file.sha256, bytes);
+	return {
+		sha256: file.sha256,
+		filename: cleanName(filename),
+		gzipped: file.gzipped,
+		reading
+	};
+}
+
+/** A file name fit for a note: one line, no path, at most 120 characters. */
+export function cleanName(name: string): string {
+	const base = name.split(/[\\/]/).pop() ?? '';
+	// eslint-disable-next-line no-control-regex
+	const clean = base.replace(/[\u0000-\u001f\u007f]/g, '').trim();
+	return (clean || 'structure').slice(0, 120);
+}
+
+export type PlanResult =
+	| {
+			ok: true;
+			form: StructurePlanForm;
+			reading: StructureReading;
+			matches: string[];
+			plan: DistancePlan;
+	  }
+	| { ok: false; status: 400 | 404; errors: FieldErrors; groups?: StructureReading['rows'] };
+
+/** Plans the distances from the posted form: the stored file, the confirmed match, the cutoff. */
+export async function planFromForm(
+	db: Kysely<Database>,
+	user: SessionUser,
+	protein: ProteinForStructure,
+	values: Record<string, string>,
+	only: Set<string> | null
+): Promise<PlanResult> {
+	const parsed = structurePlanSchema.safeParse(values);
+	if (!parsed.success) return { ok: false, status: 400, errors: fieldErrors(parsed.error) };
+	const form = parsed.data;
+	const bytes = await loadStructureBytes(form.sha256);
+	if (!bytes)
+		return {
+			ok: false,
+			status: 404,
+			errors: { file: ['the structure file is no longer stored: upload it again'] }
+		};
+	const file = await readStructureFile(bytes, structureLimits());
+	const reading = readGroups(file.text, protein);
+	const visible = new Set(protein.centres.map((c) => c.accession));
+	const errors: FieldErrors = {};
+	const used = new Map<string, number>();
+	const matches = reading.groups.map((_, i) => {
+		const value = (values[`match.${i}`] ?? '').trim();
+		if (value === '') return '';
+		if (!visible.has(value)) {
+			// Hidden and unknown centres get the same message.
+			errors[`match.${i}`] = [`${value} is not a centre of ${protein.name}`];
+			return '';
+		}
+		const earlier = used.get(value);
+		if (earlier !== undefined) {
+			errors[`match.${i}`] = [`this centre is already matched to ${reading.rows[earlier]!.label}`];
+			return '';
+		}
+		used.set(value, i);
+		return value;
+	});
+	if (Object.keys(errors).length > 0)
+		return { ok: false, status: 400, errors, groups: reading.rows };
+	if (used.size < 2)
+		return {
+			ok: false,
+			status: 400,
+			errors: { form: ['match at least two groups to centres'] },
+			groups: reading.rows
+		};
+	const plan = await planDistances(db, {
+		reading,
+		protein,
+		matches,
+		structureId: form.structureId,
+		method: form.method,
+		cutoffA: form.cutoffA,
+		sha256: form.sha256,
+		filename: form.filename,
+		only,
+		viewer: { groupIds: user.groupIds },
+		uploaderId: user.id
+	});
+	return { ok: true, form, reading, matches, plan };
+}
