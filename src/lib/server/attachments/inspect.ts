@@ -240,22 +240,41 @@ function zipInside(bytes: Uint8Array): boolean {
 	return false;
 }
 
-const latin1 = new TextDecoder('latin1');
+/** Tags a browser or a content sniffer would act on, lower case, after their `<`. */
+const SVG_TAGS = ['svg'];
+const HTML_TAGS = ['script', 'html', 'iframe', 'body', '!doctype html', 'object', 'embed'];
+
+/** Whether the bytes at `at` spell `word` in any letter case (ASCII). */
+function spells(bytes: Uint8Array, at: number, word: string): boolean {
+	if (at + word.length >= bytes.byteLength) return false;
+	for (let i = 0; i < word.length; i++) {
+		const b = bytes[at + i] as number;
+		const lower = b >= 0x41 && b <= 0x5a ? b + 0x20 : b;
+		if (lower !== word.charCodeAt(i)) return false;
+	}
+	// The tag name must end there: `<svg>`, `<svg ` or `<svg/`, not `<svgfoo`.
+	const next = bytes[at + word.length] as number;
+	return word.includes(' ') || next === 0x3e || next === 0x2f || next <= 0x20;
+}
 
 /**
  * HTML, SVG or script markup a browser or a sniffer could act on, anywhere in the file: at the
- * start (the whole file is markup) or inside an image's metadata or after its end.
+ * start (the whole file is markup) or inside an image's metadata or after its end. Walks the
+ * `<` bytes with Buffer.indexOf (native) rather than decoding the file as text, which kept the
+ * request thread busy for a tenth of a second on a 7 MB photograph.
  */
 function activeMarkup(bytes: Uint8Array): 'svg' | 'html' | 'script' | null {
-	const text = latin1.decode(bytes).toLowerCase();
-	const head = text
-		.slice(0, 1024)
-		.replace(/^\ufeff|^ï»¿/, '')
-		.trimStart();
-	if (/<svg[\s>/]/.test(text)) return 'svg';
-	if (/<script[\s>/]|<iframe[\s>/]|<html[\s>/]|<!doctype html|<body[\s>/]|javascript:/.test(text))
-		return 'html';
-	if (head.startsWith('#!')) return 'script';
+	const buffer = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+	let html = false;
+	for (let at = buffer.indexOf(0x3c); at !== -1; at = buffer.indexOf(0x3c, at + 1)) {
+		if (SVG_TAGS.some((tag) => spells(bytes, at + 1, tag))) return 'svg';
+		if (!html && HTML_TAGS.some((tag) => spells(bytes, at + 1, tag))) html = true;
+	}
+	if (html) return 'html';
+	let start = 0;
+	if (bytes[0] === 0xef && bytes[1] === 0xbb && bytes[2] === 0xbf) start = 3; // UTF-8 BOM
+	while (start < bytes.byteLength && (bytes[start] as number) <= 0x20) start++;
+	if (bytes[start] === 0x23 && bytes[start + 1] === 0x21) return 'script'; // #!
 	return null;
 }
 
