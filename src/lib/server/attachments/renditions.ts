@@ -24,7 +24,19 @@ export interface Renditions {
 	thumbnail: Rendition;
 }
 
-type Image = Awaited<ReturnType<typeof Jimp.read>>;
+/** Decoded pixels, RGBA, row by row. */
+interface Pixels {
+	data: Buffer;
+	width: number;
+	height: number;
+}
+
+/** A jimp image holding `pixels` (shared, not copied). */
+function imageOf(pixels: Pixels): InstanceType<typeof Jimp> {
+	const image = new Jimp({ width: pixels.width, height: pixels.height });
+	image.bitmap.data = pixels.data;
+	return image;
+}
 
 /**
  * Shrinks by a whole factor, each output pixel the mean of a factor × factor block (a box
@@ -32,13 +44,12 @@ type Image = Awaited<ReturnType<typeof Jimp.read>>;
  * took longer than decoding it. The exact size is then reached by a bilinear step over at most
  * twice the target, which a box before it keeps free of aliasing.
  */
-function boxShrink(image: Image, factor: number): Image {
-	const width = Math.floor(image.width / factor);
-	const height = Math.floor(image.height / factor);
-	const out = new Jimp({ width, height });
-	const src = image.bitmap.data;
-	const dst = out.bitmap.data;
-	const rowBytes = image.width * 4;
+function boxShrink(source: Pixels, factor: number): Pixels {
+	const width = Math.floor(source.width / factor);
+	const height = Math.floor(source.height / factor);
+	const src = source.data;
+	const dst = Buffer.alloc(width * height * 4);
+	const rowBytes = source.width * 4;
 	const area = factor * factor;
 	for (let y = 0; y < height; y++) {
 		for (let x = 0; x < width; x++) {
@@ -62,35 +73,42 @@ function boxShrink(image: Image, factor: number): Image {
 			dst[o + 3] = a / area;
 		}
 	}
-	return out;
+	return { data: dst, width, height };
 }
 
-function fit(image: Image, px: number): Image {
-	const longer = Math.max(image.width, image.height);
-	if (longer <= px) return image;
+function fit(pixels: Pixels, px: number): Pixels {
+	const longer = Math.max(pixels.width, pixels.height);
+	if (longer <= px) return pixels;
 	const factor = Math.floor(longer / px); // the box never takes it below the target
-	const shrunk = factor >= 2 ? boxShrink(image, factor) : image;
+	const shrunk = factor >= 2 ? boxShrink(pixels, factor) : pixels;
 	if (Math.max(shrunk.width, shrunk.height) <= px) return shrunk;
-	return shrunk.scaleToFit({ w: px, h: px });
+	const image = imageOf(shrunk).scaleToFit({ w: px, h: px });
+	return { data: image.bitmap.data, width: image.width, height: image.height };
 }
 
-async function encode(image: Image, mime: Rendition['mime']): Promise<Rendition> {
+async function encode(pixels: Pixels, mime: Rendition['mime']): Promise<Rendition> {
+	const image = imageOf(pixels);
 	const bytes =
 		mime === 'image/jpeg'
 			? await image.getBuffer('image/jpeg', { quality: 85 })
 			: await image.getBuffer('image/png');
-	return { bytes: new Uint8Array(bytes), mime, width: image.width, height: image.height };
+	return { bytes: new Uint8Array(bytes), mime, width: pixels.width, height: pixels.height };
 }
 
 /** Decodes `original` (already inspected: a supported type, within the pixel budget). */
 export async function makeRenditions(original: Uint8Array, photo: boolean): Promise<Renditions> {
-	const image = await Jimp.read(
+	const decoded = await Jimp.read(
 		Buffer.from(original.buffer, original.byteOffset, original.byteLength)
 	);
+	const pixels: Pixels = {
+		data: decoded.bitmap.data,
+		width: decoded.width,
+		height: decoded.height
+	};
 	const mime = photo ? 'image/jpeg' : 'image/png';
-	const previewImage = fit(image, PREVIEW_PX);
-	const preview = await encode(previewImage, mime);
-	// From the preview, not the original: a quarter of the pixels to read again at most.
-	const thumbnail = await encode(fit(previewImage, THUMBNAIL_PX), mime);
+	const previewPixels = fit(pixels, PREVIEW_PX);
+	const preview = await encode(previewPixels, mime);
+	// From the preview, not the original: a sixteenth of the pixels to read again at most.
+	const thumbnail = await encode(fit(previewPixels, THUMBNAIL_PX), mime);
 	return { preview, thumbnail };
 }
