@@ -390,6 +390,14 @@ export async function removeOrphans(
 			await trx.deleteFrom('attachment_blob').where('sha256', 'in', keys).execute();
 		return keys;
 	});
-	for (const key of unnamed) await store.delete(key);
+	for (const key of unnamed) {
+		// An upload of the same content may have named the file again since: keep it then.
+		const named = await db
+			.selectFrom('attachment_blob')
+			.select('sha256')
+			.where('sha256', '=', key)
+			.executeTakeFirst();
+		if (!named) await store.delete(key);
+	}
 	return { attachments: ids.length, files: unnamed.length };
 }
