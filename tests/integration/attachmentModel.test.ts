@@ -270,7 +270,7 @@ describe('attachments as rows and files', () => {
 			'cache-control': 'private, max-age=31536000, immutable',
 			etag: `"${a.sha256}"`
 		});
-		expect(original.headers['content-disposition']).toMatch(/^inline; filename="plot.png"/);
+		expect(original.headers['content-disposition']).toMatch(/^attachment; filename="plot.png"/);
 		expect(original.headers['content-security-policy']).toMatch(/^sandbox;/);
 		const thumb = await serveAttachmentFile(db, store, member, a.id, 'thumbnail', null);
 		expect(thumb.status === 200 && thumb.headers['content-disposition']).toMatch(

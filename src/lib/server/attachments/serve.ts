@@ -62,7 +62,8 @@ export async function serveAttachmentFile(
 	const fileName =
 		variant === 'original' ? a.fileName : `${stem}-${variant}${extension ? `.${extension}` : ''}`;
 	const headers = fileHeaders(file.mediaType, file.sha256, {
-		inline: variant !== 'original' || a.role === 'image',
+		// The original downloads as it was uploaded; the renditions are for showing.
+		inline: variant !== 'original',
 		fileName
 	});
 	if (ifNoneMatch?.split(',').some((tag) => tag.trim() === headers.etag))
