@@ -11,9 +11,11 @@
 // 7. the pages of a centre with 5 000 potentials: time and server memory (bench/largeCentre.ts);
 // 8. first-load JavaScript per page, gzipped, against its goal (bench/pageJs.ts; after a build,
 //    also `npm run bench:js`);
+// 9. an attachment image: preview + thumbnail of a 4000 × 3000 JPEG in the image worker, and the
+//    longest event-loop stall meanwhile (bench/attachments.ts);
 // and first, the science engine's timings (bench/science.ts).
 // `npm run bench -- approval upload` runs only the steps named (science, search, api, http, upload,
-// approval, calc, largeCentre, pageJs). Figures go to bench/RESULTS.md (bench/results.ts).
+// approval, calc, largeCentre, pageJs, attachments). Figures go to bench/RESULTS.md (bench/results.ts).
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { listPotentials } from '../src/lib/server/catalogue/potentials';
@@ -31,6 +33,7 @@ import { recordOutput, writeResults } from './results';
 import { benchApproval } from './approval';
 import { benchHttp } from './http';
 import { benchPageJs } from './pageJs';
+import { benchAttachments } from './attachments';
 import { rssMb, startRawServer, type RawServer } from './processes';
 import { freePort } from '../tests/support/server';
 
@@ -222,7 +225,8 @@ const STEPS = [
 	'approval',
 	'calc',
 	'largeCentre',
-	'pageJs'
+	'pageJs',
+	'attachments'
 ] as const;
 const named = process.argv.slice(2);
 const unknown = named.filter((n) => !(STEPS as readonly string[]).includes(n));
@@ -233,8 +237,9 @@ if (runs('science')) {
 	recordOutput('science');
 	benchScience();
 }
-// Every step but science and pageJs reads the 100 000-potential catalogue.
-if (STEPS.some((step) => step !== 'science' && step !== 'pageJs' && runs(step))) {
+// Every step but science, pageJs and attachments reads the 100 000-potential catalogue.
+const OWN_DATA = ['science', 'pageJs', 'attachments'];
+if (STEPS.some((step) => !OWN_DATA.includes(step) && runs(step))) {
 	const dataset = await ensureDataset(DATASET, SIZE);
 	console.log(
 		dataset.created
@@ -273,5 +278,9 @@ if (runs('largeCentre')) {
 if (runs('pageJs')) {
 	recordOutput('pageJs');
 	await benchPageJs();
+}
+if (runs('attachments')) {
+	recordOutput('attachments');
+	await benchAttachments();
 }
 writeResults(STEPS);

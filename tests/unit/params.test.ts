@@ -2,6 +2,7 @@ import { readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { CITATION_FILE_EXTENSIONS } from '$lib/catalogue/citation';
 import { match as accession } from '../../src/params/accession';
+import { match as attachmentVariant } from '../../src/params/attachmentVariant';
 import { match as citeFormat } from '../../src/params/citeFormat';
 import { match as id } from '../../src/params/id';
 import { match as kind } from '../../src/params/kind';
@@ -14,6 +15,11 @@ const MATCHERS: Record<string, { match: (param: string) => boolean; yes: string[
 			match: accession,
 			yes: ['HL000123', 'HL999999', 'HL1000000'],
 			no: ['HL12', 'hl000123', 'HL0000123', 'HL0100000', 'HL00012A', ' HL000123', '']
+		},
+		attachmentVariant: {
+			match: attachmentVariant,
+			yes: ['original', 'preview', 'thumbnail'],
+			no: ['Original', 'thumb', 'data', '../original', '']
 		},
 		citeFormat: {
 			match: citeFormat,

@@ -172,7 +172,44 @@ const configSchema = z.object({
 	 */
 	EXPORT_MAX_ROWS: z.coerce.number().int().min(1).max(10_000_000).default(200_000),
 	EXPORT_CONCURRENCY: z.coerce.number().int().min(1).max(64).default(2),
-	EXPORT_TIME_LIMIT_SECONDS: z.coerce.number().int().min(1).max(3600).default(120)
+	EXPORT_TIME_LIMIT_SECONDS: z.coerce.number().int().min(1).max(3600).default(120),
+	/**
+	 * Attachments (spectrum images, spectrum data, structure files; src/lib/server/attachments):
+	 * the largest file, bytes (default 10 MB), refused from the declared length before the body
+	 * is read and again while it streams in; the most pixels an image may declare in its header
+	 * (default 40 MP; decoding is never tried above it); how long one thumbnail + preview may
+	 * take in its worker thread, milliseconds, before the worker is ended and the upload refused.
+	 */
+	ATTACHMENT_MAX_BYTES: z.coerce
+		.number()
+		.int()
+		.min(1024)
+		.max(1024 * 1024 * 1024)
+		.default(10 * 1024 * 1024),
+	ATTACHMENT_MAX_PIXELS: z.coerce.number().int().min(1).max(500_000_000).default(40_000_000),
+	ATTACHMENT_DECODE_TIME_LIMIT_MS: z.coerce.number().int().min(100).max(600_000).default(15_000),
+	/**
+	 * Where attachment files live. Unset S3_BUCKET: on the local disk, in ATTACHMENT_DIR (default:
+	 * an `attachments` folder beside the database file). With S3_BUCKET: in that bucket of an
+	 * S3-compatible object store (S3_ENDPOINT for a store other than AWS, e.g.
+	 * https://s3.example.org; S3_FORCE_PATH_STYLE for stores that do not serve buckets as
+	 * sub-domains), signed with S3_ACCESS_KEY_ID/S3_SECRET_ACCESS_KEY when given, otherwise with
+	 * the AWS SDK's usual credential chain. S3_PREFIX is put before every object key.
+	 */
+	ATTACHMENT_DIR: z.string().min(1).optional(),
+	S3_BUCKET: z.string().min(3).max(63).optional(),
+	S3_ENDPOINT: z.string().url().optional(),
+	S3_REGION: z.string().min(1).default('us-east-1'),
+	S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+	S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+	S3_FORCE_PATH_STYLE: z
+		.enum(['true', 'false', '1', '0', ''])
+		.default('false')
+		.transform((v) => v === 'true' || v === '1'),
+	S3_PREFIX: z
+		.string()
+		.regex(/^[A-Za-z0-9._/-]*$/, 'S3_PREFIX may hold letters, digits, . _ / - only')
+		.default('attachments/')
 });
 
 export type Config = z.infer<typeof configSchema>;
@@ -182,6 +219,14 @@ export function parseConfig(env: Record<string, string | undefined>): Config {
 		.refine((c) => !c.OIDC_ISSUER || (c.OIDC_CLIENT_ID && c.OIDC_CLIENT_SECRET), {
 			path: ['OIDC_CLIENT_ID'],
 			message: 'OIDC_ISSUER needs OIDC_CLIENT_ID and OIDC_CLIENT_SECRET'
+		})
+		.refine((c) => !c.S3_ACCESS_KEY_ID === !c.S3_SECRET_ACCESS_KEY, {
+			path: ['S3_SECRET_ACCESS_KEY'],
+			message: 'S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY go together'
+		})
+		.refine((c) => c.S3_BUCKET || (!c.S3_ENDPOINT && !c.S3_ACCESS_KEY_ID), {
+			path: ['S3_BUCKET'],
+			message: 'S3_ENDPOINT or S3 credentials are set without S3_BUCKET'
 		})
 		.safeParse(env);
 	if (!parsed.success) {

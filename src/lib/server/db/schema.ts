@@ -31,7 +31,9 @@ export interface Database extends KindTables {
 	submission: SubmissionTable;
 	review: ReviewTable;
 	submission_comment: SubmissionCommentTable;
+	attachment_blob: AttachmentBlobTable;
 	attachment: AttachmentTable;
+	entry_version_attachment: EntryVersionAttachmentTable;
 	calculation: CalculationTable;
 	calculation_input: CalculationInputTable;
 	release: ReleaseTable;
@@ -52,6 +54,7 @@ import type { Visibility } from '$lib/schemas/vocabulary';
 import type { ApiTokenScope } from '$lib/schemas/apiTokenScopes';
 import type { EntryKind } from '$lib/kinds';
 import type { JsonColumn } from './json';
+import type { AttachmentKind } from '$lib/schemas/attachment';
 
 export type { Visibility } from '$lib/schemas/vocabulary';
 export type { EntryKind } from '$lib/kinds';
@@ -225,20 +228,38 @@ export interface SubmissionCommentTable {
 	created_at: Generated<string>;
 }
 
-export interface AttachmentTable {
-	id: Generated<number>;
-	entry_id: number;
-	entry_version_id: number | null;
-	kind: 'epr_spectrum' | 'voltammogram' | 'titration_plot' | 'optical_spectrum' | 'other';
-	caption: string;
+/** A stored file, keyed by the SHA-256 of its bytes (migration 0013; src/lib/server/attachments). */
+export interface AttachmentBlobTable {
 	sha256: string;
 	media_type: string;
 	byte_size: number;
-	width: number;
-	height: number;
+	width: number | null;
+	height: number | null;
+	created_at: Generated<string>;
+}
+
+/** One attached file as described by its contributor; never changed once written (migration 0013). */
+export interface AttachmentTable {
+	id: Generated<number>;
+	entry_id: number;
+	kind: AttachmentKind;
+	role: 'image' | 'data' | 'structure';
+	/** JSON of the acquisition conditions (src/lib/schemas/attachment.ts). */
+	conditions: JsonColumn<Record<string, unknown>>;
+	caption: string;
+	file_name: string;
+	original_sha256: string;
+	preview_sha256: string | null;
 	thumb_sha256: string | null;
 	uploaded_by: string | null;
 	created_at: Generated<string>;
+}
+
+/** The attachments a version lists, in order; frozen with the version at approval. */
+export interface EntryVersionAttachmentTable {
+	entry_version_id: number;
+	attachment_id: number;
+	position: number;
 }
 
 export interface CalculationTable {

@@ -1,0 +1,120 @@
+import { z } from 'zod';
+import { REFERENCE_ELECTRODES } from '$lib/science/referenceElectrodes';
+import { temperatureKField } from './fields';
+
+/*
+ * An attachment as a contributor describes it: what it shows, a caption, and the acquisition
+ * conditions that matter for its type. One schema for the form, the API's multipart upload and
+ * the stored `attachment.conditions` JSON.
+ */
+
+export const ATTACHMENT_KINDS = [
+	'epr_spectrum',
+	'optical_spectrum',
+	'mcd_spectrum',
+	'voltammogram',
+	'redox_titration',
+	'mossbauer_spectrum',
+	'structure',
+	'other'
+] as const;
+export type AttachmentKind = (typeof ATTACHMENT_KINDS)[number];
+
+export const ATTACHMENT_KIND_LABELS: Record<AttachmentKind, string> = {
+	epr_spectrum: 'EPR spectrum',
+	optical_spectrum: 'Optical spectrum',
+	mcd_spectrum: 'MCD spectrum',
+	voltammogram: 'Voltammogram',
+	redox_titration: 'Redox titration plot',
+	mossbauer_spectrum: 'Mössbauer spectrum',
+	structure: 'Structure file',
+	other: 'Other'
+};
+
+/** Which file an attachment is: an image shown with renditions, numbers to plot, a structure. */
+export const ATTACHMENT_ROLES = ['image', 'data', 'structure'] as const;
+export type AttachmentRole = (typeof ATTACHMENT_ROLES)[number];
+
+export const attachmentConditionsSchema = z
+	.object({
+		temperatureK: temperatureKField.nullable().default(null),
+		/** EPR: microwave frequency, GHz (X band ≈ 9.4, Q band ≈ 34). */
+		microwaveFrequencyGHz: z
+			.number()
+			.min(0.1, 'microwave frequency must be at least 0.1 GHz')
+			.max(1000, 'microwave frequency must be at most 1000 GHz')
+			.nullable()
+			.default(null),
+		/** EPR: microwave power, mW. */
+		microwavePowerMw: z
+			.number()
+			.min(0, 'microwave power cannot be negative')
+			.max(10_000, 'microwave power must be at most 10 000 mW')
+			.nullable()
+			.default(null),
+		/** EPR: field modulation amplitude, mT. */
+		modulationAmplitudeMt: z
+			.number()
+			.min(0, 'modulation amplitude cannot be negative')
+			.max(100, 'modulation amplitude must be at most 100 mT')
+			.nullable()
+			.default(null),
+		/** Voltammetry: scan rate, mV/s. */
+		scanRateMvPerS: z
+			.number()
+			.gt(0, 'scan rate must be positive')
+			.max(1e7, 'scan rate must be at most 10 000 000 mV/s')
+			.nullable()
+			.default(null),
+		/** Voltammetry: the reference electrode the potential axis was recorded against. */
+		referenceElectrode: z.enum(REFERENCE_ELECTRODES).nullable().default(null)
+	})
+	.strict();
+export type AttachmentConditions = z.infer<typeof attachmentConditionsSchema>;
+
+export const attachmentMetaSchema = z
+	.object({
+		kind: z.enum(ATTACHMENT_KINDS, { message: 'choose what the file shows' }),
+		caption: z
+			.string()
+			.trim()
+			.min(1, 'write a caption')
+			.max(1000, 'a caption is at most 1000 characters'),
+		conditions: attachmentConditionsSchema.default(attachmentConditionsSchema.parse({}))
+	})
+	.superRefine((meta, ctx) => {
+		const c = meta.conditions;
+		const epr = [c.microwaveFrequencyGHz, c.microwavePowerMw, c.modulationAmplitudeMt];
+		if (meta.kind !== 'epr_spectrum' && epr.some((v) => v !== null))
+			ctx.addIssue({
+				code: 'custom',
+				path: ['conditions'],
+				message: 'microwave frequency, power and modulation apply to EPR spectra only'
+			});
+		if (
+			meta.kind !== 'voltammogram' &&
+			(c.scanRateMvPerS !== null || c.referenceElectrode !== null)
+		)
+			ctx.addIssue({
+				code: 'custom',
+				path: ['conditions'],
+				message: 'scan rate and reference electrode apply to voltammograms only'
+			});
+	});
+export type AttachmentMeta = z.infer<typeof attachmentMetaSchema>;
+/** What a form or the API sends: conditions left out are null. */
+export type AttachmentMetaInput = z.input<typeof attachmentMetaSchema>;
+
+/**
+ * A file name for Content-Disposition and lists: the last path segment, control characters and
+ * quotes removed, at most 120 characters; never empty.
+ */
+export function cleanFileName(name: string): string {
+	const last = name.split(/[\\/]/).pop() ?? '';
+	const clean = last
+		// eslint-disable-next-line no-control-regex -- control characters are what is removed
+		.replace(/[\u0000-\u001f\u007f"]/g, '')
+		.trim()
+		.slice(0, 120);
+	return clean === '' || clean === '.' || clean === '..' ? 'attachment' : clean;
+}

@@ -1,0 +1,63 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { imageSize } from 'image-size';
+import { AttachmentRejectedError } from '$lib/server/attachments/errors';
+import { closeImagePool, createImagePool, renderImage } from '$lib/server/attachments/imaging';
+import { jpegWithGps, pngOf, exifGpsSegment } from '../support/hostileFiles';
+
+// Real worker threads on the real worker module (through tsx, as in `vite dev`). Oracles: the
+// sizes from image-size read back from the renditions; the EXIF bytes we put in, searched for.
+
+const pools = [createImagePool(30_000)];
+afterAll(async () => {
+	await Promise.all(pools.map((p) => p.close()));
+	await closeImagePool();
+});
+
+function contains(haystack: Uint8Array, needle: Uint8Array): boolean {
+	return Buffer.from(haystack).indexOf(Buffer.from(needle)) !== -1;
+}
+
+describe('renditions in a worker thread', () => {
+	it('a 2000 × 1000 PNG: preview 1280 × 640, thumbnail 320 × 160, both PNG', async () => {
+		const r = await renderImage(await pngOf(2000, 1000), false, pools[0]);
+		expect([r.preview.width, r.preview.height, r.preview.mime]).toEqual([1280, 640, 'image/png']);
+		expect([r.thumbnail.width, r.thumbnail.height]).toEqual([320, 160]);
+		const read = imageSize(r.preview.bytes);
+		expect([read.type, read.width, read.height]).toEqual(['png', 1280, 640]);
+	});
+
+	it('a small image is re-encoded at its own size, never enlarged', async () => {
+		const r = await renderImage(await pngOf(100, 50), false, pools[0]);
+		expect([r.preview.width, r.thumbnail.width]).toEqual([100, 100]);
+	});
+
+	it('a JPEG with EXIF GPS: JPEG renditions without any EXIF', async () => {
+		const original = await jpegWithGps(1600, 1200);
+		const gps = exifGpsSegment().subarray(4); // "Exif\0\0" + the TIFF block
+		expect(contains(original, gps)).toBe(true);
+		const r = await renderImage(original, true, pools[0]);
+		expect(r.preview.mime).toBe('image/jpeg');
+		expect([r.preview.width, r.preview.height]).toEqual([1280, 960]);
+		for (const out of [r.preview.bytes, r.thumbnail.bytes]) {
+			expect(contains(out, new TextEncoder().encode('Exif'))).toBe(false);
+			expect(contains(out, new Uint8Array([0xff, 0xe1]))).toBe(false); // no APP1 segment
+		}
+	});
+
+	it('an image the decoder cannot read: 422', async () => {
+		const png = Buffer.from(await pngOf(64, 64));
+		png.fill(0x41, 60, png.length - 20); // the IDAT data turned to garbage
+		const e = await renderImage(new Uint8Array(png), false, pools[0]).catch((x: unknown) => x);
+		expect(e).toBeInstanceOf(AttachmentRejectedError);
+		expect(e).toMatchObject({ status: 422, code: 'decode_failed' });
+	});
+
+	it('a decode past the time-out: the worker is ended and the upload refused with 422', async () => {
+		const quick = createImagePool(150);
+		pools.push(quick);
+		const big = await pngOf(4000, 3000);
+		const e = await renderImage(big, false, quick).catch((x: unknown) => x);
+		expect(e).toMatchObject({ status: 422, code: 'decode_time_limit' });
+		expect((e as Error).message).toMatch(/could not be decoded within/);
+	});
+});

@@ -1,0 +1,15 @@
+/* The part of s3rver (the fake S3 server the attachment tests start; it ships no types) they use. */
+declare module 's3rver' {
+	interface S3rverOptions {
+		address?: string;
+		port?: number;
+		silent?: boolean;
+		directory: string;
+		configureBuckets?: { name: string }[];
+	}
+	export default class S3rver {
+		constructor(options: S3rverOptions);
+		run(): Promise<{ address: string; port: number }>;
+		close(): Promise<void>;
+	}
+}
