@@ -14,3 +14,4 @@ export * from './titrationFit';
 export * from './symmetricEigen';
 export * from './tunnelling';
 export * from './structure';
+export * from './spectra';
