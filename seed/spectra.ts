@@ -69,10 +69,9 @@ export function eprPowderDerivative(options: EprPowderOptions): [number, number]
 	if (!(width > 0) || !Number.isInteger(n) || n < 16 || !Number.isInteger(steps) || steps < 4) {
 		throw new RangeError('linewidthMt must be > 0, points ≥ 16 and orientationSteps ≥ 4');
 	}
-	const [g1, g2, g3] =
-		options.g.length === 1 ? [options.g[0], options.g[0], options.g[0]] : options.g;
+	const [g1, g2, g3] = (options.g.length === 1 ? [0, 0, 0] : [0, 1, 2]).map((i) => options.g[i]!);
 	const sigma = width / 2;
-	const fields = [g1, g2, g3].map((g) => resonanceFieldMt(g, frequencyGHz));
+	const fields = [g1!, g2!, g3!].map((g) => resonanceFieldMt(g, frequencyGHz));
 	const lo = Math.min(...fields) - 8 * width;
 	const hi = Math.max(...fields) + 8 * width;
 	const step = (hi - lo) / (n - 1);
@@ -83,9 +82,9 @@ export function eprPowderDerivative(options: EprPowderOptions): [number, number]
 		for (let j = 0; j < steps; j++) {
 			const phi = ((j + 0.5) / steps) * (Math.PI / 2);
 			const gEff = Math.sqrt(
-				g1 * g1 * sin2T * Math.cos(phi) ** 2 +
-					g2 * g2 * sin2T * Math.sin(phi) ** 2 +
-					g3 * g3 * cosT * cosT
+				g1! ** 2 * sin2T * Math.cos(phi) ** 2 +
+					g2! ** 2 * sin2T * Math.sin(phi) ** 2 +
+					g3! ** 2 * cosT * cosT
 			);
 			const b0 = resonanceFieldMt(gEff, frequencyGHz);
 			const weight = 1 / gEff;
@@ -94,7 +93,7 @@ export function eprPowderDerivative(options: EprPowderOptions): [number, number]
 			const last = Math.min(n - 1, Math.floor((b0 + 6 * sigma - lo) / step));
 			for (let k = first; k <= last; k++) {
 				const d = lo + k * step - b0;
-				y[k] += weight * (-d / (sigma * sigma)) * Math.exp((-d * d) / (2 * sigma * sigma));
+				y[k]! += weight * (-d / (sigma * sigma)) * Math.exp((-d * d) / (2 * sigma * sigma));
 			}
 		}
 	}

@@ -147,10 +147,10 @@ export async function renderSpectrumPng(
 	line(left, top, left, bottom, INK, 2);
 	line(right, top, right, bottom, INK, 2);
 
-	for (let k = 1; k < spectrum.points.length; k++) {
-		const [a, b] = [spectrum.points[k - 1], spectrum.points[k]];
-		line(px(a[0]), py(a[1]), px(b[0]), py(b[1]), TRACE, 2);
-	}
+	spectrum.points.forEach(([x, y], k) => {
+		const previous = spectrum.points[k - 1];
+		if (previous) line(px(previous[0]), py(previous[1]), px(x), py(y), TRACE, 2);
+	});
 
 	text(spectrum.xHeader, (left + right) / 2, height - 30, 'centre');
 	// The y title sits above the axis (jimp's print does not rotate text).

@@ -20,7 +20,8 @@ import {
 function zeroCrossings(points: [number, number][], from: '+' | '-' | 'any' = 'any'): number[] {
 	const out: number[] = [];
 	for (let k = 1; k < points.length; k++) {
-		const [[x0, y0], [x1, y1]] = [points[k - 1], points[k]];
+		const [x0, y0] = points[k - 1]!;
+		const [x1, y1] = points[k]!;
 		const down = y0 > 0 && y1 <= 0;
 		const up = y0 < 0 && y1 >= 0;
 		if ((from === '+' && down) || (from === '-' && up) || (from === 'any' && (down || up)))
@@ -41,7 +42,11 @@ describe('EPR powder derivative of a rhombic S = 1/2 centre', () => {
 	const g = [2.05, 1.93, 1.89];
 	const width = 1.5;
 	const spectrum = eprPowderDerivative({ g, frequencyGHz: 9.5, linewidthMt: width });
-	const [b1, b2, b3] = g.map((v) => resonanceFieldMt(v, 9.5));
+	const [b1, b2, b3] = [2.05, 1.93, 1.89].map((v) => resonanceFieldMt(v, 9.5)) as [
+		number,
+		number,
+		number
+	];
 
 	// Oracle: the shape of a rhombic powder derivative (Weil & Bolton 2007, ch. 4; from memory):
 	// a positive peak at g₁ (lowest field), a zero crossing at g₂, a negative peak at g₃.
@@ -135,7 +140,7 @@ describe('the demo spectra', () => {
 	// against (−335 mV vs Ag/AgCl 3 M KCl): put back on the SHE scale through toSHE, its peaks
 	// sit at that potential's SHE value.
 	it('the voltammogram peaks at the demo potential on the SHE axis', () => {
-		const cv = spectra[2];
+		const cv = spectra[2]!;
 		expect(cv.electrode).toBe('AgAgCl_3M');
 		const she = potentialAxisToSheMv(
 			cv.spectrum.points.map(([e]) => e),
@@ -167,7 +172,7 @@ describe('the demo spectra', () => {
 		}
 	});
 	it('render at a requested size', async () => {
-		const png = await renderSpectrumPng(spectra[0].spectrum, { width: 400, height: 300 });
+		const png = await renderSpectrumPng(spectra[0]!.spectrum, { width: 400, height: 300 });
 		const image = await Jimp.read(png);
 		expect([image.width, image.height]).toEqual([400, 300]);
 	});

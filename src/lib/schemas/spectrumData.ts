@@ -74,26 +74,27 @@ export function readColumnHeader(cell: string): SpectrumColumn {
 		.trim()
 		.replace(/^"(.*)"$/, '$1')
 		.trim();
-	const bracketed = /^(.*?)\s*[([]\s*([^()[\]]*?)\s*[)\]]$/.exec(text);
-	if (bracketed && bracketed[1] !== '') return { name: bracketed[1], unit: bracketed[2] || null };
-	const slashed = /^(.+?)\s+\/\s+(\S.*)$/.exec(text);
-	if (slashed) return { name: slashed[1], unit: slashed[2] };
+	const [, name, unit] = /^(.*?)\s*[([]\s*([^()[\]]*?)\s*[)\]]$/.exec(text) ?? [];
+	if (name) return { name, unit: unit || null };
+	const [, slashName, slashUnit] = /^(.+?)\s+\/\s+(\S.*)$/.exec(text) ?? [];
+	if (slashName && slashUnit) return { name: slashName, unit: slashUnit };
 	return { name: text, unit: null };
 }
 
 /** The header line split into its two cells, or null when it cannot be split into two. */
 function headerCells(line: string, text: string): [string, string] | null {
 	const separator = separatorOf(text);
-	if (separator !== ' ') {
-		// Quotes are allowed around a cell; a separator inside quotes is rare in a header.
-		const cells = line.split(separator);
-		return cells.length === 2 ? [cells[0], cells[1]] : null;
-	}
+	const pair = (cells: readonly (string | undefined)[]): [string, string] | null => {
+		const [a, b] = cells;
+		return cells.length === 2 && a !== undefined && b !== undefined ? [a, b] : null;
+	};
+	// Quotes are allowed around a cell; a separator inside quotes is rare in a header.
+	if (separator !== ' ') return pair(line.split(separator));
 	const words = line.trim().split(/\s+/);
-	if (words.length === 2) return [words[0], words[1]];
+	if (words.length === 2) return pair(words);
 	// "Field (mT) Intensity (a.u.)": the first cell ends at its unit's closing bracket.
 	const split = /^(.*?[)\]])\s+(\S.*)$/.exec(line.trim());
-	return split ? [split[1], split[2]] : null;
+	return split ? pair(split.slice(1)) : null;
 }
 
 const UNIT_EXAMPLE: Record<Exclude<SpectrumAxis, 'any'>, string> = {
@@ -145,7 +146,7 @@ export function readSpectrumData(
 	let x: SpectrumColumn = { name: 'x', unit: null };
 	let y: SpectrumColumn = { name: 'y', unit: null };
 	if (skippedAsHeader) {
-		const cells = headerCells(lines[firstIndex], text);
+		const cells = headerCells(lines[firstIndex] ?? '', text);
 		if (cells === null) {
 			problems.push(
 				`row ${firstLine}: the header does not name two columns; expected e.g. “Field (mT), Intensity (a.u.)”`
@@ -186,7 +187,7 @@ export function readSpectrumData(
 	}
 	if (
 		parsed.rows.length >= SPECTRUM_MIN_POINTS &&
-		parsed.rows.every(([px]) => px === parsed.rows[0][0])
+		parsed.rows.every(([px]) => px === parsed.rows[0]?.[0])
 	) {
 		problems.push('every x value is the same; expected x to change from row to row');
 	}
