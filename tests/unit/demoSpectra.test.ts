@@ -184,3 +184,18 @@ describe('PNG helpers', () => {
 	it('ASCII labels for the bitmap font', () =>
 		expect(asciiLabel('dχ″/dB −1')).toBe("dchi''/dB -1"));
 });
+
+describe('the demo spectrum files', () => {
+	it('pair each PNG with its data file and conditions', async () => {
+		const { demoSpectrumFiles } = await import('../../seed/spectraFiles');
+		const files = await demoSpectrumFiles();
+		expect(files.map((f) => [f.png.fileName, f.data.fileName])).toEqual([
+			['epr-rox-c1.png', 'epr-rox-c1.csv'],
+			['epr-rox-c2.png', 'epr-rox-c2.csv'],
+			['cv-tcd-h1.png', 'cv-tcd-h1.csv']
+		]);
+		expect(files[0]?.frequencyGHz).toBe(9.4);
+		expect(files[2]?.electrode).toBe('AgAgCl_3M');
+		expect(files.every((f) => f.caption.includes('demo data'))).toBe(true);
+	});
+});
