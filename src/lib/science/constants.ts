@@ -29,3 +29,8 @@ export const ATOMIC_MASS_KG = 1.6605390666e-27;
 export const STANDARD_TEMPERATURE_K = 298.15;
 /** 0 °C in kelvin (exact by definition of the Celsius scale). */
 export const ZERO_CELSIUS_K = 273.15;
+/**
+ * Bohr magneton μ_B = eħ / 2mₑ, J/T (CODATA 2018: 9.274 010 0783(28) × 10⁻²⁴ J T⁻¹; Tiesinga et
+ * al. 2021, as above). Not exact: it carries the electron mass, so it is written as measured.
+ */
+export const BOHR_MAGNETON_J_PER_T = 9.2740100783e-24;

@@ -15,3 +15,4 @@ export * from './symmetricEigen';
 export * from './tunnelling';
 export * from './structure';
 export * from './structureMatch';
+export * from './spectra';

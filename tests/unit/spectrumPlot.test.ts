@@ -1,0 +1,111 @@
+import { describe, expect, it } from 'vitest';
+import {
+	gTicks,
+	prepareSpectrum,
+	spectrumCsvText,
+	thinnedIndices
+} from '$lib/components/spectrumPlot';
+import type { SpectrumData } from '$lib/schemas/spectrumData';
+import { resonanceFieldMt } from '$lib/science';
+
+const epr: SpectrumData = {
+	x: { name: 'Field', unit: 'G' },
+	y: { name: 'Signal', unit: 'a.u.' },
+	points: [
+		[3300, 0.1],
+		[3390, 0],
+		[3480, -0.1]
+	]
+};
+const cv: SpectrumData = {
+	x: { name: 'E', unit: 'V' },
+	y: { name: 'i', unit: 'nA' },
+	points: [
+		[-0.6, 1],
+		[-0.4, 2],
+		[-0.6, -1]
+	]
+};
+
+describe('preparing a spectrum for the plot', () => {
+	it('an EPR field in gauss is plotted in mT with a g axis at the given frequency', () => {
+		const p = prepareSpectrum(epr, { kind: 'epr', frequencyGHz: 9.5 });
+		expect(p.xs).toEqual([330, 339, 348]);
+		expect(p.xLabel).toBe('Field (mT)');
+		expect(p.gAxisGHz).toBe(9.5);
+		expect(p.note).toMatch(/CODATA 2018/);
+	});
+	it('no g axis without a frequency, and it says why', () => {
+		const p = prepareSpectrum(epr, { kind: 'epr' });
+		expect(p.gAxisGHz).toBeNull();
+		expect(p.note).toBe('no g axis: the microwave frequency is not given');
+	});
+	it('no g axis when the field reaches zero', () =>
+		expect(
+			prepareSpectrum(
+				{ ...epr, points: [[0, 1], ...epr.points] },
+				{ kind: 'epr', frequencyGHz: 9.5 }
+			).gAxisGHz
+		).toBeNull());
+	// Offsets: referenceElectrodes.ts (Ag/AgCl sat. KCl +197 mV; Bard & Faulkner Table C.2).
+	it('a voltammogram in V vs Ag/AgCl is plotted in mV vs SHE', () => {
+		const p = prepareSpectrum(cv, { kind: 'voltammogram', electrode: 'AgAgCl_sat' });
+		expect(p.xs).toEqual([-403, -203, -403]);
+		expect(p.xLabel).toBe('E (mV vs SHE)');
+		expect(p.note).toBe('converted from V vs Ag/AgCl (saturated KCl): +197.0 mV');
+	});
+	it('a voltammogram outside its electrode’s temperature range stays as recorded, with the reason', () => {
+		const p = prepareSpectrum(cv, {
+			kind: 'voltammogram',
+			electrode: 'AgAgCl_sat',
+			temperatureK: 338.15
+		});
+		expect(p.xs).toEqual([-0.6, -0.4, -0.6]);
+		expect(p.note).toMatch(/holds for 15–35 °C/);
+	});
+	it('a voltammogram without an electrode stays as recorded', () =>
+		expect(prepareSpectrum(cv, { kind: 'voltammogram' }).note).toMatch(
+			/reference electrode is not given/
+		));
+});
+
+describe('g ticks', () => {
+	it('sit at the resonance field of their g', () => {
+		const ticks = gTicks(320, 360, 9.4);
+		expect(ticks.length).toBeGreaterThan(2);
+		for (const t of ticks) expect(t.fieldMt).toBeCloseTo(resonanceFieldMt(t.g, 9.4), 10);
+		for (const t of ticks) expect(t.fieldMt >= 320 && t.fieldMt <= 360).toBe(true);
+	});
+	it('none for a range that is not above zero', () => expect(gTicks(0, 10, 9.4)).toEqual([]));
+});
+
+describe('thinning a long sweep', () => {
+	it('keeps every point within the budget', () =>
+		expect(thinnedIndices([1, 2, 3], 10)).toEqual([0, 1, 2]));
+	it('keeps a narrow peak and the ends of a long sweep', () => {
+		const ys = Array.from({ length: 20_000 }, (_, i) => (i === 12_345 ? 100 : i === 777 ? -50 : 0));
+		const kept = thinnedIndices(ys, 2000);
+		expect(kept.length).toBeLessThanOrEqual(2000 + 1);
+		expect(kept).toContain(12_345);
+		expect(kept).toContain(777);
+		expect(kept[0]).toBe(0);
+		expect(kept.at(-1)).toBe(19_999);
+		expect([...kept].sort((a, b) => a - b)).toEqual(kept);
+	});
+});
+
+describe('the CSV download', () => {
+	it('has the file’s columns and the converted axis', () => {
+		const p = prepareSpectrum(cv, { kind: 'voltammogram', electrode: 'AgAgCl_sat' });
+		expect(spectrumCsvText(cv, p).split('\n').slice(0, 2)).toEqual([
+			'"E (V)","i (nA)","E (mV vs SHE)"',
+			'-0.6,1,-403'
+		]);
+	});
+	it('keeps a header from becoming a spreadsheet formula', () => {
+		const data: SpectrumData = { ...cv, x: { name: '=HYPERLINK("x")', unit: null } };
+		expect(spectrumCsvText(data, prepareSpectrum(data, { kind: 'other' })).split('\n')[0]).toBe(
+			'"\'=HYPERLINK(""x"")","i (nA)"'
+		);
+	});
+});
