@@ -48,7 +48,8 @@ export function checkCaller(caller: Caller): void {
 const INPUT_FIELD: Record<CalcKind, string> = {
 	titration: 'points',
 	tunnelling: 'potential',
-	chain: 'input'
+	chain: 'input',
+	structure: 'file'
 };
 
 /**

@@ -8,6 +8,8 @@ import type { ChainEstimate } from '$lib/catalogue/chainEstimate';
 import type { TunnellingRequest } from '$lib/schemas/calc';
 import { estimateChain, type LadderChainInput } from './chainEstimate';
 import { runTunnelling, type TunnellingResult } from './tunnelling';
+import { readGroups, type StructureCentre, type StructureReading } from '../structures/readGroups';
+import { StructureFileError } from '../structures/readStructureFile';
 
 /*
  * The calculations that run in worker threads: each a message that survives structured cloning
@@ -16,13 +18,16 @@ import { runTunnelling, type TunnellingResult } from './tunnelling';
 export type CalcJob =
 	| { kind: 'titration'; points: TitrationPoint[]; options: FitOptions }
 	| { kind: 'tunnelling'; request: TunnellingRequest }
-	| { kind: 'chain'; input: LadderChainInput };
+	| { kind: 'chain'; input: LadderChainInput }
+	| { kind: 'structure'; text: string; centres: StructureCentre[] };
 
 /** The result of each kind of job. */
 export interface CalcResults {
 	titration: TitrationResult;
 	tunnelling: TunnellingResult;
 	chain: ChainEstimate;
+	/** A file the parser refuses is an answer, not a failure of the worker. */
+	structure: { ok: true; reading: StructureReading } | { ok: false; message: string };
 }
 
 export type CalcKind = CalcJob['kind'];
@@ -35,5 +40,12 @@ export function runCalcJob(job: CalcJob): CalcResults[CalcKind] {
 			return runTunnelling(job.request);
 		case 'chain':
 			return estimateChain(job.input);
+		case 'structure':
+			try {
+				return { ok: true, reading: readGroups(job.text, job.centres) };
+			} catch (e) {
+				if (e instanceof StructureFileError) return { ok: false, message: e.message };
+				throw e;
+			}
 	}
 }

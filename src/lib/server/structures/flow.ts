@@ -6,16 +6,16 @@ import { structurePlanSchema, type StructurePlanForm } from '$lib/schemas/struct
 import type { SessionUser } from '../auth/roles';
 import { config } from '../config';
 import type { Database } from '../db/schema';
-import { readStructureFile } from './readStructureFile';
+import { readStructureFile, StructureFileError } from './readStructureFile';
 import { loadStructureBytes, saveStructureBytes } from './store';
 import {
 	loadProteinForStructure,
 	planDistances,
-	readGroups,
 	type DistancePlan,
-	type ProteinForStructure,
-	type StructureReading
+	type ProteinForStructure
 } from './structureDistances';
+import type { StructureReading } from './readGroups';
+import { calculate } from '../calc/compute';
 
 /*
  * The three steps of distances from a structure, as services the route calls: read the upload
@@ -38,6 +38,19 @@ export async function proteinOr404(
 	return protein;
 }
 
+/**
+ * The groups and proposed match, read in the calculation worker pool (its time and memory
+ * limits apply): parsing a large file must not hold up other requests.
+ */
+async function readGroupsOffThread(
+	text: string,
+	protein: ProteinForStructure
+): Promise<StructureReading> {
+	const answer = await calculate({ kind: 'structure', text, centres: protein.centres }, null);
+	if (!answer.ok) throw new StructureFileError(answer.message);
+	return answer.reading;
+}
+
 export interface ReadResult {
 	sha256: string;
 	filename: string;
@@ -52,7 +65,7 @@ export async function readUpload(
 	filename: string
 ): Promise<ReadResult> {
 	const file = await readStructureFile(bytes, structureLimits());
-	const reading = readGroups(file.text, protein);
+	const reading = await readGroupsOffThread(file.text, protein);
 	await saveStructureBytes(file.sha256, bytes);
 	return {
 		sha256: file.sha256,
@@ -99,7 +112,7 @@ export async function planFromForm(
 			errors: { file: ['the structure file is no longer stored: upload it again'] }
 		};
 	const file = await readStructureFile(bytes, structureLimits());
-	const reading = readGroups(file.text, protein);
+	const reading = await readGroupsOffThread(file.text, protein);
 	const visible = new Set(protein.centres.map((c) => c.accession));
 	const errors: FieldErrors = {};
 	const used = new Map<string, number>();

@@ -1,21 +1,13 @@
 import type { Kysely } from 'kysely';
 import Papa from 'papaparse';
-import {
-	cofactorGroups,
-	ligandResidues,
-	pairsWithinCutoff,
-	parseStructure,
-	proposeMatches,
-	type CofactorGroup,
-	type GroupMatch
-} from '$lib/science';
+import { pairsWithinCutoff } from '$lib/science';
 import type { CofactorKind, DistanceMethod } from '$lib/schemas/vocabulary';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { uploadCsvLimits } from '../uploads/readCsv';
 import { checkUpload, type UploadCheck } from '../uploads/checkUpload';
-import { StructureFileError } from './readStructureFile';
+import type { StructureReading } from './readGroups';
 
 /*
  * Distances proposed from an uploaded structure: its cofactor groups, the match of groups to the
@@ -24,7 +16,6 @@ import { StructureFileError } from './readStructureFile';
  * conflicts with approved distances are found by the same rules as for a CSV file, and the
  * commit is the same all-or-nothing submission.
  */
-export const MAX_GROUPS = 500;
 
 export interface ProteinForStructure {
 	accession: string;
@@ -124,63 +115,6 @@ export async function loadProteinForStructure(
 			residues: readJson(c.residues)
 		}))
 	};
-}
-
-export interface GroupRow {
-	index: number;
-	label: string;
-	resName: string;
-	chainId: string;
-	resSeq: number;
-	insertionCode: string;
-	atomCount: number;
-	/** Ligand residues, e.g. "S17". */
-	ligands: string[];
-}
-
-export interface StructureReading {
-	groups: CofactorGroup[];
-	rows: GroupRow[];
-	proposals: GroupMatch[];
-}
-
-/** Parses the text and proposes a match; a malformed file is a 400 with the parser's reason. */
-export function readGroups(text: string, protein: ProteinForStructure): StructureReading {
-	let groups: CofactorGroup[];
-	let atoms;
-	try {
-		atoms = parseStructure(text);
-		groups = cofactorGroups(atoms);
-	} catch (e) {
-		if (e instanceof RangeError || e instanceof TypeError)
-			throw new StructureFileError(`the structure file could not be read: ${e.message}`);
-		throw e;
-	}
-	if (groups.length === 0)
-		throw new StructureFileError(
-			'no cofactor groups (iron–sulfur clusters, hemes, flavins, quinones, metals) in this file'
-		);
-	if (groups.length > MAX_GROUPS)
-		throw new StructureFileError(
-			`the file has ${groups.length} cofactor groups; at most ${MAX_GROUPS} are read at once`
-		);
-	const ligands = groups.map((g) => ligandResidues(g, atoms));
-	const proposals = proposeMatches(
-		groups,
-		ligands,
-		protein.centres.map((c) => ({ ...c, id: c.accession }))
-	);
-	const rows = groups.map((g, index) => ({
-		index,
-		label: g.label,
-		resName: g.resName,
-		chainId: g.chainId,
-		resSeq: g.resSeq,
-		insertionCode: g.insertionCode,
-		atomCount: g.atoms.length,
-		ligands: ligands[index]!.map((l) => `${l.chainId}${l.resSeq}`)
-	}));
-	return { groups, rows, proposals };
 }
 
 export interface ProposedDistance {
