@@ -44,6 +44,7 @@ import { AccessDateError } from '$lib/server/citations/files';
 import { orNotFound, toApiResponse, toFormFailure } from '$lib/server/http/failures';
 import { UploadHasErrorsError } from '$lib/server/uploads/commitUpload';
 import { StructureFileError } from '$lib/server/structures/readStructureFile';
+import { StructureBusyError } from '$lib/server/structures/flow';
 import { z } from 'zod';
 
 /**
@@ -187,6 +188,12 @@ const CASES: Record<string, Case> = {
 		error: new StructureFileError('the structure file is empty'),
 		status: 400,
 		code: 'bad_request'
+	},
+	StructureBusyError: {
+		error: new StructureBusyError(),
+		status: 503,
+		code: 'unavailable',
+		retryAfter: '5'
 	},
 	CsvLimitError: {
 		error: new CsvLimitError('columns', 200, 1, 'Row 1 has more than 200 columns'),

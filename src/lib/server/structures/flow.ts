@@ -38,6 +38,37 @@ export async function proteinOr404(
 	return protein;
 }
 
+/** Another structure file is being read: 503 with Retry-After, nothing read or stored. */
+export class StructureBusyError extends DomainError {
+	declare readonly retryAfterSeconds: number;
+
+	constructor() {
+		super('unavailable', 'Another structure file is being read; try again in a few seconds.', {
+			retryAfterSeconds: 5
+		});
+		this.name = 'StructureBusyError';
+	}
+}
+
+/*
+ * Structure files read at once in this process. Each read holds the stored bytes, their text (up
+ * to STRUCTURE_MAX_TEXT_BYTES) and the copy sent to the worker in memory: one at a time keeps a
+ * crowd of uploads and "Measure" clicks from running the server out of memory; the others are
+ * refused at once with a 503 before anything is read.
+ */
+const READS_AT_ONCE = 1;
+let readsRunning = 0;
+
+async function oneReadAtATime<T>(work: () => Promise<T>): Promise<T> {
+	if (readsRunning >= READS_AT_ONCE) throw new StructureBusyError();
+	readsRunning++;
+	try {
+		return await work();
+	} finally {
+		readsRunning--;
+	}
+}
+
 /**
  * The groups and proposed match, read in the calculation worker pool (its time and memory
  * limits apply): parsing a large file must not hold up other requests.
@@ -64,8 +95,10 @@ export async function readUpload(
 	bytes: Uint8Array,
 	filename: string
 ): Promise<ReadResult> {
-	const file = await readStructureFile(bytes, structureLimits());
-	const reading = await readGroupsOffThread(file.text, protein);
+	const { file, reading } = await oneReadAtATime(async () => {
+		const file = await readStructureFile(bytes, structureLimits());
+		return { file, reading: await readGroupsOffThread(file.text, protein) };
+	});
 	await saveStructureBytes(file.sha256, bytes);
 	return {
 		sha256: file.sha256,
@@ -104,15 +137,18 @@ export async function planFromForm(
 	const parsed = structurePlanSchema.safeParse(values);
 	if (!parsed.success) return { ok: false, status: 400, errors: fieldErrors(parsed.error) };
 	const form = parsed.data;
-	const bytes = await loadStructureBytes(form.sha256);
-	if (!bytes)
+	const reading = await oneReadAtATime(async () => {
+		const bytes = await loadStructureBytes(form.sha256);
+		if (!bytes) return null;
+		const file = await readStructureFile(bytes, structureLimits());
+		return readGroupsOffThread(file.text, protein);
+	});
+	if (!reading)
 		return {
 			ok: false,
 			status: 404,
 			errors: { file: ['the structure file is no longer stored: upload it again'] }
 		};
-	const file = await readStructureFile(bytes, structureLimits());
-	const reading = await readGroupsOffThread(file.text, protein);
 	const visible = new Set(protein.centres.map((c) => c.accession));
 	const errors: FieldErrors = {};
 	const used = new Map<string, number>();

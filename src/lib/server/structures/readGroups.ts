@@ -17,6 +17,13 @@ import type { ProteinForStructure } from './structureDistances';
 
 /** At most this many cofactor groups are read from one file. */
 export const MAX_GROUPS = 500;
+/**
+ * At most this many atoms in one cofactor group. The largest cofactors have about a hundred
+ * atoms with their hydrogens (FAD: 53 heavy atoms; common practice, no source); the
+ * edge-to-edge search compares every atom of one group with every atom of another, so a group
+ * of thousands (a polymer under a cofactor's residue name) would cost the server seconds.
+ */
+export const MAX_GROUP_ATOMS = 300;
 
 export type StructureCentre = ProteinForStructure['centres'][number];
 
@@ -53,6 +60,11 @@ export function readGroups(text: string, centres: StructureCentre[]): StructureR
 	if (groups.length === 0)
 		throw new StructureFileError(
 			'no cofactor groups (iron–sulfur clusters, hemes, flavins, quinones, metals) in this file'
+		);
+	const oversized = groups.find((g) => g.atoms.length > MAX_GROUP_ATOMS);
+	if (oversized)
+		throw new StructureFileError(
+			`the group ${oversized.label} has ${oversized.atoms.length} atoms; a cofactor group may have at most ${MAX_GROUP_ATOMS} (is a polymer written under a cofactor's residue name?)`
 		);
 	if (groups.length > MAX_GROUPS)
 		throw new StructureFileError(

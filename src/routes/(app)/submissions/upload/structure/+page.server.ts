@@ -90,7 +90,12 @@ export const actions: Actions = {
 	plan: async (event) => {
 		const { user, protein: p } = await protein(event);
 		const { values } = await formValues(event);
-		const r = await planFromForm(db, user, p, values, null);
+		let r;
+		try {
+			r = await planFromForm(db, user, p, values, null);
+		} catch (e) {
+			return toFormFailure(e, event, values);
+		}
 		if (!r.ok) return fail(r.status, { values, errors: r.errors, groups: r.groups });
 		return {
 			step: 'pick' as const,
@@ -108,7 +113,12 @@ export const actions: Actions = {
 		const { values, pairs } = await formValues(event);
 		if (pairs.length === 0)
 			return fail(400, { values, errors: { form: ['tick at least one distance to submit'] } });
-		const r = await planFromForm(db, user, p, values, new Set(pairs));
+		let r;
+		try {
+			r = await planFromForm(db, user, p, values, new Set(pairs));
+		} catch (e) {
+			return toFormFailure(e, event, values);
+		}
 		if (!r.ok) return fail(r.status, { values, errors: r.errors, groups: r.groups });
 		const visibility = visibilityFromForm(values);
 		if (!visibility.ok) return fail(400, { values, errors: visibility.fields });
