@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { readGroups } from '$lib/server/structures/readGroups';
-import { StructureFileError } from '$lib/server/structures/readStructureFile';
+import { readStructureText } from '$lib/science';
 
-// A cofactor group may not hold more atoms than any real cofactor (readGroups, MAX_GROUP_ATOMS).
+// A cofactor group may not hold more atoms than any real cofactor (readStructureText, MAX_GROUP_ATOMS).
 // The edge-to-edge search compares every atom of one group with every atom of another on the
 // plan step: two groups of 60 000 atoms, far apart, in a 0.4 MB gzipped file once held the event
 // loop for 46 s. The read step must refuse such a group with a 400 that says why.
@@ -33,11 +32,11 @@ describe('the size of one cofactor group', () => {
 		lines.push(hetatm(5001, 'HEM', 'A', 2, 500));
 		let thrown: unknown = null;
 		try {
-			readGroups(lines.join('\n'), []);
+			readStructureText(lines.join('\n'), []);
 		} catch (e) {
 			thrown = e;
 		}
-		expect(thrown).toBeInstanceOf(StructureFileError);
+		expect(thrown).toBeInstanceOf(RangeError);
 		expect((thrown as Error).message).toMatch(/SF4 A1.*atoms/);
 	});
 });

@@ -16,3 +16,4 @@ export * from './tunnelling';
 export * from './structure';
 export * from './structureMatch';
 export * from './spectra';
+export * from './structureReading';

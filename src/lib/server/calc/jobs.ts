@@ -1,5 +1,8 @@
 import {
 	fitNernst,
+	readStructureText,
+	type StructureCentre,
+	type StructureReading,
 	type FitOptions,
 	type TitrationPoint,
 	type TitrationResult
@@ -8,8 +11,6 @@ import type { ChainEstimate } from '$lib/catalogue/chainEstimate';
 import type { TunnellingRequest } from '$lib/schemas/calc';
 import { estimateChain, type LadderChainInput } from './chainEstimate';
 import { runTunnelling, type TunnellingResult } from './tunnelling';
-import { readGroups, type StructureCentre, type StructureReading } from '../structures/readGroups';
-import { StructureFileError } from '../structures/readStructureFile';
 
 /*
  * The calculations that run in worker threads: each a message that survives structured cloning
@@ -26,8 +27,7 @@ export interface CalcResults {
 	titration: TitrationResult;
 	tunnelling: TunnellingResult;
 	chain: ChainEstimate;
-	/** A file the parser refuses is an answer, not a failure of the worker. */
-	structure: { ok: true; reading: StructureReading } | { ok: false; message: string };
+	structure: StructureReading;
 }
 
 export type CalcKind = CalcJob['kind'];
@@ -41,11 +41,6 @@ export function runCalcJob(job: CalcJob): CalcResults[CalcKind] {
 		case 'chain':
 			return estimateChain(job.input);
 		case 'structure':
-			try {
-				return { ok: true, reading: readGroups(job.text, job.centres) };
-			} catch (e) {
-				if (e instanceof StructureFileError) return { ok: false, message: e.message };
-				throw e;
-			}
+			return readStructureText(job.text, job.centres);
 	}
 }

@@ -6,7 +6,7 @@ import { structurePlanSchema, type StructurePlanForm } from '$lib/schemas/struct
 import type { SessionUser } from '../auth/roles';
 import { config } from '../config';
 import type { Database } from '../db/schema';
-import { readStructureFile, StructureFileError } from './readStructureFile';
+import { readStructureFile } from './readStructureFile';
 import { loadStructureBytes, saveStructureBytes } from './store';
 import {
 	loadProteinForStructure,
@@ -14,7 +14,7 @@ import {
 	type DistancePlan,
 	type ProteinForStructure
 } from './structureDistances';
-import type { StructureReading } from './readGroups';
+import type { StructureReading } from '$lib/science';
 import { calculate } from '../calc/compute';
 
 /*
@@ -71,15 +71,14 @@ async function oneReadAtATime<T>(work: () => Promise<T>): Promise<T> {
 
 /**
  * The groups and proposed match, read in the calculation worker pool (its time and memory
- * limits apply): parsing a large file must not hold up other requests.
+ * limits apply): parsing a large file must not hold up other requests. A file it cannot use
+ * comes back as a 400 on the file field (CalcInputError) with the reader's reason.
  */
 async function readGroupsOffThread(
 	text: string,
 	protein: ProteinForStructure
 ): Promise<StructureReading> {
-	const answer = await calculate({ kind: 'structure', text, centres: protein.centres }, null);
-	if (!answer.ok) throw new StructureFileError(answer.message);
-	return answer.reading;
+	return calculate({ kind: 'structure', text, centres: protein.centres }, null);
 }
 
 export interface ReadResult {

@@ -1,13 +1,12 @@
 import type { Kysely } from 'kysely';
 import Papa from 'papaparse';
-import { pairsWithinCutoff } from '$lib/science';
+import { pairsWithinCutoff, type StructureReading } from '$lib/science';
 import type { CofactorKind, DistanceMethod } from '$lib/schemas/vocabulary';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { uploadCsvLimits } from '../uploads/readCsv';
 import { checkUpload, type UploadCheck } from '../uploads/checkUpload';
-import type { StructureReading } from './readGroups';
 
 /*
  * Distances proposed from an uploaded structure: its cofactor groups, the match of groups to the

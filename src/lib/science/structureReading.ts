@@ -1,18 +1,16 @@
+import { cofactorGroups, parseStructure, type CofactorGroup } from './structure';
 import {
-	cofactorGroups,
 	ligandResidues,
-	parseStructure,
 	proposeMatches,
-	type CofactorGroup,
+	type CentreToMatch,
 	type GroupMatch
-} from '$lib/science';
-import { StructureFileError } from './readStructureFile';
-import type { ProteinForStructure } from './structureDistances';
+} from './structureMatch';
 
 /*
- * A structure file's text to its cofactor groups and a proposed match to the protein's centres.
- * Pure and free of the database, because it runs in the calculation worker pool (jobs.ts): a
- * large file is seconds of parsing, which must not hold up the thread that answers requests.
+ * A structure file's text to its cofactor groups and a proposed match to a protein's centres,
+ * with the bounds that keep the later distance search cheap. A file it cannot use is a
+ * RangeError whose message says why (the server answers it as a 400 on the file field). The
+ * server runs it in its calculation worker pool: a large file is seconds of parsing.
  */
 
 /** At most this many cofactor groups are read from one file. */
@@ -25,7 +23,8 @@ export const MAX_GROUPS = 500;
  */
 export const MAX_GROUP_ATOMS = 300;
 
-export type StructureCentre = ProteinForStructure['centres'][number];
+/** A centre as the match needs it, named by its accession. */
+export type StructureCentre = Omit<CentreToMatch, 'id'> & { accession: string };
 
 export interface GroupRow {
 	index: number;
@@ -45,8 +44,8 @@ export interface StructureReading {
 	proposals: GroupMatch[];
 }
 
-/** Parses the text and proposes a match; a malformed file is a 400 with the parser's reason. */
-export function readGroups(text: string, centres: StructureCentre[]): StructureReading {
+/** Parses the text and proposes a match; a file it cannot use is a RangeError saying why. */
+export function readStructureText(text: string, centres: StructureCentre[]): StructureReading {
 	let groups: CofactorGroup[];
 	let atoms;
 	try {
@@ -54,20 +53,20 @@ export function readGroups(text: string, centres: StructureCentre[]): StructureR
 		groups = cofactorGroups(atoms);
 	} catch (e) {
 		if (e instanceof RangeError || e instanceof TypeError)
-			throw new StructureFileError(`the structure file could not be read: ${e.message}`);
+			throw new RangeError(`the structure file could not be read: ${e.message}`);
 		throw e;
 	}
 	if (groups.length === 0)
-		throw new StructureFileError(
+		throw new RangeError(
 			'no cofactor groups (iron–sulfur clusters, hemes, flavins, quinones, metals) in this file'
 		);
 	const oversized = groups.find((g) => g.atoms.length > MAX_GROUP_ATOMS);
 	if (oversized)
-		throw new StructureFileError(
+		throw new RangeError(
 			`the group ${oversized.label} has ${oversized.atoms.length} atoms; a cofactor group may have at most ${MAX_GROUP_ATOMS} (is a polymer written under a cofactor's residue name?)`
 		);
 	if (groups.length > MAX_GROUPS)
-		throw new StructureFileError(
+		throw new RangeError(
 			`the file has ${groups.length} cofactor groups; at most ${MAX_GROUPS} are read at once`
 		);
 	const ligands = groups.map((g) => ligandResidues(g, atoms));
