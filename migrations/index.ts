@@ -12,6 +12,7 @@ import * as m0010 from './0010_add_citation_credit';
 import * as m0011 from './0011_add_api_token_scope';
 import * as m0012 from './0012_add_access_requests';
 import * as m0013 from './0013_create_attachment_files';
+import * as m0014 from './0014_add_attachment_numbers';
 
 /**
  * Every migration, by name, in order. Listed by hand (one line per new file) because the same
@@ -31,5 +32,6 @@ export const migrations: Record<string, Migration> = {
 	'0010_add_citation_credit': m0010,
 	'0011_add_api_token_scope': m0011,
 	'0012_add_access_requests': m0012,
-	'0013_create_attachment_files': m0013
+	'0013_create_attachment_files': m0013,
+	'0014_add_attachment_numbers': m0014
 };

@@ -177,7 +177,7 @@ describe('attachments as rows and files', () => {
 			entryId: p.entryId,
 			meta: { kind: 'other', caption: 'c', conditions: {} },
 			fileName: 'data.csv',
-			bytes: new TextEncoder().encode('x,y\n1,2\n'),
+			bytes: new TextEncoder().encode('x,y\n1,2\n3,4\n'),
 			role: 'data',
 			uploadedBy: contributor.id
 		});
@@ -294,7 +294,7 @@ describe('attachments as rows and files', () => {
 			entryId: p.entryId,
 			meta: { kind: 'other', caption: 'numbers', conditions: {} },
 			fileName: 'numbers.csv',
-			bytes: new TextEncoder().encode('x,y\n1,2\n'),
+			bytes: new TextEncoder().encode('x,y\n1,2\n3,4\n'),
 			role: 'data',
 			uploadedBy: contributor.id
 		});
@@ -305,5 +305,46 @@ describe('attachments as rows and files', () => {
 		expect(
 			(await serveAttachmentFile(db, store, contributor, data.id, 'preview', null)).status
 		).toBe(404);
+	});
+	it('an image carries its numbers: checked for the kind, stored once, served at /data and hidden alike', async () => {
+		const p = await proteinDraft('public');
+		const bytes = await jpegWithGps(400, 300);
+		const field = new TextEncoder().encode('Field (mT),dI/dB\n330,0.1\n331,-0.2\n332,0.05\n');
+		const a = await createAttachment(db, deps, {
+			entryId: p.entryId,
+			meta,
+			fileName: 'epr.jpg',
+			bytes,
+			role: 'image',
+			numbers: { fileName: 'epr\u0000.csv', bytes: field },
+			uploadedBy: contributor.id
+		});
+		expect(a.numbers).toMatchObject({ byteSize: field.byteLength, fileName: 'epr.csv' });
+		const served = await serveAttachmentFile(db, store, contributor, a.id, 'data', null);
+		expect(served.status).toBe(200);
+		if (served.status === 200) {
+			expect(new TextDecoder().decode(served.body)).toBe(new TextDecoder().decode(field));
+			expect(served.headers['content-type']).toBe('text/plain; charset=utf-8');
+			expect(served.headers['content-disposition']).toMatch(/^attachment; filename="epr.csv"/);
+		}
+		expect((await serveAttachmentFile(db, store, null, a.id, 'data', null)).status).toBe(404);
+
+		// An EPR spectrum's numbers need a field axis the g scale can be computed from.
+		const before = await db.selectFrom('attachment').select('id').execute();
+		await expect(
+			createAttachment(db, deps, {
+				entryId: p.entryId,
+				meta,
+				fileName: 'epr.jpg',
+				bytes,
+				role: 'image',
+				numbers: {
+					fileName: 'volts.csv',
+					bytes: new TextEncoder().encode('E (V),i\n0.1,1\n0.2,2\n')
+				},
+				uploadedBy: contributor.id
+			})
+		).rejects.toMatchObject({ status: 422, code: 'unreadable_numbers' });
+		expect(await db.selectFrom('attachment').select('id').execute()).toEqual(before);
 	});
 });

@@ -7,6 +7,7 @@ import {
 	type AttachmentMetaInput
 } from '$lib/schemas/attachment';
 import { roleAtLeast } from '$lib/roles';
+import { readSpectrumData, type SpectrumAxis } from '$lib/schemas/spectrumData';
 import type { Database } from '../db/schema';
 import { readJson } from '../db/json';
 import type { SessionUser } from '../auth/roles';
@@ -14,6 +15,7 @@ import { findVisibleEntry } from '../catalogue/visibleEntry';
 import { inspectAttachment, type InspectLimits } from './inspect';
 import type { Renditions } from './renditions';
 import type { BlobStore } from './storage';
+import { AttachmentRejectedError } from './errors';
 
 /*
  * Attachments: a file checked (inspect.ts), rendered (imaging.ts, in a worker), stored by
@@ -48,6 +50,11 @@ export interface AttachmentDto {
 		width: number | null;
 		height: number | null;
 	} | null;
+	/**
+	 * The spectrum's numbers (two-column text): an image's companion file, or a data
+	 * attachment's own original. Served at /files/{id}/data.
+	 */
+	numbers: { sha256: string; byteSize: number; fileName: string } | null;
 }
 
 export interface NewAttachment {
@@ -55,8 +62,31 @@ export interface NewAttachment {
 	meta: AttachmentMetaInput;
 	fileName: string;
 	bytes: Uint8Array;
-	role: 'image' | 'data';
+	role: 'image' | 'data' | 'structure';
+	/** An image's companion numbers file (the data its figure was drawn from). */
+	numbers?: { fileName: string; bytes: Uint8Array } | null;
 	uploadedBy: string;
+}
+
+/** The x axis a kind's numbers must have, so that the plot can convert it (spectra.ts). */
+function numbersAxis(kind: AttachmentKind): SpectrumAxis {
+	return kind === 'epr_spectrum' ? 'field' : kind === 'voltammogram' ? 'potential' : 'any';
+}
+
+/**
+ * Refuses a numbers file the plot could not draw, naming its first problems (rows by line).
+ * Called after inspectAttachment has ruled out binary files, markup and archives.
+ */
+function checkNumbers(bytes: Uint8Array, kind: AttachmentKind): void {
+	const reading = readSpectrumData(bytes, { xAxis: numbersAxis(kind) });
+	if (reading.ok) return;
+	const shown = reading.problems.slice(0, 5);
+	const more = reading.problems.length - shown.length;
+	throw new AttachmentRejectedError(
+		422,
+		'unreadable_numbers',
+		`The numbers file cannot be plotted: ${shown.join('; ')}${more > 0 ? ` (and ${more} more)` : ''}.`
+	);
 }
 
 export interface AttachmentDeps {
@@ -79,7 +109,21 @@ export async function createAttachment(
 	input: NewAttachment
 ): Promise<AttachmentDto> {
 	const meta = attachmentMetaSchema.parse(input.meta);
+	if (input.numbers && input.role !== 'image')
+		throw new Error('only an image carries a companion numbers file');
 	const inspected = await inspectAttachment(input.bytes, input.role, deps.limits);
+	if (inspected.role === 'data') checkNumbers(input.bytes, meta.kind);
+	let numbers: { sha256: string; bytes: Uint8Array; fileName: string; mime: string } | null = null;
+	if (input.numbers) {
+		const checked = await inspectAttachment(input.numbers.bytes, 'data', deps.limits);
+		checkNumbers(input.numbers.bytes, meta.kind);
+		numbers = {
+			sha256: sha256(input.numbers.bytes),
+			bytes: input.numbers.bytes,
+			fileName: cleanFileName(input.numbers.fileName),
+			mime: checked.mime
+		};
+	}
 	const original = {
 		sha256: sha256(input.bytes),
 		media_type: inspected.mime,
@@ -105,6 +149,16 @@ export async function createAttachment(
 				height: x.height
 			});
 	}
+	if (numbers) {
+		await deps.store.put(numbers.sha256, numbers.bytes, numbers.mime);
+		blobs.push({
+			sha256: numbers.sha256,
+			media_type: numbers.mime,
+			byte_size: numbers.bytes.byteLength,
+			width: null,
+			height: null
+		});
+	}
 	await deps.store.put(original.sha256, input.bytes, original.media_type);
 
 	const id = await db.transaction().execute(async (trx) => {
@@ -126,6 +180,8 @@ export async function createAttachment(
 				original_sha256: original.sha256,
 				preview_sha256: preview?.sha256 ?? null,
 				thumb_sha256: thumb?.sha256 ?? null,
+				data_sha256: numbers?.sha256 ?? null,
+				data_file_name: numbers?.fileName ?? null,
 				uploaded_by: input.uploadedBy
 			})
 			.returning('id')
@@ -219,6 +275,7 @@ function attachmentQuery(db: Kysely<Database>) {
 		.innerJoin('attachment_blob as o', 'o.sha256', 'a.original_sha256')
 		.leftJoin('attachment_blob as p', 'p.sha256', 'a.preview_sha256')
 		.leftJoin('attachment_blob as t', 't.sha256', 'a.thumb_sha256')
+		.leftJoin('attachment_blob as d', 'd.sha256', 'a.data_sha256')
 		.select([
 			'a.id',
 			'a.entry_id',
@@ -240,7 +297,10 @@ function attachmentQuery(db: Kysely<Database>) {
 			't.sha256 as t_sha256',
 			't.media_type as t_media_type',
 			't.width as t_width',
-			't.height as t_height'
+			't.height as t_height',
+			'a.data_file_name',
+			'd.sha256 as d_sha256',
+			'd.byte_size as d_byte_size'
 		]);
 }
 
@@ -274,7 +334,17 @@ function toDto(r: AttachmentRow): AttachmentDto {
 					width: r.t_width,
 					height: r.t_height
 				}
-			: null
+			: null,
+		numbers:
+			r.role === 'data'
+				? { sha256: r.sha256, byteSize: r.byte_size, fileName: r.file_name }
+				: r.d_sha256
+					? {
+							sha256: r.d_sha256,
+							byteSize: r.d_byte_size ?? 0,
+							fileName: r.data_file_name ?? 'numbers.txt'
+						}
+					: null
 	};
 }
 
@@ -378,7 +448,8 @@ export async function removeOrphans(
 								inner.or([
 									inner('a.original_sha256', '=', inner.ref('b.sha256')),
 									inner('a.preview_sha256', '=', inner.ref('b.sha256')),
-									inner('a.thumb_sha256', '=', inner.ref('b.sha256'))
+									inner('a.thumb_sha256', '=', inner.ref('b.sha256')),
+									inner('a.data_sha256', '=', inner.ref('b.sha256'))
 								])
 							)
 					)

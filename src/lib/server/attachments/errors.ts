@@ -16,7 +16,8 @@ export class AttachmentRejectedError extends Error {
 			| 'damaged'
 			| 'too_many_pixels'
 			| 'decode_failed'
-			| 'decode_time_limit',
+			| 'decode_time_limit'
+			| 'unreadable_numbers',
 		message: string
 	) {
 		super(message);

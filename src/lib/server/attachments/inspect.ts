@@ -19,12 +19,21 @@ export const IMAGE_TYPES = {
 } as const;
 export type ImageExt = keyof typeof IMAGE_TYPES;
 
-/** What a file is attached as: an image to show, or numbers (a two-column text/CSV file). */
-export type AttachmentRole = 'image' | 'data';
+/**
+ * What a file is attached as: an image to show, numbers (a two-column text/CSV file), or a
+ * structure file (PDB/mmCIF text, or gzip of it) kept for download and never rendered.
+ */
+export type AttachmentRole = 'image' | 'data' | 'structure';
 
 export type Inspected =
 	| { role: 'image'; ext: ImageExt; mime: string; width: number; height: number; bytes: number }
-	| { role: 'data'; ext: 'txt'; mime: 'text/plain; charset=utf-8'; bytes: number };
+	| { role: 'data'; ext: 'txt'; mime: 'text/plain; charset=utf-8'; bytes: number }
+	| {
+			role: 'structure';
+			ext: 'gz' | 'txt';
+			mime: 'application/gzip' | 'text/plain; charset=utf-8';
+			bytes: number;
+	  };
 
 export interface InspectLimits {
 	maxBytes: number;
@@ -86,8 +95,11 @@ export async function inspectAttachment(
 	if (bytes.byteLength === 0) throw new AttachmentRejectedError(400, 'empty', 'The file is empty.');
 	if (bytes.byteLength > limits.maxBytes) throw tooLarge(bytes.byteLength, limits.maxBytes);
 
-	const markup = activeMarkup(bytes);
 	const detected = await fileTypeFromBuffer(bytes);
+	// A structure file was read through by the structure reader before it is kept (gzip
+	// included); here it only has to be the text or gzip it claims to be.
+	if (role === 'structure') return inspectStructure(bytes, detected?.ext);
+	const markup = activeMarkup(bytes);
 	if (markup && (!detected || detected.ext === 'xml')) {
 		throw new AttachmentRejectedError(
 			415,
@@ -279,6 +291,25 @@ function activeMarkup(bytes: Uint8Array): 'svg' | 'html' | 'script' | null {
 }
 
 /** Numbers as text: UTF-8, no NUL bytes, not a binary format. */
+function inspectStructure(bytes: Uint8Array, detectedExt: string | undefined): Inspected {
+	if (detectedExt === 'gz')
+		return { role: 'structure', ext: 'gz', mime: 'application/gzip', bytes: bytes.byteLength };
+	const refuse = (why: string) =>
+		new AttachmentRejectedError(
+			415,
+			'unsupported_type',
+			`A structure file must be PDB or mmCIF text, or gzip of it; ${why}.`
+		);
+	if (detectedExt !== undefined) throw refuse(`this file is ${detectedExt.toUpperCase()}`);
+	if (bytes.includes(0)) throw refuse('this file holds binary bytes');
+	return {
+		role: 'structure',
+		ext: 'txt',
+		mime: 'text/plain; charset=utf-8',
+		bytes: bytes.byteLength
+	};
+}
+
 function inspectData(bytes: Uint8Array, detectedExt: string | undefined): Inspected {
 	if (detectedExt !== undefined) {
 		throw new AttachmentRejectedError(

@@ -5,7 +5,7 @@ import type { Database } from '../db/schema';
 import { attachmentForReader } from './attachments';
 import type { BlobStore } from './storage';
 
-export type FileVariant = 'original' | 'preview' | 'thumbnail';
+export type FileVariant = 'original' | 'preview' | 'thumbnail' | 'data';
 
 /**
  * Headers of every attachment file: the type detected at upload (never the client's), no
@@ -54,16 +54,22 @@ export async function serveAttachmentFile(
 			? { sha256: a.sha256, mediaType: a.mediaType }
 			: variant === 'preview'
 				? a.preview
-				: a.thumbnail;
+				: variant === 'thumbnail'
+					? a.thumbnail
+					: a.numbers && { sha256: a.numbers.sha256, mediaType: 'text/plain; charset=utf-8' };
 	if (!file) return { status: 404 };
 	const stem = a.fileName.replace(/\.[^.]*$/, '');
 	const extension =
 		file.mediaType === 'image/png' ? 'png' : file.mediaType === 'image/jpeg' ? 'jpg' : null;
 	const fileName =
-		variant === 'original' ? a.fileName : `${stem}-${variant}${extension ? `.${extension}` : ''}`;
+		variant === 'original'
+			? a.fileName
+			: variant === 'data'
+				? (a.numbers?.fileName ?? `${stem}.txt`)
+				: `${stem}-${variant}${extension ? `.${extension}` : ''}`;
 	const headers = fileHeaders(file.mediaType, file.sha256, {
-		// The original downloads as it was uploaded; the renditions are for showing.
-		inline: variant !== 'original',
+		// The original and the numbers download as they were uploaded; renditions are for showing.
+		inline: variant === 'preview' || variant === 'thumbnail',
 		fileName
 	});
 	if (ifNoneMatch?.split(',').some((tag) => tag.trim() === headers.etag))

@@ -251,6 +251,9 @@ export interface AttachmentTable {
 	original_sha256: string;
 	preview_sha256: string | null;
 	thumb_sha256: string | null;
+	/** An image's companion numbers file (migration 0014), or null. */
+	data_sha256: string | null;
+	data_file_name: string | null;
 	uploaded_by: string | null;
 	created_at: Generated<string>;
 }

@@ -5,7 +5,7 @@ import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
 
 /*
- * An attachment's file: /files/{id}/original, /preview, /thumbnail. Visibility is checked on
+ * An attachment's file: /files/{id}/original, /preview, /thumbnail, /data. Visibility is checked on
  * every request (serve.ts → attachmentForReader), the same 404 for hidden and missing files.
  */
 export const GET: RequestHandler = async ({ params, locals, request }) => {
