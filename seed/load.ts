@@ -3,6 +3,9 @@ import { normalisePotential, potentialInputSchema } from '../src/lib/schemas/pot
 import type { EntryKind } from '../src/lib/kinds';
 import type { Database } from '../src/lib/server/db/schema';
 import { addVersion, approveVersion, createEntry } from '../src/lib/server/catalogue/entries';
+import { carryForward, type AttachmentDeps } from '../src/lib/server/attachments/attachments';
+import { attachDemoSpectrum } from './demoAttachments';
+import { demoSpectrumFiles, type DemoSpectrumFiles } from './spectraFiles';
 import {
 	DEMO_DISTANCES,
 	DEMO_ORGANISM,
@@ -22,6 +25,16 @@ export interface SeedSummary {
 	distances: number;
 	sources: number;
 	revisions: number;
+	/** Demo spectra stored as attachments (0 when the seed was given no attachment store). */
+	attachments: number;
+}
+
+export interface DemoLoadOptions {
+	/**
+	 * Where and how the demo spectra are stored (the app's store and image workers). Left out,
+	 * the scenario is loaded without its spectra — as the tests that only need its entries do.
+	 */
+	attachments?: AttachmentDeps | null;
 }
 
 /** True when the catalogue holds no entry at all. */
@@ -32,9 +45,19 @@ export async function catalogueIsEmpty(db: Kysely<Database>): Promise<boolean> {
 
 /**
  * Loads the invented demo scenario through the same services curators use (create entry,
- * submit version, approve), in one transaction: all of it or none.
+ * submit version, attach its spectra, approve), in one transaction: all of it or none.
  */
-export async function loadDemoScenario(db: Kysely<Database>): Promise<SeedSummary> {
+export async function loadDemoScenario(
+	db: Kysely<Database>,
+	options: DemoLoadOptions = {}
+): Promise<SeedSummary> {
+	const deps = options.attachments ?? null;
+	// The PNGs and data files are made before the transaction, so it is not held open for them.
+	const spectra = new Map<string, DemoSpectrumFiles[]>();
+	if (deps)
+		for (const file of await demoSpectrumFiles())
+			spectra.set(file.entry, [...(spectra.get(file.entry) ?? []), file]);
+	let attached = 0;
 	return db.transaction().execute(async (trx) => {
 		const { id: submissionId } = await trx
 			.insertInto('submission')
@@ -49,6 +72,8 @@ export async function loadDemoScenario(db: Kysely<Database>): Promise<SeedSummar
 
 		const accessions = new Map<string, string>();
 		const entryIds = new Map<string, number>();
+		/** The latest version of each entry, whose attachments a revision carries forward. */
+		const versionIds = new Map<string, number>();
 		const data = new Map<string, Record<string, unknown>>();
 		let approvedAt = Date.parse('2024-01-15T12:00:00.000Z');
 
@@ -59,6 +84,12 @@ export async function loadDemoScenario(db: Kysely<Database>): Promise<SeedSummar
 				submissionId,
 				changeNote: 'Initial deposit.'
 			});
+			if (deps)
+				for (const file of spectra.get(key) ?? []) {
+					await attachDemoSpectrum(trx, deps, entry.id, versionId, file);
+					attached += 1;
+				}
+			versionIds.set(key, versionId);
 			approvedAt += 60_000;
 			await approveVersion(trx, versionId, { approvedAt: new Date(approvedAt).toISOString() });
 			accessions.set(key, entry.accession);
@@ -159,6 +190,9 @@ export async function loadDemoScenario(db: Kysely<Database>): Promise<SeedSummar
 				submissionId,
 				changeNote: r.note
 			});
+			const base = versionIds.get(r.entry);
+			if (base !== undefined) await carryForward(trx, base, versionId);
+			versionIds.set(r.entry, versionId);
 			await approveVersion(trx, versionId, { approvedAt: r.approvedAt });
 			data.set(r.entry, next);
 		}
@@ -171,7 +205,8 @@ export async function loadDemoScenario(db: Kysely<Database>): Promise<SeedSummar
 			spinRecords: DEMO_SPIN_RECORDS.length,
 			distances: DEMO_DISTANCES.length,
 			sources: DEMO_SOURCES.length,
-			revisions: DEMO_REVISIONS.length
+			revisions: DEMO_REVISIONS.length,
+			attachments: attached
 		};
 	});
 }

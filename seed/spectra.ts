@@ -183,6 +183,11 @@ export interface DemoSpectrum {
 	kind: 'epr' | 'voltammogram';
 	/** The demo centre key (seed/demo.ts) whose record it illustrates. */
 	centre: string;
+	/**
+	 * The seed's key of the entry it is attached to (seed/load.ts): the spin record
+	 * (`spin.<index in DEMO_SPIN_RECORDS>`) or the potential (`p.…`) it was computed from.
+	 */
+	entry: string;
 	caption: string;
 	temperatureK: number;
 	frequencyGHz?: number;
@@ -194,12 +199,14 @@ export interface DemoSpectrum {
 const DEMO_FREQUENCY_GHZ = 9.4;
 
 function demoEpr(centre: string, level: string): DemoSpectrum {
-	const spin = DEMO_SPIN_RECORDS.find((s) => s.centre === centre && s.level === level);
+	const index = DEMO_SPIN_RECORDS.findIndex((s) => s.centre === centre && s.level === level);
+	const spin = DEMO_SPIN_RECORDS[index];
 	if (!spin) throw new Error(`no demo spin record ${centre} ${level}`);
 	return {
 		name: `epr-${centre.replace(/\./g, '-')}`,
 		kind: 'epr',
 		centre,
+		entry: `spin.${index}`,
 		caption: `Synthetic X-band EPR spectrum (demo data, computed): ${level}, g = ${spin.g.join(', ')}`,
 		temperatureK: spin.temperatureK,
 		frequencyGHz: DEMO_FREQUENCY_GHZ,
@@ -229,6 +236,7 @@ function demoVoltammogram(potentialKey: string): DemoSpectrum {
 		name: `cv-${p.centre.replace(/\./g, '-')}`,
 		kind: 'voltammogram',
 		centre: p.centre,
+		entry: potentialKey,
 		caption: `Synthetic protein-film voltammogram (demo data, computed): ${p.couple}, ${scanRate} mV/s`,
 		temperatureK: p.temperatureK,
 		scanRateMvPerS: scanRate,

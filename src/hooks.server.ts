@@ -9,6 +9,7 @@ import { loadSessionUser } from '$lib/server/auth/users';
 import { hasSessionCookie } from '$lib/server/auth/sessionCookie';
 import { oidcSettings } from '$lib/server/auth/oidc';
 import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
+import { appAttachmentDeps } from '$seed/demoAttachments';
 import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
 import { limitRequestSize } from '$lib/server/requestLimits';
@@ -26,7 +27,7 @@ export const init: ServerInit = async () => {
 	if (building) return;
 	await migrateToLatest(db);
 	if (config.HOPLINE_DEMO && (await catalogueIsEmpty(db))) {
-		const summary = await loadDemoScenario(db);
+		const summary = await loadDemoScenario(db, { attachments: appAttachmentDeps() });
 		console.log('Loaded the invented demo scenario:', summary);
 	}
 	if (config.HOPLINE_DEMO) await ensureDemoAccounts(db);

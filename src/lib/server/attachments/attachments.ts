@@ -65,7 +65,8 @@ export interface NewAttachment {
 	role: 'image' | 'data' | 'structure';
 	/** An image's companion numbers file (the data its figure was drawn from). */
 	numbers?: { fileName: string; bytes: Uint8Array } | null;
-	uploadedBy: string;
+	/** The uploading account; null for files the demo seed stores. */
+	uploadedBy: string | null;
 }
 
 /** The x axis a kind's numbers must have, so that the plot can convert it (spectra.ts). */
@@ -161,7 +162,8 @@ export async function createAttachment(
 	}
 	await deps.store.put(original.sha256, input.bytes, original.media_type);
 
-	const id = await db.transaction().execute(async (trx) => {
+	// Inside a caller's transaction (the demo seed's) the rows join it; otherwise their own.
+	const writeRows = async (trx: Kysely<Database>) => {
 		for (const blob of blobs)
 			await trx
 				.insertInto('attachment_blob')
@@ -187,7 +189,8 @@ export async function createAttachment(
 			.returning('id')
 			.executeTakeFirstOrThrow();
 		return row.id;
-	});
+	};
+	const id = db.isTransaction ? await writeRows(db) : await db.transaction().execute(writeRows);
 	return (await attachmentsByIds(db, [id]))[0] as AttachmentDto;
 }
 
