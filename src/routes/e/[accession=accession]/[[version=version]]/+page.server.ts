@@ -17,6 +17,11 @@ import { relatedRecords } from '$lib/server/catalogue/related';
 import { entryCitation } from '$lib/server/citations/citable';
 import { negotiateEntryRepresentation } from '$lib/server/citations/negotiate';
 import { db } from '$lib/server/db';
+import {
+	approvedVersionId,
+	shownAttachmentsOfVersion
+} from '$lib/server/attachments/shownAttachments';
+import { attachmentStore } from '$lib/server/attachments/store';
 import { loadProteinForStructure } from '$lib/server/structures/structureDistances';
 import { orNotFound, queryError } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
@@ -89,6 +94,10 @@ export const load: PageServerLoad = async ({
 		view.kind === 'protein'
 			? await loadProteinForStructure(db, view.accession, locals.viewer)
 			: null;
+	// The version's own attachment list, frozen with it at approval.
+	const versionId = await approvedVersionId(db, view.accession, view.version);
+	const attachments =
+		versionId === null ? [] : await shownAttachmentsOfVersion(db, attachmentStore(), versionId);
 	const citation = await entryCitation(db, view, url.origin);
 	const words = presentEntry(view.kind, view.data);
 	return {
@@ -109,6 +118,7 @@ export const load: PageServerLoad = async ({
 		notCompared: conflicts.notCompared,
 		conflictRule: describeConflictRule(),
 		canPropose: locals.user !== null && roleAtLeast(locals.user.role, 'contributor'),
-		pinned: params.version !== undefined
+		pinned: params.version !== undefined,
+		attachments
 	};
 };

@@ -1,0 +1,190 @@
+import type { Kysely } from 'kysely';
+import {
+	ATTACHMENT_KIND_LABELS,
+	attachmentConditionsSchema,
+	type AttachmentConditions
+} from '$lib/schemas/attachment';
+import { readSpectrumData, type SpectrumData } from '$lib/schemas/spectrumData';
+import { REFERENCE_ELECTRODE_LABELS } from '$lib/science/referenceElectrodes';
+import { formatKelvin, formatNumber } from '$lib/format';
+import { thinnedIndices, type SpectrumConditions } from '$lib/components/spectrumPlot';
+import type { Database } from '../db/schema';
+import { attachmentsOfVersion, type AttachmentDto } from './attachments';
+import type { BlobStore } from './storage';
+
+/*
+ * A version's attachments as pages show them (the entry page, the curator's review): words for
+ * the kind and the conditions, the file URLs, and for a spectrum with numbers the points to plot
+ * (read from the store, bounded by readSpectrumData: 1 MB, 20 000 points; thinned for drawing).
+ * The list is the version's own (attachmentsOfVersion), so an approved version's never changes.
+ */
+
+/** Most points handed to a plot: enough to zoom into a sweep, peaks kept (thinnedIndices). */
+export const PLOTTED_POINTS_MAX = 4000;
+
+export interface AttachmentUrls {
+	original: string;
+	preview: string | null;
+	thumbnail: string | null;
+	data: string | null;
+}
+
+export interface ShownAttachment {
+	id: number;
+	kind: AttachmentDto['kind'];
+	kindLabel: string;
+	role: AttachmentDto['role'];
+	caption: string;
+	/** The acquisition conditions stated, with units, in the order they are read. */
+	conditions: { label: string; text: string }[];
+	fileName: string;
+	mediaType: string;
+	/** "19 kB". */
+	size: string;
+	thumbnail: { width: number | null; height: number | null } | null;
+	urls: AttachmentUrls;
+	/** The numbers to plot, or why they are not plotted; null when there are none. */
+	plot:
+		| {
+				data: SpectrumData;
+				conditions: SpectrumConditions;
+				/** "Drawn from 4 000 of 18 000 points …" when thinned. */
+				note: string | null;
+		  }
+		| { problem: string }
+		| null;
+}
+
+/** The file URLs of an attachment (root-relative; the API makes them absolute). */
+export function attachmentUrls(a: AttachmentDto): AttachmentUrls {
+	const base = `/files/${a.id}`;
+	return {
+		original: `${base}/original`,
+		preview: a.preview ? `${base}/preview` : null,
+		thumbnail: a.thumbnail ? `${base}/thumbnail` : null,
+		data: a.numbers ? `${base}/data` : null
+	};
+}
+
+/** A file size for people: "812 B", "19 kB", "2.4 MB" (decimal units). */
+export function formatByteSize(bytes: number): string {
+	if (bytes < 1000) return `${bytes}\u00a0B`;
+	if (bytes < 1_000_000) return `${Math.round(bytes / 1000)}\u00a0kB`;
+	return `${(bytes / 1_000_000).toFixed(1)}\u00a0MB`;
+}
+
+/** The stated conditions in words, each with its unit. */
+export function conditionWords(
+	c: Partial<AttachmentConditions>
+): { label: string; text: string }[] {
+	const out: { label: string; text: string }[] = [];
+	const add = (label: string, value: number | null | undefined, unit: string) => {
+		if (value !== null && value !== undefined)
+			out.push({ label, text: `${formatNumber(value)}\u00a0${unit}` });
+	};
+	if (c.temperatureK !== null && c.temperatureK !== undefined)
+		out.push({ label: 'Temperature', text: formatKelvin(c.temperatureK) });
+	add('Microwave frequency', c.microwaveFrequencyGHz, 'GHz');
+	add('Microwave power', c.microwavePowerMw, 'mW');
+	add('Modulation amplitude', c.modulationAmplitudeMt, 'mT');
+	add('Scan rate', c.scanRateMvPerS, 'mV/s');
+	if (c.referenceElectrode)
+		out.push({
+			label: 'Reference electrode',
+			text: REFERENCE_ELECTRODE_LABELS[c.referenceElectrode]
+		});
+	return out;
+}
+
+/** The conditions as stored (checked by the schema on upload; none if that ever fails). */
+function storedConditions(a: AttachmentDto): Partial<AttachmentConditions> {
+	const parsed = attachmentConditionsSchema.safeParse(a.conditions);
+	return parsed.success ? parsed.data : {};
+}
+
+/** What the plot converts the x axis with: the frequency (g axis), the electrode (SHE axis). */
+function plotConditions(a: AttachmentDto): SpectrumConditions {
+	const c = storedConditions(a);
+	return {
+		kind: a.kind === 'epr_spectrum' ? 'epr' : a.kind === 'voltammogram' ? 'voltammogram' : 'other',
+		frequencyGHz: c.microwaveFrequencyGHz ?? null,
+		electrode: c.referenceElectrode ?? null,
+		temperatureK: c.temperatureK ?? null
+	};
+}
+
+/** The numbers of an attachment, read from the store and thinned for drawing. */
+async function plotOf(store: BlobStore, a: AttachmentDto): Promise<ShownAttachment['plot']> {
+	if (!a.numbers || a.role === 'structure') return null;
+	const bytes = await store.get(a.numbers.sha256);
+	if (!bytes) return { problem: 'The numbers file is missing from the file store.' };
+	const axis =
+		a.kind === 'epr_spectrum' ? 'field' : a.kind === 'voltammogram' ? 'potential' : 'any';
+	const reading = readSpectrumData(bytes, { xAxis: axis });
+	// Checked on upload; a file the reader now refuses (a stricter rule) is said so, not drawn.
+	if (!reading.ok) return { problem: `The numbers cannot be plotted: ${reading.problems[0]}.` };
+	const all = reading.data.points;
+	const kept =
+		all.length > PLOTTED_POINTS_MAX
+			? thinnedIndices(
+					all.map((p) => p[1]),
+					PLOTTED_POINTS_MAX
+				).map((i) => all[i] as [number, number])
+			: all;
+	return {
+		data: { ...reading.data, points: kept },
+		conditions: plotConditions(a),
+		note:
+			kept.length < all.length
+				? `Drawn from ${kept.length} of the file's ${all.length} points (the highest and lowest of each run kept); the data file has them all.`
+				: null
+	};
+}
+
+/** One attachment as a page shows it. */
+export async function showAttachment(store: BlobStore, a: AttachmentDto): Promise<ShownAttachment> {
+	return {
+		id: a.id,
+		kind: a.kind,
+		kindLabel: ATTACHMENT_KIND_LABELS[a.kind],
+		role: a.role,
+		caption: a.caption,
+		conditions: conditionWords(storedConditions(a)),
+		fileName: a.fileName,
+		mediaType: a.mediaType,
+		size: formatByteSize(a.byteSize),
+		thumbnail: a.thumbnail ? { width: a.thumbnail.width, height: a.thumbnail.height } : null,
+		urls: attachmentUrls(a),
+		plot: await plotOf(store, a)
+	};
+}
+
+/** A version's attachments as a page shows them, in the version's order. */
+export async function shownAttachmentsOfVersion(
+	db: Kysely<Database>,
+	store: BlobStore,
+	entryVersionId: number
+): Promise<ShownAttachment[]> {
+	const list = await attachmentsOfVersion(db, entryVersionId);
+	return Promise.all(list.map((a) => showAttachment(store, a)));
+}
+
+/**
+ * The row id of an approved version of an entry (by accession and number), or null. For entries
+ * the caller has already found visible to the reader (getEntryView).
+ */
+export async function approvedVersionId(
+	db: Kysely<Database>,
+	accession: string,
+	version: number
+): Promise<number | null> {
+	const row = await db
+		.selectFrom('entry_version as v')
+		.innerJoin('entry as e', 'e.id', 'v.entry_id')
+		.select('v.id')
+		.where('e.accession', '=', accession)
+		.where('v.version', '=', version)
+		.where('v.status', '=', 'approved')
+		.executeTakeFirst();
+	return row?.id ?? null;
+}
