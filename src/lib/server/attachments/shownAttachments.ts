@@ -8,6 +8,7 @@ import { readSpectrumData, type SpectrumData } from '$lib/schemas/spectrumData';
 import { REFERENCE_ELECTRODE_LABELS } from '$lib/science/referenceElectrodes';
 import { formatKelvin, formatNumber } from '$lib/format';
 import { thinnedIndices, type SpectrumConditions } from '$lib/components/spectrumPlot';
+import type { EntryAttachment } from '$lib/catalogue/dto';
 import type { Database } from '../db/schema';
 import { attachmentsOfVersion, type AttachmentDto } from './attachments';
 import type { BlobStore } from './storage';
@@ -187,4 +188,44 @@ export async function approvedVersionId(
 		.where('v.status', '=', 'approved')
 		.executeTakeFirst();
 	return row?.id ?? null;
+}
+
+/** One attachment as the entry API lists it, its URLs absolute against `base` (as permalinks). */
+export function attachmentForApi(a: AttachmentDto, base: URL): EntryAttachment {
+	const urls = attachmentUrls(a);
+	const absolute = (path: string | null) => (path === null ? null : new URL(path, base).href);
+	return {
+		id: a.id,
+		kind: a.kind,
+		role: a.role,
+		caption: a.caption,
+		conditions: attachmentConditionsSchema.parse(storedConditions(a)),
+		fileName: a.fileName,
+		mediaType: a.mediaType,
+		byteSize: a.byteSize,
+		sha256: a.sha256,
+		width: a.width,
+		height: a.height,
+		urls: {
+			original: new URL(urls.original, base).href,
+			preview: absolute(urls.preview),
+			thumbnail: absolute(urls.thumbnail),
+			data: absolute(urls.data)
+		},
+		numbers: a.numbers
+			? { fileName: a.numbers.fileName, byteSize: a.numbers.byteSize, sha256: a.numbers.sha256 }
+			: null
+	};
+}
+
+/** The attachments of an approved version, as the entry API lists them (none: an empty list). */
+export async function apiAttachmentsOfVersion(
+	db: Kysely<Database>,
+	accession: string,
+	version: number,
+	base: URL
+): Promise<EntryAttachment[]> {
+	const id = await approvedVersionId(db, accession, version);
+	if (id === null) return [];
+	return (await attachmentsOfVersion(db, id)).map((a) => attachmentForApi(a, base));
 }

@@ -201,6 +201,39 @@ export const EXAMPLES = {
 		},
 		title: 'Potential of Cluster A, [4Fe-4S]2+/1+',
 		permalink: 'https://hopline.example/e/HL000052/v1',
+		attachments: [
+			{
+				id: 7,
+				kind: 'voltammogram',
+				role: 'image',
+				caption: 'Protein-film voltammogram at 20 mV/s (demo data)',
+				conditions: {
+					temperatureK: 298.15,
+					microwaveFrequencyGHz: null,
+					microwavePowerMw: null,
+					modulationAmplitudeMt: null,
+					scanRateMvPerS: 20,
+					referenceElectrode: 'AgAgCl_sat'
+				},
+				fileName: 'cv-tcd-h1.png',
+				mediaType: 'image/png',
+				byteSize: 18759,
+				sha256: '3f1c0b9e6d2a4f8e7b5c1d0a9e8f7a6b5c4d3e2f1a0b9c8d7e6f5a4b3c2d1e0f',
+				width: 900,
+				height: 560,
+				urls: {
+					original: 'https://hopline.example/files/7/original',
+					preview: 'https://hopline.example/files/7/preview',
+					thumbnail: 'https://hopline.example/files/7/thumbnail',
+					data: 'https://hopline.example/files/7/data'
+				},
+				numbers: {
+					fileName: 'cv-tcd-h1.csv',
+					byteSize: 16515,
+					sha256: 'a0b1c2d3e4f5a6b7c8d9e0f1a2b3c4d5e6f7a8b9c0d1e2f3a4b5c6d7e8f9a0b1'
+				}
+			}
+		],
 		live: {
 			latestVersion: 2,
 			versions: [

@@ -12,7 +12,9 @@ import { decideBatch, decideSubmission } from '$lib/server/curation/reviews';
 import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
 import { orNotFound, toFormFailure } from '$lib/server/http/failures';
+import { attachmentStore } from '$lib/server/attachments/store';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
+import { reviewAttachments } from './reviewAttachments';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'curator');
@@ -24,7 +26,15 @@ export const load: PageServerLoad = async (event) => {
 		batch,
 		can: allowedActions(view.submission.status),
 		// Names as this curator may see them: role does not widen visibility (visibleEntry.ts).
-		names: await namesForSubmissionPage(db, viewerOf(user), view.versions, batch?.rows)
+		names: await namesForSubmissionPage(db, viewerOf(user), view.versions, batch?.rows),
+		// Files come with form submissions; a CSV batch carries none.
+		attachments: batch
+			? {}
+			: await reviewAttachments(
+					db,
+					attachmentStore(),
+					view.versions.map((v) => v.versionId)
+				)
 	};
 };
 

@@ -1,9 +1,10 @@
-import type { EntryView } from '$lib/catalogue/dto';
+import type { EntryAttachment, EntryView } from '$lib/catalogue/dto';
 import { toPublicFields } from '$lib/kinds/publicNames';
 import { permalinkPath } from '$lib/schemas/accession';
 import { entryApiQuerySchema } from '$lib/schemas/catalogueQuery';
 import { apiHandler } from '$lib/server/api/handler';
 import { badQuery, parseApiQuery } from '$lib/server/api/respond';
+import { apiAttachmentsOfVersion } from '$lib/server/attachments/shownAttachments';
 import { getEntryView } from '$lib/server/catalogue/entryView';
 import { db } from '$lib/server/db';
 import type { RequestHandler } from './$types';
@@ -14,13 +15,16 @@ import type { RequestHandler } from './$types';
  * The answer's members are the frozen version (identical for as long as the version exists:
  * data, title, references at the versions they were pinned to on approval, permalinks), save
  * `live`: what is true of the entry now (latest version, version history, visibility, newer
- * versions of what it names). A request for a version (`?version=N`) gets no `live` at all,
+ * versions of what it names). `attachments` lists the version's files with absolute URLs. A request for a version (`?version=N`) gets no `live` at all,
  * so that its answer never changes; it says where the current state is (`latest`). A
  * reference the reader may not see is left out (its field reads null) in either.
  */
 
-/** The frozen version, with absolute permalinks; the same bytes whenever it is asked for. */
-function frozenAnswer(view: EntryView, url: URL) {
+/**
+ * The frozen version, with absolute permalinks and its attachment list (frozen with it at
+ * approval); the same bytes whenever it is asked for.
+ */
+function frozenAnswer(view: EntryView, url: URL, attachments: EntryAttachment[]) {
 	const permalink = (accession: string, version: number) =>
 		new URL(permalinkPath(accession, version), url).href;
 	return {
@@ -39,7 +43,8 @@ function frozenAnswer(view: EntryView, url: URL) {
 				{ ...r, permalink: permalink(r.accession, r.version) }
 			])
 		),
-		permalink: permalink(view.accession, view.version)
+		permalink: permalink(view.accession, view.version),
+		attachments
 	};
 }
 
@@ -47,7 +52,8 @@ export const GET: RequestHandler = apiHandler(async ({ url, params, locals }) =>
 	const query = parseApiQuery(url, entryApiQuerySchema);
 	if (!query.ok) return badQuery(query.fields);
 	const view = await getEntryView(db, params.accession, query.data.version, locals.viewer);
-	const frozen = frozenAnswer(view, url);
+	const attachments = await apiAttachmentsOfVersion(db, view.accession, view.version, url);
+	const frozen = frozenAnswer(view, url, attachments);
 	if (query.data.version !== undefined)
 		return Response.json({
 			...frozen,
