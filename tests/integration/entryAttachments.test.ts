@@ -24,6 +24,7 @@ import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/e
 import { getEntryView } from '$lib/server/catalogue/entryView';
 import { viewerOf } from '$lib/server/catalogue/visibility';
 import type { Database } from '$lib/server/db/schema';
+import { reviewAttachments } from '../../src/routes/(curation)/review/[id=id]/reviewAttachments';
 import { pngOf } from '../support/hostileFiles';
 import { createTempDatabase } from '../support/tempDb';
 import { insertSessionUser } from '../support/users';
@@ -163,6 +164,11 @@ describe('attachments listed with an entry version', () => {
 		const second = await eprAttachment(p.entryId, 'second spectrum');
 		await listOnVersion(db, v2, [second.id]);
 		await unlistFromVersion(db, v2, first.id);
+		// The curator's view of the change: the new file added, the old one dropped.
+		const review = (await reviewAttachments(db, store, [v2]))[v2];
+		expect(review?.changes).toEqual({ [second.id]: 'added' });
+		expect(review?.dropped.map((d) => d.caption)).toEqual(['first spectrum']);
+		expect(review?.basedOn).toBe(1);
 		await approve(v2);
 
 		const ids = async (version: number) =>
