@@ -190,8 +190,9 @@ export async function loadDemoScenario(
 				submissionId,
 				changeNote: r.note
 			});
+			// Only with attachments: the migration tests load the scenario into older schemas.
 			const base = versionIds.get(r.entry);
-			if (base !== undefined) await carryForward(trx, base, versionId);
+			if (deps && base !== undefined) await carryForward(trx, base, versionId);
 			versionIds.set(r.entry, versionId);
 			await approveVersion(trx, versionId, { approvedAt: r.approvedAt });
 			data.set(r.entry, next);

@@ -49,8 +49,8 @@ async function withAttachments(list: string): Promise<string[]> {
 
 beforeAll(async () => {
 	browser = await launchChromium();
-	[epr] = await withAttachments('spin-records');
-	[cv] = await withAttachments('potentials');
+	epr = (await withAttachments('spin-records'))[0] ?? 'none';
+	cv = (await withAttachments('potentials'))[0] ?? 'none';
 }, 60_000);
 afterAll(async () => browser?.close());
 

@@ -1,6 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import {
+	dragZoom,
 	gTicks,
+	plotKey,
+	plotScene,
+	pointReadout,
 	prepareSpectrum,
 	spectrumCsvText,
 	thinnedIndices
@@ -107,5 +111,65 @@ describe('the CSV download', () => {
 		expect(spectrumCsvText(data, prepareSpectrum(data, { kind: 'other' })).split('\n')[0]).toBe(
 			'"\'=HYPERLINK(""x"")","i (nA)"'
 		);
+	});
+});
+
+describe('the plot’s geometry (plotScene), shared by the component and the pages’ script', () => {
+	const many: SpectrumData = {
+		x: { name: 'Field', unit: 'mT' },
+		y: { name: 'Signal', unit: null },
+		points: Array.from({ length: 101 }, (_, i) => [300 + i, Math.sin(i / 10)] as [number, number])
+	};
+	const prepared = prepareSpectrum(many, { kind: 'epr', frequencyGHz: 9.5 });
+	const texts = (s: ReturnType<typeof plotScene>) =>
+		s.marks.filter((m) => m.tag === 'text').map((m) => m.text);
+
+	it('draws at 640 units until measured, smaller on a phone, with room for the g axis', () => {
+		expect(plotScene(prepared, 0, null, String).frame).toMatchObject({ width: 640, height: 340 });
+		const phone = plotScene(prepared, 350, null, String).frame;
+		expect(phone).toMatchObject({ width: 350, height: 280 });
+		expect(phone.margin.top).toBe(40);
+	});
+
+	it('labels the g axis from the stated frequency, and every tick lies inside the frame', () => {
+		const scene = plotScene(prepared, 0, null, String);
+		expect(texts(scene)).toContain('g');
+		// 9.5 GHz, g = 2.1 resonates at 323.2 mT (resonanceFieldMt, the science module's one formula).
+		expect(texts(scene)).toContain('2.1');
+		for (const m of scene.marks.filter((m) => m.tag === 'line'))
+			expect(Number(m.attrs.x1)).toBeGreaterThanOrEqual(scene.frame.margin.left - 0.001);
+	});
+
+	it('a zoom narrows the visible points and the x ticks', () => {
+		const zoomed = plotScene(prepared, 0, [340, 350], String);
+		expect(zoomed.visible).toHaveLength(11);
+		expect(texts(zoomed)).toEqual(expect.arrayContaining(['340', '350']));
+		expect(texts(zoomed)).not.toContain('310');
+	});
+
+	it('a drag of 8 px or less is a click, not a zoom; a longer one selects its x range', () => {
+		const scene = plotScene(prepared, 0, null, String);
+		expect(dragZoom(prepared, scene, 200, 207)).toBeNull();
+		const range = dragZoom(prepared, scene, scene.px(320), scene.px(330));
+		expect(range?.[0]).toBeCloseTo(320, 6);
+		expect(range?.[1]).toBeCloseTo(330, 6);
+	});
+
+	it('keys: → picks the first point, + halves the range about it, − and 0 go back out', () => {
+		const scene = plotScene(prepared, 0, null, String);
+		expect(plotKey(prepared, scene, null, 'ArrowRight', false)).toEqual({ cursor: 0 });
+		expect(plotKey(prepared, scene, 50, '+', false)).toEqual({ zoom: [325, 375] });
+		expect(plotKey(prepared, plotScene(prepared, 0, [325, 375], String), 50, '-', false)).toEqual({
+			zoom: null
+		});
+		expect(plotKey(prepared, scene, 50, '0', false)).toEqual({ zoom: null });
+		expect(plotKey(prepared, scene, 50, 'a', false)).toEqual({ nothing: true });
+	});
+
+	it('reads a point with its g', () => {
+		expect(pointReadout(prepared, 39, String)).toMatch(
+			/^Field \(mT\): 339; Signal: .*g = 2\.002\d$/
+		);
+		expect(pointReadout(prepared, null, String)).toBe('');
 	});
 });
