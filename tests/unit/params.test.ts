@@ -18,8 +18,8 @@ const MATCHERS: Record<string, { match: (param: string) => boolean; yes: string[
 		},
 		attachmentVariant: {
 			match: attachmentVariant,
-			yes: ['original', 'preview', 'thumbnail'],
-			no: ['Original', 'thumb', 'data', '../original', '']
+			yes: ['original', 'preview', 'thumbnail', 'data'],
+			no: ['Original', 'thumb', 'Data', 'numbers', '../original', '']
 		},
 		citeFormat: {
 			match: citeFormat,
