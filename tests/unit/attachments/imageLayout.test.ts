@@ -77,7 +77,7 @@ describe('TIFF directories', () => {
 			'image',
 			LIMITS
 		);
-		expect([r.width, r.height]).toEqual([60, 40]);
+		expect(r).toMatchObject({ width: 60, height: 40 });
 	});
 
 	it('a "reduced-resolution copy" of 100 000 × 100 000 is refused all the same', async () => {
