@@ -146,7 +146,7 @@ async function benchDownloads(): Promise<void> {
 					const body = await store.get(key);
 					if (!body || createHash('sha256').update(body).digest('hex') !== key)
 						throw new Error('altered');
-					await slowClient(new Response(body).body as ReadableStream<Uint8Array>);
+					await slowClient(new Response(new Uint8Array(body)).body as ReadableStream<Uint8Array>);
 				})
 			)
 		);
