@@ -142,9 +142,19 @@ async function encode(pixels: Pixels, mime: Rendition['mime']): Promise<Renditio
 
 const isJpeg = (bytes: Uint8Array) => bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff;
 
-/** RGBA pixels of an inspected image: JPEG by mozjpeg (jpegDecoder.ts), the rest by jimp. */
+/**
+ * RGBA pixels of an inspected image: JPEG by mozjpeg (jpegDecoder.ts), the rest by jimp. A JPEG
+ * mozjpeg will not turn into RGBA (CMYK and YCCK, as print software saves them) goes to jimp's
+ * own decoder, which converts those; only a file neither can read is refused.
+ */
 async function decode(original: Uint8Array): Promise<Pixels> {
-	if (isJpeg(original)) return decodeJpeg(original);
+	if (isJpeg(original)) {
+		try {
+			return await decodeJpeg(original);
+		} catch {
+			// Falls through to jimp.
+		}
+	}
 	const decoded = await Jimp.read(
 		Buffer.from(original.buffer, original.byteOffset, original.byteLength)
 	);
