@@ -8,9 +8,9 @@ import { createRequire } from 'node:module';
  * machine. jimp stays the image library for everything else (other formats, resizing, encoding).
  *
  * Loading: the package's own loader fetches its .wasm by a file: URL, which Node 20's fetch
- * cannot do, so the module is compiled here from the file and handed to it. A decoder that
- * failed is dropped and made afresh for the next image: a fatal libjpeg error leaves the
- * Emscripten runtime through exit(), after which its heap may hold what the failed call left.
+ * cannot do, so the module is compiled here from the file and handed to it. Each image gets a
+ * fresh instance: a fatal libjpeg error leaves the Emscripten runtime through exit(), after
+ * which its heap may hold what the failed call left.
  * Runs in the attachment worker only (image.worker.ts), whose running-time limit is the decode
  * time-out.
  */
@@ -65,7 +65,14 @@ export async function decodeJpeg(bytes: Uint8Array): Promise<DecodedPixels> {
 			throw new Error('the JPEG decoder returned no image');
 		return { data, width: image.width, height: image.height };
 	} catch (e) {
-		decoder = null;
 		throw e instanceof Error ? e : new Error(String(e));
+	} finally {
+		// A fresh instance for the next image (a few milliseconds; the compiled module is kept),
+		// so nothing a failed or a large decode left in the WebAssembly heap carries over. The old
+		// one is collected with its memory: 8 decodes of a 12 MP photograph in a row held the
+		// process's external memory level at about 250 MB (measured with --expose-gc).
+		decoder = freshDecoder();
+		// Its failure, if any, is met by the next decodeJpeg; not an unhandled rejection meanwhile.
+		decoder.catch(() => {});
 	}
 }
