@@ -68,9 +68,9 @@ function coverage(from: number, to: number) {
 /**
  * Shrinks to width × height by area averaging: each output pixel the mean of the input area it
  * covers, edges weighted by the part inside (a box filter of fractional width), one horizontal
- * pass over the input rows then one vertical pass. Free of aliasing at any ratio, with no
- * separate sharpening or interpolation step: jimp's interpolating resize of a 12 MP photograph
- * took longer than decoding it, and after a whole-factor box its bilinear step still took 0.25 s.
+ * pass over the input rows then one vertical pass. Free of aliasing at any ratio. It replaced
+ * jimp's interpolating resize here: that took longer than decoding a 12 MP photograph, and even
+ * the last 1333 → 1280 px step after a whole-factor box took 0.25 s; this one takes a few ms.
  */
 function areaShrink(source: Pixels, width: number, height: number): Pixels {
 	const sw = source.width;
@@ -122,13 +122,58 @@ function areaShrink(source: Pixels, width: number, height: number): Pixels {
 	return { data: dst, width, height };
 }
 
+/**
+ * Shrinks by a whole factor, each output pixel the mean of a factor × factor block: integer sums
+ * in one pass, a third of the area pass's cost on a 12 MP photograph. Up to factor − 1 pixels at
+ * the right and bottom edges are left out.
+ */
+function boxShrink(source: Pixels, factor: number): Pixels {
+	const width = Math.floor(source.width / factor);
+	const height = Math.floor(source.height / factor);
+	const src = source.data;
+	const dst = Buffer.alloc(width * height * 4);
+	const out = new Uint8ClampedArray(dst.buffer, dst.byteOffset, dst.byteLength);
+	const rowBytes = source.width * 4;
+	const area = factor * factor;
+	for (let y = 0; y < height; y++) {
+		for (let x = 0; x < width; x++) {
+			let r = 0;
+			let g = 0;
+			let b = 0;
+			let a = 0;
+			for (let dy = 0; dy < factor; dy++) {
+				let i = (y * factor + dy) * rowBytes + x * factor * 4;
+				for (let dx = 0; dx < factor; dx++, i += 4) {
+					r += src[i] as number;
+					g += src[i + 1] as number;
+					b += src[i + 2] as number;
+					a += src[i + 3] as number;
+				}
+			}
+			const o = (y * width + x) * 4;
+			out[o] = r / area;
+			out[o + 1] = g / area;
+			out[o + 2] = b / area;
+			out[o + 3] = a / area;
+		}
+	}
+	return { data: dst, width, height };
+}
+
+/**
+ * At most `px` on the longer side, never enlarged: a whole-factor box first where the ratio
+ * allows (it stays at least the target size), then area averaging to the exact size.
+ */
 function fit(pixels: Pixels, px: number): Pixels {
 	const longer = Math.max(pixels.width, pixels.height);
 	if (longer <= px) return pixels;
 	const scale = px / longer;
 	const width = Math.max(1, Math.round(pixels.width * scale));
 	const height = Math.max(1, Math.round(pixels.height * scale));
-	return areaShrink(pixels, width, height);
+	const factor = Math.floor(Math.min(pixels.width / width, pixels.height / height));
+	const boxed = factor >= 2 ? boxShrink(pixels, factor) : pixels;
+	if (boxed.width === width && boxed.height === height) return boxed;
+	return areaShrink(boxed, width, height);
 }
 
 async function encode(pixels: Pixels, mime: Rendition['mime']): Promise<Rendition> {
