@@ -12,6 +12,7 @@ import { catalogueIsEmpty, loadDemoScenario } from '$seed/load';
 import { appAttachmentDeps } from '$seed/demoAttachments';
 import { ensureDemoAccounts } from '$seed/accounts';
 import { scheduleDigests } from '$lib/server/curation/digestSchedule';
+import { startAttachmentCleanup } from '$lib/server/attachments/cleanupSchedule';
 import { limitRequestSize } from '$lib/server/requestLimits';
 import { secureCookiesOnlyOverHttps } from '$lib/server/secureCookies';
 import { httpHardening } from '$lib/server/http';
@@ -35,6 +36,7 @@ export const init: ServerInit = async () => {
 	// provider, which is better done now than in the middle of the first reader's request.
 	await oidcSettings().catch((e: unknown) => console.error('OpenID Connect is not available:', e));
 	scheduleDigests(db, { hourUtc: config.DIGEST_HOUR_UTC, origin: config.ORIGIN });
+	startAttachmentCleanup(db, config.ATTACHMENT_CLEANUP_INTERVAL_MINUTES);
 };
 
 const loopTurns =

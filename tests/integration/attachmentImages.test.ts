@@ -2,7 +2,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { imageSize } from 'image-size';
 import { AttachmentRejectedError } from '$lib/server/attachments/errors';
 import { closeImagePool, createImagePool, renderImage } from '$lib/server/attachments/imaging';
-import { jpegWithGps, pngOf, exifGpsSegment } from '../support/hostileFiles';
+import { jpegOf, jpegWithGps, pngOf, exifGpsSegment } from '../support/hostileFiles';
 
 // Real worker threads on the real worker module (through tsx, as in `vite dev`). Oracles: the
 // sizes from image-size read back from the renditions; the EXIF bytes we put in, searched for.
@@ -59,5 +59,39 @@ describe('renditions in a worker thread', () => {
 		const e = await renderImage(big, false, quick).catch((x: unknown) => x);
 		expect(e).toMatchObject({ status: 422, code: 'decode_time_limit' });
 		expect((e as Error).message).toMatch(/could not be decoded within/);
+	});
+
+	it('JPEG by the WebAssembly decoder: damaged and fuzzed files are decoded or refused with 422, and the worker keeps working', async () => {
+		const good = await jpegOf(240, 180);
+		let seed = 2024;
+		const next = () => (seed = (seed * 1103515245 + 12345) & 0x7fffffff);
+		const outcomes = { rendered: 0, refused: 0 };
+		for (let run = 0; run < 40; run++) {
+			const bad = new Uint8Array(good);
+			if (run % 4 === 0) {
+				// Cut short (the inspection refuses these before any decode; the decoder must too).
+				const cut = bad.subarray(0, 2 + (next() % (bad.byteLength - 2)));
+				await check(cut);
+				continue;
+			}
+			for (let k = 0; k < 1 + (next() % 12); k++)
+				bad[2 + (next() % (bad.byteLength - 4))] = next() & 0xff;
+			await check(bad);
+		}
+		async function check(bytes: Uint8Array) {
+			try {
+				const r = await renderImage(bytes, true, pools[0]);
+				expect(r.preview.width).toBeGreaterThan(0);
+				outcomes.rendered++;
+			} catch (e) {
+				expect(e).toMatchObject({ status: 422, code: 'decode_failed' });
+				outcomes.refused++;
+			}
+		}
+		expect(outcomes.rendered + outcomes.refused).toBe(40);
+		expect(outcomes.refused).toBeGreaterThan(0);
+		// A good file after the failures: the decoder was made afresh where one gave up.
+		const r = await renderImage(good, true, pools[0]);
+		expect([r.preview.width, r.preview.height]).toEqual([240, 180]);
 	});
 });

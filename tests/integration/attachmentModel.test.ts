@@ -323,7 +323,7 @@ describe('attachments as rows and files', () => {
 		const served = await serveAttachmentFile(db, store, contributor, a.id, 'data', null);
 		expect(served.status).toBe(200);
 		if (served.status === 200) {
-			expect(new TextDecoder().decode(served.body)).toBe(new TextDecoder().decode(field));
+			expect(await new Response(served.body).text()).toBe(new TextDecoder().decode(field));
 			expect(served.headers['content-type']).toBe('text/plain; charset=utf-8');
 			expect(served.headers['content-disposition']).toMatch(/^attachment; filename="epr.csv"/);
 		}

@@ -36,6 +36,18 @@ function contract(name: string, make: () => BlobStore) {
 			expect(back?.byteLength).toBe(bytes.byteLength);
 		});
 
+		it('streams the bytes it was given, and null for a missing key', async () => {
+			const store = make();
+			const bytes = bytesOf(500_000, 4);
+			const key = sha256(bytes);
+			expect(await store.getStream(key)).toBeNull();
+			await store.put(key, bytes, 'application/octet-stream');
+			const stream = await store.getStream(key);
+			if (!stream) throw new Error('expected a stream');
+			const back = new Uint8Array(await new Response(stream).arrayBuffer());
+			expect(sha256(back)).toBe(key);
+		});
+
 		it('stores the same content twice as once, and deletes it', async () => {
 			const store = make();
 			const bytes = bytesOf(1000, 2);

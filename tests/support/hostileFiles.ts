@@ -117,3 +117,111 @@ export const SVG_WITH_SCRIPT =
 	'<?xml version="1.0"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><script>fetch("/api/v1/me")</script></svg>';
 export const HTML_PAGE =
 	'<!DOCTYPE html>\n<html><body><script>alert(document.cookie)</script></body></html>';
+
+export interface TiffDirectorySpec {
+	width: number;
+	height: number;
+	/** NewSubfileType; 1 marks a reduced-resolution copy. */
+	subfileType?: number;
+	/** SubIFDs of this directory. */
+	subIfds?: TiffDirectorySpec[];
+}
+
+/**
+ * A little-endian classic TIFF (TIFF 6.0, section 2) with one directory per spec in its main
+ * chain: uncompressed 8-bit RGB strips, pixel data written only for images of at most
+ * 4096 pixels (a huge declared size gets a 3-byte strip: it is never decoded). `loopTo` makes the
+ * last directory's next offset point back to directory `loopTo`: a cycle.
+ */
+export function tiffOf(pages: TiffDirectorySpec[], options: { loopTo?: number } = {}): Uint8Array {
+	const parts: Buffer[] = [];
+	let size = 8;
+	const reserve = (bytes: Buffer) => {
+		const at = size;
+		parts.push(bytes);
+		size += bytes.length;
+		return at;
+	};
+	const header = Buffer.alloc(8);
+	header.write('II', 0, 'latin1');
+	header.writeUInt16LE(42, 2);
+	parts.push(header);
+	/** Writes a directory (and its sub-directories first); returns its offset and its buffer. */
+	const write = (spec: TiffDirectorySpec): { at: number; ifd: Buffer } => {
+		const subs = (spec.subIfds ?? []).map(write);
+		const pixels = spec.width * spec.height <= 4096 ? spec.width * spec.height * 3 : 3;
+		const dataAt = reserve(Buffer.alloc(pixels, 0x80));
+		const bitsAt = reserve(Buffer.from([8, 0, 8, 0, 8, 0]));
+		let subsAt = 0;
+		if (subs.length > 1) {
+			const offsets = Buffer.alloc(4 * subs.length);
+			subs.forEach((sub, i) => offsets.writeUInt32LE(sub.at, 4 * i));
+			subsAt = reserve(offsets);
+		}
+		const entries: [number, number, number, number][] = [
+			[254, 4, 1, spec.subfileType ?? 0],
+			[256, 4, 1, spec.width],
+			[257, 4, 1, spec.height],
+			[258, 3, 3, bitsAt],
+			[259, 3, 1, 1],
+			[262, 3, 1, 2],
+			[273, 4, 1, dataAt],
+			[277, 3, 1, 3],
+			[278, 4, 1, spec.height],
+			[279, 4, 1, pixels]
+		];
+		if (subs.length > 0)
+			entries.push([330, 4, subs.length, subs.length > 1 ? subsAt : (subs[0]?.at ?? 0)]);
+		const ifd = Buffer.alloc(2 + entries.length * 12 + 4);
+		ifd.writeUInt16LE(entries.length, 0);
+		entries.forEach(([tag, type, count, value], i) => {
+			const e = 2 + i * 12;
+			ifd.writeUInt16LE(tag, e);
+			ifd.writeUInt16LE(type, e + 2);
+			ifd.writeUInt32LE(count, e + 4);
+			if (type === 3 && count === 1) ifd.writeUInt16LE(value, e + 8);
+			else ifd.writeUInt32LE(value, e + 8);
+		});
+		return { at: reserve(ifd), ifd };
+	};
+	const chain = pages.map(write);
+	header.writeUInt32LE(chain[0]?.at ?? 0, 4);
+	chain.forEach((d, i) => {
+		const next =
+			i + 1 < chain.length
+				? (chain[i + 1]?.at ?? 0)
+				: options.loopTo !== undefined
+					? (chain[options.loopTo]?.at ?? 0)
+					: 0;
+		d.ifd.writeUInt32LE(next, d.ifd.length - 4);
+	});
+	return new Uint8Array(Buffer.concat(parts));
+}
+
+/**
+ * A GIF89a (the GIF89a specification, sections 18–20) with a two-colour global table and one
+ * image descriptor per frame, each with a tiny LZW stream: enough for every header walk, though
+ * frames larger than their data are never decodable.
+ */
+export function gifOf(
+	screen: { width: number; height: number },
+	frames: { width: number; height: number; left?: number; top?: number }[]
+): Uint8Array {
+	const head = Buffer.alloc(13);
+	head.write('GIF89a', 0, 'latin1');
+	head.writeUInt16LE(screen.width, 6);
+	head.writeUInt16LE(screen.height, 8);
+	head[10] = 0x80; // global colour table of 2 entries
+	const parts = [head, Buffer.from([0, 0, 0, 0xff, 0xff, 0xff])];
+	for (const f of frames) {
+		const d = Buffer.alloc(10);
+		d[0] = 0x2c;
+		d.writeUInt16LE(f.left ?? 0, 1);
+		d.writeUInt16LE(f.top ?? 0, 3);
+		d.writeUInt16LE(f.width, 5);
+		d.writeUInt16LE(f.height, 7);
+		parts.push(d, Buffer.from([0x02, 0x02, 0x4c, 0x01, 0x00]));
+	}
+	parts.push(Buffer.from([0x3b]));
+	return new Uint8Array(Buffer.concat(parts));
+}

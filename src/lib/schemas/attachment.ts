@@ -105,16 +105,67 @@ export type AttachmentMeta = z.infer<typeof attachmentMetaSchema>;
 /** What a form or the API sends: conditions left out are null. */
 export type AttachmentMetaInput = z.input<typeof attachmentMetaSchema>;
 
+/** The longest file name kept, in code points (not UTF-16 units). */
+export const FILE_NAME_MAX = 120;
+
 /**
- * A file name for Content-Disposition and lists: the last path segment, control characters and
- * quotes removed, at most 120 characters; never empty.
+ * Code points that show nothing or change how the rest is shown: controls (C0, DEL, C1), format
+ * characters (\p{Cf}: the bidi overrides and isolates such as U+202E that turn "gpj.exe" round,
+ * zero-width spaces and joiners, the BOM, tag characters), the rest of Unicode's
+ * default-ignorable set (variation selectors, Hangul fillers, the combining grapheme joiner),
+ * lone surrogates, noncharacters and the line and paragraph separators. The double quote goes
+ * too: it ends a quoted Content-Disposition parameter.
+ */
+const INVISIBLE =
+	/[\p{Cc}\p{Cf}\p{Cs}\p{Zl}\p{Zp}\p{Default_Ignorable_Code_Point}\p{Noncharacter_Code_Point}"]/gu;
+/** Every other space (no-break, ideographic, the typographic widths) becomes a plain one. */
+const SPACES = /\p{Zs}+/gu;
+/** An extension worth keeping in sight: a dot and up to 16 letters, digits, `_` or `-`. */
+const EXTENSION = /\.[\p{L}\p{N}_-]{1,16}$/u;
+
+const graphemes = new Intl.Segmenter('en', { granularity: 'grapheme' });
+
+/**
+ * The first `max` code points of `text`, cut between two graphemes (never inside a surrogate
+ * pair, nor between a letter and its accent); a single grapheme longer than `max` (a letter
+ * under hundreds of combining marks) is cut by code points.
+ */
+function firstCodePoints(text: string, max: number): string {
+	let out = '';
+	let count = 0;
+	for (const { segment } of graphemes.segment(text)) {
+		const length = [...segment].length;
+		if (count + length > max) {
+			if (count === 0) return [...segment].slice(0, max).join('');
+			break;
+		}
+		out += segment;
+		count += length;
+	}
+	return out;
+}
+
+/**
+ * A file name for Content-Disposition and lists: the last path segment, in NFC, with invisible
+ * and control code points removed (INVISIBLE above), runs of spaces made one, at most
+ * FILE_NAME_MAX code points. A longer name loses the end of its stem, never its extension
+ * ("…" marks the cut), so a reader always sees what kind of file they download; never empty.
  */
 export function cleanFileName(name: string): string {
 	const last = name.split(/[\\/]/).pop() ?? '';
-	const clean = last
-		// eslint-disable-next-line no-control-regex -- control characters are what is removed
-		.replace(/[\u0000-\u001f\u007f"]/g, '')
+	const visible = last
+		.normalize('NFC')
+		.replace(INVISIBLE, '')
+		.replace(SPACES, ' ')
 		.trim()
-		.slice(0, 120);
-	return clean === '' || clean === '.' || clean === '..' ? 'attachment' : clean;
+		// A name ending in dots or spaces shows another extension than it has on some systems.
+		.replace(/[. ]+$/, '');
+	const clean = [...visible].length <= FILE_NAME_MAX ? visible : shortened(visible, FILE_NAME_MAX);
+	return clean === '' || /^\.+$/.test(clean) ? 'attachment' : clean;
+}
+
+function shortened(name: string, max: number): string {
+	const extension = EXTENSION.exec(name)?.[0] ?? '';
+	const stem = name.slice(0, name.length - extension.length);
+	return `${firstCodePoints(stem, max - 1 - [...extension].length).trimEnd()}…${extension}`;
 }

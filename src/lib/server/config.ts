@@ -189,6 +189,17 @@ const configSchema = z.object({
 	ATTACHMENT_MAX_PIXELS: z.coerce.number().int().min(1).max(500_000_000).default(40_000_000),
 	ATTACHMENT_DECODE_TIME_LIMIT_MS: z.coerce.number().int().min(100).max(600_000).default(15_000),
 	/**
+	 * How often the app server removes orphaned attachments and unnamed files (what `npm run
+	 * attachments:cleanup` does), minutes; the first run is a minute after start. 0: never (run
+	 * the script from cron instead). At most a week.
+	 */
+	ATTACHMENT_CLEANUP_INTERVAL_MINUTES: z.coerce
+		.number()
+		.int()
+		.min(0)
+		.max(7 * 24 * 60)
+		.default(360),
+	/**
 	 * Where attachment files live. Unset S3_BUCKET: on the local disk, in ATTACHMENT_DIR (default:
 	 * an `attachments` folder beside the database file). With S3_BUCKET: in that bucket of an
 	 * S3-compatible object store (S3_ENDPOINT for a store other than AWS, e.g.

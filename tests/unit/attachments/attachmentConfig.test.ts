@@ -38,4 +38,14 @@ describe('attachment configuration', () => {
 	it('refuses a limit below 1 kB', () => {
 		expect(() => parseConfig({ ATTACHMENT_MAX_BYTES: '10' })).toThrow(/ATTACHMENT_MAX_BYTES/);
 	});
+
+	it('cleans up orphans every 6 hours by default; 0 turns it off; more than a week is refused', () => {
+		expect(parseConfig({}).ATTACHMENT_CLEANUP_INTERVAL_MINUTES).toBe(360);
+		expect(
+			parseConfig({ ATTACHMENT_CLEANUP_INTERVAL_MINUTES: '0' }).ATTACHMENT_CLEANUP_INTERVAL_MINUTES
+		).toBe(0);
+		expect(() => parseConfig({ ATTACHMENT_CLEANUP_INTERVAL_MINUTES: '20000' })).toThrow(
+			/ATTACHMENT_CLEANUP_INTERVAL_MINUTES/
+		);
+	});
 });

@@ -163,6 +163,29 @@ describe('hostile files', () => {
 		expect(await refusal(new Uint8Array(withZip))).toMatchObject({ status: 415, code: 'polyglot' });
 	});
 
+	it('markup split across the megabyte windows of the scan is still found: 415', async () => {
+		const png = Buffer.from(await pngOf(16, 16));
+		// A 1.5 MB private chunk whose `<script>` starts a few bytes before the 1 MiB mark.
+		const filler = Buffer.alloc(1_500_000, 0x20);
+		const at = 1024 * 1024 - 3 - (png.length - 12) - 8;
+		filler.write('<script>', at, 'latin1');
+		const head = Buffer.alloc(8);
+		head.writeUInt32BE(filler.length, 0);
+		head.write('zzTX', 4, 'latin1');
+		const withScript = Buffer.concat([
+			png.subarray(0, png.length - 12),
+			head,
+			filler,
+			Buffer.alloc(4),
+			png.subarray(png.length - 12)
+		]);
+		expect(withScript.indexOf('<script>')).toBe(1024 * 1024 - 3);
+		expect(await refusal(new Uint8Array(withScript))).toMatchObject({
+			status: 415,
+			code: 'polyglot'
+		});
+	});
+
 	it('a JPEG followed by HTML: 415', async () => {
 		const jpeg = await jpegOf(16, 16);
 		const r = await refusal(new Uint8Array([...jpeg, ...text(HTML_PAGE)]));

@@ -1,6 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { mkdir, open, readFile, rename, rm, stat } from 'node:fs/promises';
 import { dirname, join } from 'node:path';
+import { Readable } from 'node:stream';
 import { assertBlobKey, type BlobStore } from './storage';
 
 /*
@@ -51,6 +52,18 @@ export function diskStore(root: string): BlobStore {
 				if ((e as NodeJS.ErrnoException).code === 'ENOENT') return null;
 				throw e;
 			}
+		},
+		async getStream(key) {
+			// Opened here, so that a missing file is null rather than an error mid-response.
+			let handle;
+			try {
+				handle = await open(pathOf(key), 'r');
+			} catch (e) {
+				if ((e as NodeJS.ErrnoException).code === 'ENOENT') return null;
+				throw e;
+			}
+			// The handle closes with the stream: at its end, on an error, or when the reader cancels.
+			return Readable.toWeb(handle.createReadStream()) as ReadableStream<Uint8Array>;
 		},
 		async has(key) {
 			return exists(pathOf(key));

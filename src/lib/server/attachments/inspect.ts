@@ -1,6 +1,7 @@
 import { fileTypeFromBuffer } from 'file-type';
 import { imageSize } from 'image-size';
 import { AttachmentRejectedError } from './errors';
+import { gifLayout, LayoutError, tiffLayout } from './imageLayout';
 
 /*
  * What an uploaded file really is, decided from its bytes alone (never its name or the type the
@@ -99,7 +100,7 @@ export async function inspectAttachment(
 	// A structure file was read through by the structure reader before it is kept (gzip
 	// included); here it only has to be the text or gzip it claims to be.
 	if (role === 'structure') return inspectStructure(bytes, detected?.ext);
-	const markup = activeMarkup(bytes);
+	const markup = await activeMarkup(bytes);
 	if (markup && (!detected || detected.ext === 'xml')) {
 		throw new AttachmentRejectedError(
 			415,
@@ -129,12 +130,28 @@ export async function inspectAttachment(
 		);
 	}
 	const ext = detected.ext as ImageExt;
-	const { width, height } = declaredSize(bytes, ext);
-	if (width * height > limits.maxPixels) {
+	const { width, height, largest, decodedPixels, pages } = declaredSize(bytes, ext);
+	if (largest.width * largest.height > limits.maxPixels) {
 		throw new AttachmentRejectedError(
 			422,
 			'too_many_pixels',
-			`The image declares ${width} × ${height} pixels (${megapixels(width * height)} MP); the limit is ${megapixels(limits.maxPixels)} MP. Scale it down before attaching it.`
+			`The image declares ${largest.width} × ${largest.height} pixels${largest.where ? ` (${largest.where})` : ''} (${megapixels(largest.width * largest.height)} MP); the limit is ${megapixels(limits.maxPixels)} MP. Scale it down before attaching it.`
+		);
+	}
+	if (decodedPixels > limits.maxPixels) {
+		throw new AttachmentRejectedError(
+			422,
+			'too_many_pixels',
+			`The ${ext.toUpperCase()} file's images add up to ${megapixels(decodedPixels)} MP; the limit is ${megapixels(limits.maxPixels)} MP. Save the image on its own, without other images in the file.`
+		);
+	}
+	if (pages > 1) {
+		// jimp's TIFF reader decodes every page to show the first, and a stack of pages is not
+		// one figure: the registry shows one image per attachment.
+		throw new AttachmentRejectedError(
+			415,
+			'unsupported_type',
+			`The TIFF file holds ${pages} pages; the registry shows one image per attachment. Save each page as its own file and attach the one that shows the spectrum.`
 		);
 	}
 	if (markup) {
@@ -160,23 +177,94 @@ function megapixels(pixels: number): string {
 	return mp >= 100 ? Math.round(mp).toLocaleString('en-GB') : String(Math.round(mp * 10) / 10);
 }
 
-/** Width and height from the header (image-size reads no pixel data). */
-function declaredSize(bytes: Uint8Array, ext: ImageExt): { width: number; height: number } {
+interface DeclaredSize {
+	/** The size of the image as decoded and shown (a GIF's screen, a TIFF's first page). */
+	width: number;
+	height: number;
+	/** The largest image the file declares anywhere, and where it is when not the first. */
+	largest: { width: number; height: number; where: string | null };
+	/** Pixels the decoder allocates for all the images it decodes together. */
+	decodedPixels: number;
+	/** Full-size pages (a TIFF may hold several; other formats one). */
+	pages: number;
+}
+
+/**
+ * Sizes from the headers, no pixel data read. PNG, JPEG and BMP hold one image, read by
+ * image-size; GIF frames and TIFF directories are walked one by one (imageLayout.ts), since
+ * image-size reports only the GIF's screen and the TIFF's first directory.
+ */
+function declaredSize(bytes: Uint8Array, ext: ImageExt): DeclaredSize {
+	if (ext === 'gif' || ext === 'tif') {
+		try {
+			return ext === 'gif' ? gifSize(bytes) : tiffSize(bytes);
+		} catch (e) {
+			if (e instanceof LayoutError) throw damaged(ext, e.message);
+			throw e;
+		}
+	}
 	let size: ReturnType<typeof imageSize>;
 	try {
 		size = imageSize(bytes);
 	} catch {
 		throw damaged(ext, 'its header cannot be read');
 	}
-	// A multi-image file (GIF frames, TIFF pages) is bounded by its largest image.
-	const all = size.images?.length ? size.images : [size];
-	let width = 0;
-	let height = 0;
-	for (const image of all) {
-		if (!(image.width > 0 && image.height > 0)) throw damaged(ext, 'it declares no size');
-		if (image.width * image.height > width * height) ({ width, height } = image);
+	const { width, height } = size;
+	if (!(width > 0 && height > 0)) throw damaged(ext, 'it declares no size');
+	return {
+		width,
+		height,
+		largest: { width, height, where: null },
+		decodedPixels: width * height,
+		pages: 1
+	};
+}
+
+/**
+ * jimp decodes a GIF's first frame onto a screen-sized image, but omggif allocates that frame
+ * at its own declared size, however much larger than the screen; the other frames are not
+ * decoded, and any of them may become the first in a later decoder, so all are bounded.
+ */
+function gifSize(bytes: Uint8Array): DeclaredSize {
+	const layout = gifLayout(bytes);
+	const { width, height } = layout.screen;
+	if (!(width > 0 && height > 0)) throw damaged('gif', 'it declares no size');
+	if (layout.frames.length === 0) throw damaged('gif', 'it holds no image');
+	if (layout.end !== bytes.byteLength) throw appended('gif', bytes.byteLength - layout.end);
+	let largest: DeclaredSize['largest'] = { width, height, where: null };
+	layout.frames.forEach((f, i) => {
+		if (f.width * f.height > largest.width * largest.height)
+			largest = { ...f, where: `frame ${i + 1}, larger than its ${width} × ${height} screen` };
+	});
+	// jimp's image is the screen; the frame's own buffer is one byte a pixel, bounded above.
+	return { width, height, largest, decodedPixels: width * height, pages: 1 };
+}
+
+/**
+ * Every directory of a TIFF bounded, pages counted. jimp's TIFF reader decodes every page in
+ * the file to show the first, so a second page is a decode image-size would not see; more than
+ * one page is refused after the budget (inspectAttachment). Reduced-resolution copies
+ * (thumbnails a scanner writes beside the page) are accepted and counted in the pixels decoded.
+ */
+function tiffSize(bytes: Uint8Array): DeclaredSize {
+	const directories = tiffLayout(bytes);
+	const pages = directories.filter((d) => d.place === 'page' && !d.reduced).length;
+	const first = directories[0] as { width: number; height: number };
+	let largest: DeclaredSize['largest'] = { width: first.width, height: first.height, where: null };
+	let page = 0;
+	for (const d of directories) {
+		if (d.place === 'page') page++;
+		if (d.width * d.height > largest.width * largest.height)
+			largest = {
+				width: d.width,
+				height: d.height,
+				where: d.place === 'page' ? `page ${page}` : `a sub-image of page ${page}`
+			};
 	}
-	return { width, height };
+	const decodedPixels = directories
+		.filter((d) => d.place === 'page')
+		.reduce((sum, d) => sum + d.width * d.height, 0);
+	return { width: first.width, height: first.height, largest, decodedPixels, pages };
 }
 
 function damaged(ext: string, why: string) {
@@ -252,6 +340,8 @@ function zipInside(bytes: Uint8Array): boolean {
 	return false;
 }
 
+const MARKUP_WINDOW = 1024 * 1024;
+
 /** Tags a browser or a content sniffer would act on, lower case, after their `<`. */
 const SVG_TAGS = ['svg'];
 const HTML_TAGS = ['script', 'html', 'iframe', 'body', '!doctype html', 'object', 'embed'];
@@ -275,12 +365,22 @@ function spells(bytes: Uint8Array, at: number, word: string): boolean {
  * `<` bytes with Buffer.indexOf (native) rather than decoding the file as text, which kept the
  * request thread busy for a tenth of a second on a 7 MB photograph.
  */
-function activeMarkup(bytes: Uint8Array): 'svg' | 'html' | 'script' | null {
+async function activeMarkup(bytes: Uint8Array): Promise<'svg' | 'html' | 'script' | null> {
 	const buffer = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	let html = false;
-	for (let at = buffer.indexOf(0x3c); at !== -1; at = buffer.indexOf(0x3c, at + 1)) {
-		if (SVG_TAGS.some((tag) => spells(bytes, at + 1, tag))) return 'svg';
-		if (!html && HTML_TAGS.some((tag) => spells(bytes, at + 1, tag))) html = true;
+	// A megabyte at a time with a turn of the event loop between: a compressed photograph has a
+	// `<` every 256 bytes or so, and other requests should not wait for all of them at once.
+	for (let from = 0; from < buffer.byteLength; from += MARKUP_WINDOW) {
+		if (from > 0) await new Promise<void>((resolve) => setImmediate(resolve));
+		const end = Math.min(buffer.byteLength, from + MARKUP_WINDOW);
+		for (
+			let at = buffer.indexOf(0x3c, from);
+			at !== -1 && at < end;
+			at = buffer.indexOf(0x3c, at + 1)
+		) {
+			if (SVG_TAGS.some((tag) => spells(bytes, at + 1, tag))) return 'svg';
+			if (!html && HTML_TAGS.some((tag) => spells(bytes, at + 1, tag))) html = true;
+		}
 	}
 	if (html) return 'html';
 	let start = 0;

@@ -1,4 +1,5 @@
 import { Jimp } from 'jimp';
+import { decodeJpeg } from './jpegDecoder';
 
 /*
  * The two renditions shown in the app: a preview (at most 1280 px on its longer side) and a
@@ -39,16 +40,99 @@ function imageOf(pixels: Pixels): InstanceType<typeof Jimp> {
 }
 
 /**
- * Shrinks by a whole factor, each output pixel the mean of a factor × factor block (a box
- * filter): one pass over the pixels, where jimp's interpolating resize of a 12 MP photograph
- * took longer than decoding it. The exact size is then reached by a bilinear step over at most
- * twice the target, which a box before it keeps free of aliasing.
+ * For each of `to` output positions along an axis of `from` input positions (to ≤ from), the
+ * input positions it covers and the share of each: output i covers [i·s, (i+1)·s) with
+ * s = from / to, the inputs at its two ends counting for the part inside. Shares sum to 1.
+ */
+function coverage(from: number, to: number) {
+	const scale = from / to;
+	const starts = new Int32Array(to + 1);
+	const taps: number[] = [];
+	const shares: number[] = [];
+	for (let i = 0; i < to; i++) {
+		starts[i] = taps.length;
+		const a = i * scale;
+		const b = Math.min(from, (i + 1) * scale);
+		for (let k = Math.floor(a); k < b; k++) {
+			const share = (Math.min(k + 1, b) - Math.max(k, a)) / scale;
+			if (share > 1e-9) {
+				taps.push(k);
+				shares.push(share);
+			}
+		}
+	}
+	starts[to] = taps.length;
+	return { starts, taps: Int32Array.from(taps), shares: Float32Array.from(shares) };
+}
+
+/**
+ * Shrinks to width × height by area averaging: each output pixel the mean of the input area it
+ * covers, edges weighted by the part inside (a box filter of fractional width), one horizontal
+ * pass over the input rows then one vertical pass. Free of aliasing at any ratio. It replaced
+ * jimp's interpolating resize here: that took longer than decoding a 12 MP photograph, and even
+ * the last 1333 → 1280 px step after a whole-factor box took 0.25 s; this one takes a few ms.
+ */
+function areaShrink(source: Pixels, width: number, height: number): Pixels {
+	const sw = source.width;
+	const sh = source.height;
+	const src = source.data;
+	const h = coverage(sw, width);
+	const v = coverage(sh, height);
+	// Horizontal pass: every input row to `width` pixels, kept as floats for the second pass.
+	const rows = new Float32Array(width * sh * 4);
+	for (let y = 0; y < sh; y++) {
+		const inRow = y * sw * 4;
+		const outRow = y * width * 4;
+		for (let x = 0; x < width; x++) {
+			let r = 0;
+			let g = 0;
+			let b = 0;
+			let a = 0;
+			for (let t = h.starts[x] as number, end = h.starts[x + 1] as number; t < end; t++) {
+				const i = inRow + (h.taps[t] as number) * 4;
+				const share = h.shares[t] as number;
+				r += (src[i] as number) * share;
+				g += (src[i + 1] as number) * share;
+				b += (src[i + 2] as number) * share;
+				a += (src[i + 3] as number) * share;
+			}
+			const o = outRow + x * 4;
+			rows[o] = r;
+			rows[o + 1] = g;
+			rows[o + 2] = b;
+			rows[o + 3] = a;
+		}
+	}
+	// Vertical pass: rows of the first pass, averaged into the output rows. A clamped view rounds
+	// each sum to the nearest byte.
+	const dst = Buffer.alloc(width * height * 4);
+	const out = new Uint8ClampedArray(dst.buffer, dst.byteOffset, dst.byteLength);
+	const line = width * 4;
+	const sum = new Float32Array(line);
+	for (let y = 0; y < height; y++) {
+		sum.fill(0);
+		for (let t = v.starts[y] as number, end = v.starts[y + 1] as number; t < end; t++) {
+			const from = (v.taps[t] as number) * line;
+			const share = v.shares[t] as number;
+			for (let i = 0; i < line; i++)
+				sum[i] = (sum[i] as number) + (rows[from + i] as number) * share;
+		}
+		out.set(sum, y * line);
+	}
+	return { data: dst, width, height };
+}
+
+/**
+ * Shrinks by a whole factor, each output pixel the mean of a factor × factor block: integer sums
+ * in one pass, a third of the area pass's cost on a 12 MP photograph. Up to factor − 1 pixels at
+ * the right and bottom edges are left out.
  */
 function boxShrink(source: Pixels, factor: number): Pixels {
 	const width = Math.floor(source.width / factor);
 	const height = Math.floor(source.height / factor);
 	const src = source.data;
 	const dst = Buffer.alloc(width * height * 4);
+	const out = new Uint8ClampedArray(dst.buffer, dst.byteOffset, dst.byteLength);
 	const rowBytes = source.width * 4;
 	const area = factor * factor;
 	for (let y = 0; y < height; y++) {
@@ -67,23 +151,29 @@ function boxShrink(source: Pixels, factor: number): Pixels {
 				}
 			}
 			const o = (y * width + x) * 4;
-			dst[o] = r / area;
-			dst[o + 1] = g / area;
-			dst[o + 2] = b / area;
-			dst[o + 3] = a / area;
+			out[o] = r / area;
+			out[o + 1] = g / area;
+			out[o + 2] = b / area;
+			out[o + 3] = a / area;
 		}
 	}
 	return { data: dst, width, height };
 }
 
+/**
+ * At most `px` on the longer side, never enlarged: a whole-factor box first where the ratio
+ * allows (it stays at least the target size), then area averaging to the exact size.
+ */
 function fit(pixels: Pixels, px: number): Pixels {
 	const longer = Math.max(pixels.width, pixels.height);
 	if (longer <= px) return pixels;
-	const factor = Math.floor(longer / px); // the box never takes it below the target
-	const shrunk = factor >= 2 ? boxShrink(pixels, factor) : pixels;
-	if (Math.max(shrunk.width, shrunk.height) <= px) return shrunk;
-	const image = imageOf(shrunk).scaleToFit({ w: px, h: px });
-	return { data: image.bitmap.data, width: image.width, height: image.height };
+	const scale = px / longer;
+	const width = Math.max(1, Math.round(pixels.width * scale));
+	const height = Math.max(1, Math.round(pixels.height * scale));
+	const factor = Math.floor(Math.min(pixels.width / width, pixels.height / height));
+	const boxed = factor >= 2 ? boxShrink(pixels, factor) : pixels;
+	if (boxed.width === width && boxed.height === height) return boxed;
+	return areaShrink(boxed, width, height);
 }
 
 async function encode(pixels: Pixels, mime: Rendition['mime']): Promise<Rendition> {
@@ -95,16 +185,33 @@ async function encode(pixels: Pixels, mime: Rendition['mime']): Promise<Renditio
 	return { bytes: new Uint8Array(bytes), mime, width: pixels.width, height: pixels.height };
 }
 
-/** Decodes `original` (already inspected: a supported type, within the pixel budget). */
-export async function makeRenditions(original: Uint8Array, photo: boolean): Promise<Renditions> {
+const isJpeg = (bytes: Uint8Array) => bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff;
+
+/**
+ * RGBA pixels of an inspected image: JPEG by mozjpeg (jpegDecoder.ts), the rest by jimp. A JPEG
+ * mozjpeg will not turn into RGBA (CMYK and YCCK, as print software saves them) goes to jimp's
+ * own decoder, which converts those; only a file neither can read is refused.
+ */
+async function decode(original: Uint8Array): Promise<Pixels> {
+	if (isJpeg(original)) {
+		try {
+			return await decodeJpeg(original);
+		} catch {
+			// Falls through to jimp.
+		}
+	}
 	const decoded = await Jimp.read(
 		Buffer.from(original.buffer, original.byteOffset, original.byteLength)
 	);
-	const pixels: Pixels = {
-		data: decoded.bitmap.data,
-		width: decoded.width,
-		height: decoded.height
-	};
+	return { data: decoded.bitmap.data, width: decoded.width, height: decoded.height };
+}
+
+/**
+ * Decodes `original` (already inspected: a supported type, within the pixel budget) once, and
+ * makes both renditions from that one decode.
+ */
+export async function makeRenditions(original: Uint8Array, photo: boolean): Promise<Renditions> {
+	const pixels = await decode(original);
 	const mime = photo ? 'image/jpeg' : 'image/png';
 	const previewPixels = fit(pixels, PREVIEW_PX);
 	const preview = await encode(previewPixels, mime);

@@ -78,6 +78,15 @@ export function s3Store(options: S3StoreOptions): BlobStore {
 				throw e;
 			}
 		},
+		async getStream(key) {
+			try {
+				const answer = await client.send(new GetObjectCommand({ Bucket, Key: nameOf(key) }));
+				return answer.Body ? answer.Body.transformToWebStream() : null;
+			} catch (e) {
+				if (missing(e)) return null;
+				throw e;
+			}
+		},
 		has,
 		async delete(key) {
 			await client.send(new DeleteObjectCommand({ Bucket, Key: nameOf(key) }));

@@ -23,8 +23,13 @@ export interface BlobStore {
 	 * resolves; a key already present is left as it is.
 	 */
 	put(key: BlobKey, bytes: Uint8Array, contentType: string): Promise<void>;
-	/** The bytes under `key`, or null when there are none. */
+	/** The bytes under `key`, or null when there are none (whole, in memory: for small files). */
 	get(key: BlobKey): Promise<Uint8Array | null>;
+	/**
+	 * The bytes under `key` as a stream read as the consumer pulls, or null when there are none:
+	 * what downloads use, so that many of them at once hold a few chunks each, not whole files.
+	 */
+	getStream(key: BlobKey): Promise<ReadableStream<Uint8Array> | null>;
 	has(key: BlobKey): Promise<boolean>;
 	/** Removes `key`; removing a missing key is not an error. */
 	delete(key: BlobKey): Promise<void>;
