@@ -105,6 +105,11 @@ export async function readAttachmentForm(
 	}
 	if (values.referenceElectrode !== undefined)
 		conditions.referenceElectrode = values.referenceElectrode;
+	if (values.kind === 'structure')
+		add(
+			'kind',
+			'structure files are kept through the structure upload (/submissions/upload/structure), which reads them'
+		);
 	let meta: AttachmentMeta | null = null;
 	const parsed = attachmentMetaSchema.safeParse({
 		kind: values.kind,
