@@ -15,7 +15,7 @@ import {
 	type AttachInput
 } from '$lib/server/attachments/submissionAttachments';
 import type { SessionUser } from '$lib/server/auth/roles';
-import { approveVersion } from '$lib/server/catalogue/entries';
+import { addVersion, approveVersion, createEntry } from '$lib/server/catalogue/entries';
 import { createDraft, submitForReview } from '$lib/server/curation/submissions';
 import type { Database } from '$lib/server/db/schema';
 import { HTML_PAGE, pngOf } from '../support/hostileFiles';
@@ -227,6 +227,46 @@ describe('attaching files to a submission', () => {
 		});
 		expect(await counts()).toEqual(before);
 		expect(await attachmentsOfVersion(db, version.id)).toHaveLength(MAX_ATTACHMENTS_PER_VERSION);
+	});
+
+	it('needs `entry` when the submission holds several versions, and attaches to the one named', async () => {
+		const { submissionId, accession: first } = await draft();
+		const second = await tx(async (trx) => {
+			const entry = await createEntry(trx, {
+				kind: 'protein',
+				visibility: 'public',
+				groupId: null,
+				createdBy: owner.id
+			});
+			const versionId = await addVersion(trx, entry.id, protein('Second').data, {
+				status: 'draft',
+				submissionId,
+				createdBy: owner.id
+			});
+			return { accession: entry.accession, versionId };
+		});
+		const before = await counts();
+		await expect(attachToSubmission(db, deps, owner, submissionId, epr())).rejects.toMatchObject({
+			code: 'bad_request',
+			fields: { entry: [expect.stringMatching(/several entries: name the one/)] }
+		});
+		await expect(
+			attachToSubmission(db, deps, owner, submissionId, epr({ accession: 'HL999998' }))
+		).rejects.toMatchObject({
+			fields: { entry: [`HL999998 is not in submission ${submissionId}`] }
+		});
+		expect(await counts()).toEqual(before);
+		const { attachment } = await attachToSubmission(
+			db,
+			deps,
+			owner,
+			submissionId,
+			epr({ accession: second.accession })
+		);
+		expect((await attachmentsOfVersion(db, second.versionId)).map((a) => a.id)).toEqual([
+			attachment.id
+		]);
+		expect(first).not.toBe(second.accession);
 	});
 
 	it('removes a file from a draft, and refuses others and unknown ids', async () => {

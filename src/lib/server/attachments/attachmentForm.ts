@@ -55,7 +55,10 @@ export type AttachmentFormResult =
 	| { ok: true; input: AttachInput; values: AttachmentFormValues }
 	| { ok: false; status: 400 | 413; errors: FieldErrors; values: AttachmentFormValues };
 
-const megabytes = (n: number) => `${Math.round((n / 1024 / 1024) * 10) / 10} MB`;
+const bytes = (n: number) => n.toLocaleString('en-GB').replace(/,/g, '\u202f');
+/** "1 048 577 bytes; the limit is 1 048 576 bytes (1.0 MB)": exact, since MB round alike. */
+const overLimit = (what: string, size: number, limit: number) =>
+	`${what} is ${bytes(size)} bytes; the limit is ${bytes(limit)} bytes (${(limit / 1024 / 1024).toFixed(1)} MB)`;
 
 /** A File that was chosen (a browser sends an empty, nameless one for a file input left alone). */
 function chosen(v: FormDataEntryValue | null): File | null {
@@ -138,13 +141,9 @@ export async function readAttachmentForm(
 	// Sizes as sent, before the bytes are read (the request as a whole was bounded before).
 	const tooLarge: FieldErrors = {};
 	if (image && image.size > limits.maxBytes)
-		tooLarge.file = [
-			`the image is ${megabytes(image.size)}; the limit is ${megabytes(limits.maxBytes)}`
-		];
+		tooLarge.file = [overLimit('the image', image.size, limits.maxBytes)];
 	if (numbers && numbers.size > SPECTRUM_MAX_BYTES)
-		tooLarge.numbers = [
-			`the numbers file is ${megabytes(numbers.size)}; the limit is ${megabytes(SPECTRUM_MAX_BYTES)}`
-		];
+		tooLarge.numbers = [overLimit('the numbers file', numbers.size, SPECTRUM_MAX_BYTES)];
 	if (Object.keys(tooLarge).length > 0) return { ok: false, status: 413, errors: tooLarge, values };
 
 	const read = async (f: File) => ({
