@@ -266,6 +266,32 @@ describe('the attachments API, driven by curl', () => {
 		});
 	});
 
+	it('answers the page’s action over the limit beside its file field (413)', async () => {
+		const id = await newDraft('Large page protein');
+		const big = join(dir, 'big-page.png');
+		writeFileSync(big, Buffer.alloc(2 * MAX_BYTES + 200 * 1024, 7));
+		const res = await curl([
+			'-H',
+			`Cookie: ${cookie}`,
+			'-H',
+			`Origin: ${base}`,
+			'-H',
+			'x-sveltekit-action: true',
+			'-F',
+			'kind=other',
+			'-F',
+			'caption=x',
+			'-F',
+			`file=@${big};type=image/png`,
+			`${base}/submissions/${id}?/attach`
+		]);
+		const result = JSON.parse(res.body) as { type: string; status: number; data: string };
+		expect(result).toMatchObject({ type: 'failure', status: 413 });
+		expect(result.data).toMatch(
+			/the limit is 1\.0 MB for the image and 1\.0 MB for its numbers file/
+		);
+	});
+
 	it('answers a declared length over the limit before any of the body is sent', async () => {
 		const id = await newDraft('Declared protein');
 		// A raw request: headers only, declaring 200 MB, and not one byte of body.
