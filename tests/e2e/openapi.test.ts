@@ -286,7 +286,7 @@ describe('answers of every operation validate against the document', () => {
 			form.set('caption', 'Protein-film voltammogram, 20 mV/s');
 			form.set('scanRateMvPerS', '20');
 			form.set('referenceElectrode', 'SHE');
-			form.set('file', new Blob([file], { type: 'image/png' }), name);
+			form.set('file', new Blob([Buffer.from(file)], { type: 'image/png' }), name);
 			return { method: 'POST', headers: { origin: base, cookie: contributor }, body: form };
 		};
 		// The example goes straight into review, where files are frozen (409): a draft takes them.
