@@ -141,6 +141,22 @@ export const MUTATIONS: Mutation[] = [
 		allowed: { status: 400, code: 'bad_request' }
 	},
 	{
+		file: 'api/v1/submissions/[id=id]/attachments/+server.ts',
+		name: 'POST',
+		url: '/api/v1/submissions/999999/attachments',
+		least: 'contributor',
+		body: { json: {} },
+		allowed: { status: 404, code: 'not_found' }
+	},
+	{
+		file: 'api/v1/submissions/[id=id]/attachments/[attachmentId=id]/+server.ts',
+		name: 'DELETE',
+		url: '/api/v1/submissions/999999/attachments/1',
+		least: 'contributor',
+		body: { json: {} },
+		allowed: { status: 404, code: 'not_found' }
+	},
+	{
 		file: 'api/v1/[...rest]/+server.ts',
 		name: 'fallback',
 		url: '/api/v1/nothing-here',
@@ -197,14 +213,17 @@ export const MUTATIONS: Mutation[] = [
 		body: {},
 		allowed: invalid
 	})),
-	...(['save', 'submit', 'check', 'lookup', 'withdraw', 'comment'] as const).map((name) => ({
+	...(
+		['save', 'submit', 'check', 'lookup', 'withdraw', 'comment', 'attach', 'detach'] as const
+	).map((name) => ({
 		file: '(app)/submissions/[id=id]/+page.server.ts',
 		name,
 		url: `/submissions/999999?/${name}`,
 		least: 'contributor' as const,
 		body: {},
-		// An unknown submission is looked up before anything else; a lookup or comment is read first.
-		allowed: name === 'lookup' || name === 'comment' ? invalid : noSubmission
+		// An unknown submission is looked up before anything else; a lookup, a comment and the
+		// file to remove are read first.
+		allowed: name === 'lookup' || name === 'comment' || name === 'detach' ? invalid : noSubmission
 	})),
 	...(['decide', 'batch', 'comment'] as const).map((name) => ({
 		file: '(curation)/review/[id=id]/+page.server.ts',

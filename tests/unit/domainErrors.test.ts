@@ -45,6 +45,10 @@ import { orNotFound, toApiResponse, toFormFailure } from '$lib/server/http/failu
 import { UploadHasErrorsError } from '$lib/server/uploads/commitUpload';
 import { StructureFileError } from '$lib/server/structures/readStructureFile';
 import { StructureBusyError } from '$lib/server/structures/flow';
+import {
+	AttachmentFileError,
+	AttachmentNotFoundError
+} from '$lib/server/attachments/submissionAttachments';
 import { z } from 'zod';
 
 /**
@@ -195,6 +199,18 @@ const CASES: Record<string, Case> = {
 		code: 'unavailable',
 		retryAfter: '5'
 	},
+	// DEVELOPERS.md, "Attachments": a refused file beside its field, with the inspector's status.
+	AttachmentFileError: {
+		error: new AttachmentFileError('file', 'active_content', 415, 'SVG images are not accepted.'),
+		status: 415,
+		code: 'unsupported_media_type',
+		fields: { file: ['SVG images are not accepted.'] }
+	},
+	AttachmentNotFoundError: {
+		error: new AttachmentNotFoundError(31, 57),
+		status: 404,
+		code: 'not_found'
+	},
 	CsvLimitError: {
 		error: new CsvLimitError('columns', 200, 1, 'Row 1 has more than 200 columns'),
 		status: 413,
@@ -270,7 +286,11 @@ describe('domain errors', () => {
 			expect(failure.data).toEqual({
 				values,
 				errors:
-					c.status === 400 || c.status === 413
+					// A refused file (415, or 422 unreadable) is shown beside its field as well.
+					c.status === 400 ||
+					c.status === 413 ||
+					c.code === 'unsupported_media_type' ||
+					c.code === 'unprocessable_content'
 						? (c.fields ?? { form: [c.error.message] })
 						: { form: [c.error.message] }
 			});

@@ -11,8 +11,15 @@ export const API_ERROR_CODES = {
 	/** A body sent without Content-Length (its size must be known before it is read). */
 	length_required: 411,
 	payload_too_large: 413,
+	/** A file of a type the registry does not accept (an attachment's type is read from its bytes). */
+	unsupported_media_type: 415,
 	/** A calculation stopped at its time limit (CALC_TIME_LIMIT_MS). */
 	time_limit_exceeded: 422,
+	/**
+	 * A file of an accepted type that cannot be read (a damaged image, an unplottable numbers
+	 * file). Listed after time_limit_exceeded, which stays the code of a bare 422.
+	 */
+	unprocessable_content: 422,
 	/** Too many calculations from one address without an account; see Retry-After. */
 	too_many_requests: 429,
 	internal_error: 500,

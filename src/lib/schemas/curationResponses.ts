@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ENTRY_KINDS, UPLOAD_KINDS } from '$lib/kinds';
 import { ROLES } from '$lib/roles';
 import { ACCESSION_PATTERN } from './accession';
+import { attachmentAnswerSchema } from './attachmentResponse';
 import { REVIEW_DECISIONS, SUBMISSION_STATES } from './submission';
 import { versionWarningSchema } from './versionWarning';
 import { VISIBILITIES } from './vocabulary';
@@ -92,6 +93,24 @@ export const submissionViewSchema = z.strictObject({
 	)
 });
 export type SubmissionView = z.infer<typeof submissionViewSchema>;
+
+/**
+ * A submission as the API answers it: each version with the files it carries, in order (a
+ * proposed change starts with its base version's). The attachments are added at the boundary
+ * (attachments/submissionAttachments.ts), above curation in the import layers.
+ */
+export const submissionWithFilesSchema = submissionViewSchema.extend({
+	versions: z
+		.array(
+			versionViewSchema.extend({
+				attachments: z
+					.array(attachmentAnswerSchema)
+					.describe('The files this version carries, in order.')
+			})
+		)
+		.describe('The versions of a form submission; empty for a CSV batch (read it on its page).')
+});
+export type SubmissionWithFiles = z.infer<typeof submissionWithFilesSchema>;
 
 export const submissionCreatedSchema = z.strictObject({
 	id,

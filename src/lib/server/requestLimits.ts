@@ -1,5 +1,6 @@
 import type { IncomingMessage } from 'node:http';
 import type { Handle } from '@sveltejs/kit';
+import { SPECTRUM_MAX_BYTES } from '$lib/schemas/spectrumData';
 import { config } from './config';
 import { withHeaders } from './http/headers';
 
@@ -33,12 +34,62 @@ export function bodyLimitFor(pathname: string): { bytes: number; upload: boolean
 	};
 }
 
+/**
+ * Where files are attached to a submission: the submission page's `attach` action and the API.
+ * One request carries an image (ATTACHMENT_MAX_BYTES), its numbers file (SPECTRUM_MAX_BYTES) and
+ * a few text fields.
+ */
+const ATTACH_API_PATH = /^\/api\/v1\/submissions\/\d+\/attachments$/;
+const ATTACH_PAGE_PATH = /^\/submissions\/\d+$/;
+const ATTACHMENT_FIELDS_OVERHEAD = 64 * 1024;
+
+/** Whether a request attaches a file to a submission (page action or API). */
+export function isAttachRequest(url: URL): boolean {
+	return (
+		ATTACH_API_PATH.test(url.pathname) ||
+		(ATTACH_PAGE_PATH.test(url.pathname) && url.search.startsWith('?/attach'))
+	);
+}
+
+/** The largest request that attaches a file: both files at their limits and the fields. */
+export function attachRequestLimit(): number {
+	return config.ATTACHMENT_MAX_BYTES + SPECTRUM_MAX_BYTES + ATTACHMENT_FIELDS_OVERHEAD;
+}
+
+/**
+ * The refusal of an attaching request by its declared length, or null when it fits: the message
+ * names the limits of both files.
+ */
+export function attachTooLargeMessage(requestBytes: number): string | null {
+	// Not attachments/inspect.ts's checkDeclaredSize: that folder sits above uploads, which
+	// imports this file (DEVELOPERS.md, "Import layers").
+	if (requestBytes <= attachRequestLimit()) return null;
+	return `The upload is ${megabytes(requestBytes)}; the limit is ${megabytes(config.ATTACHMENT_MAX_BYTES)} for the image and ${megabytes(SPECTRUM_MAX_BYTES)} for its numbers file.`;
+}
+
 export const limitRequestSize: Handle = async ({ event, resolve }) => {
 	const method = event.request.method;
 	if (method === 'GET' || method === 'HEAD' || method === 'OPTIONS') return resolve(event);
-	const limit = bodyLimitFor(event.url.pathname);
 	const header = event.request.headers.get('content-length');
 	const length = header === null ? null : Number(header);
+	if (isAttachRequest(event.url)) {
+		if (length === null && event.request.body !== null)
+			return Response.json(
+				{
+					error: { code: 'length_required', message: 'Send a Content-Length header with the body.' }
+				},
+				{ status: 411 }
+			);
+		const message = length === null ? null : attachTooLargeMessage(length);
+		if (message === null) return resolve(event);
+		// The page's action answers beside its file field, still without reading the body.
+		if (!event.url.pathname.startsWith('/api/')) return resolve(event);
+		return Response.json(
+			{ error: { code: 'payload_too_large', message, fields: { file: [message] } } },
+			{ status: 413 }
+		);
+	}
+	const limit = bodyLimitFor(event.url.pathname);
 	if (length === null && event.request.body !== null) {
 		return Response.json(
 			{

@@ -253,24 +253,8 @@ export async function unlistFromVersion(
 		.execute();
 }
 
-/** A proposed change starts with its base version's list (call when the change is created). */
-export async function carryForward(
-	db: Kysely<Database>,
-	fromVersionId: number,
-	toVersionId: number
-): Promise<void> {
-	const rows = await db
-		.selectFrom('entry_version_attachment')
-		.select(['attachment_id', 'position'])
-		.where('entry_version_id', '=', fromVersionId)
-		.execute();
-	if (rows.length === 0) return;
-	await db
-		.insertInto('entry_version_attachment')
-		.values(rows.map((r) => ({ ...r, entry_version_id: toVersionId })))
-		.onConflict((oc) => oc.columns(['entry_version_id', 'attachment_id']).doNothing())
-		.execute();
-}
+// Moved below curation, which calls it (see the file); still part of this module's API.
+export { carryForward } from '../catalogue/versionAttachments';
 
 function attachmentQuery(db: Kysely<Database>) {
 	return db

@@ -13,6 +13,8 @@ import type { ApiTokenScope } from '$lib/schemas/apiTokenScopes';
 export const TOKEN_WRITE_ROUTES: Record<string, ApiTokenScope | null> = {
 	'POST /api/v1/submissions': 'read+submit',
 	'POST /api/v1/uploads/check': 'read+submit',
+	'POST /api/v1/submissions/[id=id]/attachments': 'read+submit',
+	'DELETE /api/v1/submissions/[id=id]/attachments/[attachmentId=id]': 'read+submit',
 	// Calculations change nothing; a token spares its holder the per-address limit of callers
 	// without an account.
 	'POST /api/v1/calc/titration': 'read',

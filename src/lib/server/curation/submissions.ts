@@ -12,6 +12,7 @@ import {
 	type VisibilityChange
 } from '../catalogue/entries';
 import { checkEntryReferences } from '../catalogue/references';
+import { carryForward } from '../catalogue/versionAttachments';
 import { findVisibleEntry, notVisibleMessage } from '../catalogue/visibleEntry';
 import { viewerOf } from '../catalogue/visibility';
 import {
@@ -109,13 +110,26 @@ export async function createDraft(
 		})
 		.returning('id')
 		.executeTakeFirstOrThrow();
-	await addVersion(trx, entry.id, input.entry.data, {
+	const versionId = await addVersion(trx, entry.id, input.entry.data, {
 		status: 'draft',
 		submissionId,
 		createdBy: user.id,
 		changeNote: input.changeNote,
 		visibility: input.visibility
 	});
+	// A proposed change starts with the files of the version it changes; the contributor may
+	// remove them from the proposal (never from the approved version, whose list is frozen).
+	if (input.editAccession) {
+		const base = await trx
+			.selectFrom('entry_version')
+			.select('id')
+			.where('entry_id', '=', entry.id)
+			.where('status', '=', 'approved')
+			.orderBy('version', 'desc')
+			.limit(1)
+			.executeTakeFirst();
+		if (base) await carryForward(trx, base.id, versionId);
+	}
 	await writeAudit(trx, {
 		actorId: user.id,
 		action: 'submission.create',

@@ -48,6 +48,8 @@ export function toFormFailure<V extends Record<string, string>>(
 		case 'bad_request':
 		case 'length_required':
 		case 'payload_too_large':
+		case 'unsupported_media_type':
+		case 'unprocessable_content':
 			return fail(status, withValues(values, e.fields ?? { form: [e.message] }));
 		case 'conflict':
 		case 'time_limit_exceeded':

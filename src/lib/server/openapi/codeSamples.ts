@@ -16,7 +16,7 @@ export interface CodeSample {
 const TOKEN_VARIABLE = 'HOPLINE_TOKEN';
 
 interface SampleRequest {
-	method: 'GET' | 'POST';
+	method: 'GET' | 'POST' | 'DELETE';
 	url: string;
 	query: [string, ExampleValue][];
 	body: ApiOperation['body'];
@@ -36,7 +36,7 @@ function requestOf(op: ApiOperation, apiBase: string): SampleRequest {
 		return encodeURIComponent(String(value));
 	});
 	return {
-		method: op.method === 'get' ? 'GET' : 'POST',
+		method: op.method === 'get' ? 'GET' : op.method === 'post' ? 'POST' : 'DELETE',
 		url: apiBase + (path === '/' ? '' : path),
 		query: Object.entries(example).filter(([name]) => !pathNames.has(name)),
 		body: op.body,
@@ -44,6 +44,17 @@ function requestOf(op: ApiOperation, apiBase: string): SampleRequest {
 		isList: op.success.schema?.endsWith('Page') ?? false,
 		isCsv: op.success.csvOnly !== undefined
 	};
+}
+
+/** The file parts of a multipart body and their types (a CSV `file` unless the body says). */
+function fileTypes(body: NonNullable<ApiOperation['body']>): Record<string, string> {
+	if (body.mediaType !== 'multipart/form-data') return {};
+	return Object.fromEntries(
+		Object.entries(body.encoding ?? { file: { contentType: 'text/csv' } }).map(([k, v]) => [
+			k,
+			v.contentType
+		])
+	);
 }
 
 const queryValue = (v: ExampleValue) => (Array.isArray(v) ? v.join(',') : String(v));
@@ -58,16 +69,18 @@ function urlWithQuery(r: SampleRequest): string {
 const shellQuote = (s: string) => `'${s.replaceAll("'", `'\\''`)}'`;
 
 function curl(r: SampleRequest): string {
-	const lines = [`curl -sS${r.method === 'POST' ? ' -X POST' : ''} ${shellQuote(urlWithQuery(r))}`];
+	const lines = [
+		`curl -sS${r.method === 'GET' ? '' : ` -X ${r.method}`} ${shellQuote(urlWithQuery(r))}`
+	];
 	if (r.needsToken) lines.push(`-H "Authorization: Bearer $${TOKEN_VARIABLE}"`);
 	if (r.body?.mediaType === 'application/json') {
 		lines.push(`-H 'Content-Type: application/json'`);
 		lines.push(`--data ${shellQuote(JSON.stringify(r.body.example, null, 2))}`);
 	} else if (r.body) {
+		const files = fileTypes(r.body);
 		for (const [name, value] of Object.entries(r.body.example as Record<string, string>)) {
-			lines.push(
-				`-F ${shellQuote(name === 'file' ? `file=@${value};type=text/csv` : `${name}=${value}`)}`
-			);
+			const type = files[name];
+			lines.push(`-F ${shellQuote(type ? `${name}=@${value};type=${type}` : `${name}=${value}`)}`);
 		}
 	}
 	return lines.join(' \\\n  ');
@@ -115,18 +128,26 @@ function python(r: SampleRequest): string {
 	if (r.needsToken)
 		args.push(`headers={"Authorization": f"Bearer {os.environ['${TOKEN_VARIABLE}']}"}`);
 	const multipart = r.body?.mediaType === 'multipart/form-data';
-	const { file, ...fields } = multipart ? (r.body?.example as Record<string, string>) : {};
+	const types = r.body ? fileTypes(r.body) : {};
+	const example = multipart ? (r.body?.example as Record<string, string>) : {};
+	const fields = Object.fromEntries(Object.entries(example).filter(([k]) => !types[k]));
+	const files = Object.entries(example).filter(([k]) => types[k]);
 	if (r.body?.mediaType === 'application/json')
 		args.push(`json=${pythonLiteral(r.body.example, 1)}`);
 	if (multipart) {
 		args.push(`data=${pythonLiteral(fields, 1)}`);
-		args.push(`files={"file": (${JSON.stringify(file)}, f, "text/csv")}`);
+		const parts = files.map(
+			([k, v], i) =>
+				`${JSON.stringify(k)}: (${JSON.stringify(v)}, f${i}, ${JSON.stringify(types[k])})`
+		);
+		args.push(`files={${parts.join(', ')}}`);
 	}
 	args.push('timeout=60');
 	const call = [`r = requests.${r.method.toLowerCase()}(`, ...args.map((a) => `    ${a},`), ')'];
 	const lines = [...imports, ''];
 	if (multipart) {
-		lines.push(`with open(${JSON.stringify(file)}, "rb") as f:`);
+		const opens = files.map(([, v], i) => `open(${JSON.stringify(v)}, "rb") as f${i}`);
+		lines.push(`with ${opens.join(', ')}:`);
 		lines.push(
 			...call
 				.join('\n')
@@ -147,6 +168,8 @@ function python(r: SampleRequest): string {
 		lines.push(
 			'print(page["total"], "rows match;", len(df), "in this page; next:", page["links"]["next"])'
 		);
+	} else if (r.method === 'DELETE') {
+		lines.push('print(r.status_code)');
 	} else {
 		lines.push('print(r.json())');
 	}
@@ -165,14 +188,16 @@ function r(r: SampleRequest): string {
 		lines.push(`  req_url_query(${args.join(', ')}) |>`);
 	}
 	if (r.needsToken) lines.push(`  req_auth_bearer_token(Sys.getenv("${TOKEN_VARIABLE}")) |>`);
+	if (r.method === 'DELETE') lines.push('  req_method("DELETE") |>');
 	if (r.body?.mediaType === 'application/json') {
 		lines.push(
 			`  req_body_raw(${rQuote(JSON.stringify(r.body.example, null, 2))}, type = "application/json") |>`
 		);
 	} else if (r.body) {
+		const types = fileTypes(r.body);
 		const parts = Object.entries(r.body.example as Record<string, string>).map(([k, v]) =>
-			k === 'file'
-				? `file = curl::form_file(${rQuote(v)}, type = "text/csv")`
+			types[k]
+				? `${k} = curl::form_file(${rQuote(v)}, type = ${rQuote(types[k])})`
 				: `${k} = ${rQuote(v)}`
 		);
 		lines.push(`  req_body_multipart(${parts.join(', ')}) |>`);
@@ -188,6 +213,8 @@ function r(r: SampleRequest): string {
 		lines.push('page <- jsonlite::fromJSON(resp_body_string(resp), flatten = TRUE)');
 		lines.push('items <- page$items');
 		lines.push('cat(page$total, "rows match;", NROW(items), "in this page\\n")');
+	} else if (r.method === 'DELETE') {
+		lines.push('print(resp_status(resp))');
 	} else {
 		lines.push('answer <- jsonlite::fromJSON(resp_body_string(resp))');
 		lines.push('str(answer)');

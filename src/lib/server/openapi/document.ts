@@ -67,9 +67,15 @@ const ERROR_RESPONSES: Record<number, { name: string; description: string; retry
 		name: 'PayloadTooLarge',
 		description: 'The body or file is larger than the server accepts.'
 	},
+	415: {
+		name: 'UnsupportedMediaType',
+		description:
+			'The file is of a type the registry does not accept, read from its bytes (SVG, HTML, scripts, archives, polyglots).'
+	},
 	422: {
-		name: 'TimeLimitExceeded',
-		description: 'The calculation ran past its time limit and was stopped.'
+		name: 'UnprocessableContent',
+		description:
+			'The calculation ran past its time limit and was stopped, or a file of an accepted type cannot be read (a damaged image, a numbers file that cannot be plotted).'
 	},
 	429: {
 		name: 'TooManyRequests',
@@ -217,6 +223,7 @@ function parameters(op: ApiOperation): OpenApiParameter[] {
 
 function successResponse(op: ApiOperation): OpenApiResponse {
 	const { success } = op;
+	if (success.status === 204) return { description: success.description };
 	const example = typeof success.example === 'function' ? success.example() : success.example;
 	if (success.csvOnly)
 		return {
@@ -280,7 +287,7 @@ function operation(op: ApiOperation, apiBase: string): OpenApiOperation {
 							[body.mediaType]: {
 								schema: requestSchema(body.schema),
 								...(body.mediaType === 'multipart/form-data'
-									? { encoding: { file: { contentType: 'text/csv' } } }
+									? { encoding: body.encoding ?? { file: { contentType: 'text/csv' } } }
 									: { example: body.example })
 							}
 						}

@@ -11,11 +11,12 @@ import type {
 	SpinRecordDto
 } from '$lib/catalogue/dto';
 import type { ApiErrorBody } from '$lib/schemas/apiError';
+import type { AttachmentAnswer } from '$lib/schemas/attachmentResponse';
 import type { Potential } from '$lib/schemas/potential';
 import type {
 	CheckSummary,
 	SubmissionCreated,
-	SubmissionView
+	SubmissionWithFiles
 } from '$lib/schemas/curationResponses';
 
 /** A potential as a contributor reports it: shared by the entry and submission examples. */
@@ -73,6 +74,39 @@ const potential: PotentialDto = {
 };
 
 const next = (path: string) => `/api/v1/${path}&cursor=bzo1MA`;
+
+const sha = (c: string) => c.repeat(64);
+
+/** An EPR spectrum attached with its numbers (checksums made up for the example). */
+export const ATTACHMENT_EXAMPLE: AttachmentAnswer = {
+	id: 31,
+	kind: 'epr_spectrum',
+	role: 'image',
+	caption: 'X-band EPR of the reduced protein, 15 K',
+	conditions: {
+		temperatureK: 15,
+		microwaveFrequencyGHz: 9.4,
+		microwavePowerMw: 2,
+		modulationAmplitudeMt: 1,
+		scanRateMvPerS: null,
+		referenceElectrode: null
+	},
+	fileName: 'spectrum.png',
+	mediaType: 'image/png',
+	byteSize: 48213,
+	sha256: sha('a'),
+	width: 1600,
+	height: 1000,
+	preview: { mediaType: 'image/png', width: 1280, height: 800, sha256: sha('b') },
+	thumbnail: { mediaType: 'image/png', width: 320, height: 200, sha256: sha('c') },
+	numbers: { fileName: 'spectrum.csv', byteSize: 20480, sha256: sha('d') },
+	urls: {
+		original: '/files/31/original',
+		preview: '/files/31/preview',
+		thumbnail: '/files/31/thumbnail',
+		data: '/files/31/data'
+	}
+};
 
 export const EXAMPLES = {
 	potentialPage: {
@@ -315,12 +349,13 @@ export const EXAMPLES = {
 				changes: [{ field: 'emMvShe', before: null, after: 100 }],
 				staleBase: null,
 				warnings: [],
-				approvedVersion: null
+				approvedVersion: null,
+				attachments: [ATTACHMENT_EXAMPLE]
 			}
 		],
 		comments: [],
 		reviews: []
-	} satisfies SubmissionView,
+	} satisfies SubmissionWithFiles,
 	uploadCheck: {
 		kind: 'potential',
 		sha256: '9f2c4e0b6a1d3f5e7c9b8a7d6e5f4c3b2a1908f7e6d5c4b3a29180f7e6d5c4b3',
@@ -382,6 +417,18 @@ export const ERROR_EXAMPLES: Record<number, ApiErrorBody> = {
 			code: 'payload_too_large',
 			message: 'The file is larger than 20 MB.',
 			fields: { file: ['The file is larger than 20 MB.'] }
+		}
+	},
+	415: {
+		error: {
+			code: 'unsupported_media_type',
+			message:
+				'SVG images are not accepted: they can carry scripts. Export the figure as PNG instead.',
+			fields: {
+				file: [
+					'SVG images are not accepted: they can carry scripts. Export the figure as PNG instead.'
+				]
+			}
 		}
 	},
 	422: {

@@ -39,9 +39,10 @@ import {
 } from '$lib/schemas/catalogueQuery';
 import {
 	submissionCreatedSchema,
-	submissionViewSchema,
+	submissionWithFilesSchema,
 	uploadCheckSummarySchema
 } from '$lib/schemas/curationResponses';
+import { attachmentAnswerSchema } from '$lib/schemas/attachmentResponse';
 import { accessionField } from '$lib/schemas/fields';
 import {
 	SUGGESTION_LIMIT_MAX,
@@ -56,7 +57,8 @@ import { fitNernst } from '$lib/science';
 import { hopRateAnswer, titrationAnswer, tunnellingAnswer } from '../calc/answers';
 import { runTunnelling } from '../calc/tunnelling';
 import { uploadCheckQuerySchema, uploadKindField } from '../uploads/uploadForm';
-import { EXAMPLES, REPORTED_POTENTIAL_EXAMPLE } from './examples';
+import { attachmentMultipartSchema } from '../attachments/attachmentForm';
+import { ATTACHMENT_EXAMPLE, EXAMPLES, REPORTED_POTENTIAL_EXAMPLE } from './examples';
 
 /*
  * Every operation of the API under /api/v1, described once: the zod schemas its route validates
@@ -85,7 +87,7 @@ export type ExampleValue = string | number | boolean | readonly string[];
 
 export interface ApiOperation {
 	operationId: string;
-	method: 'get' | 'post';
+	method: 'get' | 'post' | 'delete';
 	/** Below /api/v1, with OpenAPI's `{name}` for path parameters. */
 	path: string;
 	tag: Tag;
@@ -104,9 +106,11 @@ export interface ApiOperation {
 		schema: z.ZodType;
 		description: string;
 		example: unknown;
+		/** Multipart: the type each file part is sent as (default: `file` as text/csv). */
+		encoding?: Record<string, { contentType: string }>;
 	};
 	success: {
-		status: 200 | 201;
+		status: 200 | 201 | 204;
 		description: string;
 		/** The name of the answer's schema in `RESPONSE_SCHEMAS`; null: described in words only. */
 		schema: ResponseSchemaName | null;
@@ -121,7 +125,7 @@ export interface ApiOperation {
 		example?: unknown;
 	};
 	/** Error statuses the operation may answer besides those every operation may (401, 429, 500). */
-	errors: readonly (400 | 403 | 404 | 409 | 413 | 422 | 503)[];
+	errors: readonly (400 | 403 | 404 | 409 | 413 | 415 | 422 | 503)[];
 }
 
 /** Per-kind request bodies of POST /submissions: the API schema with each kind's input schema as `data`. */
@@ -152,7 +156,7 @@ export const apiIndexSchema = z.strictObject({
 	reference: z.string().describe('The reference page for people.'),
 	endpoints: z.array(
 		z.strictObject({
-			method: z.enum(['GET', 'POST']),
+			method: z.enum(['GET', 'POST', 'DELETE']),
 			path: z.string(),
 			summary: z.string(),
 			parameters: z.array(z.string()).describe('Query parameters.')
@@ -192,7 +196,8 @@ export const RESPONSE_SCHEMAS = {
 	Tunnelling: tunnellingResponseSchema,
 	VersionWarning: versionWarningSchema,
 	SubmissionCreated: submissionCreatedSchema,
-	Submission: submissionViewSchema,
+	Attachment: attachmentAnswerSchema,
+	Submission: submissionWithFilesSchema,
 	UploadCheck: uploadCheckSummarySchema,
 	Suggestion: suggestionSchema,
 	SuggestionList: suggestionListSchema
@@ -604,7 +609,7 @@ export const OPERATIONS: readonly ApiOperation[] = [
 		tag: 'Contributors',
 		summary: 'One submission',
 		description:
-			'A submission with its proposed versions, their differences from the approved version, warnings, reviews and comments — for its contributor or a curator; anyone else gets 404.',
+			'A submission with its proposed versions, their differences from the approved version, warnings, attached files (with the URLs of their files), reviews and comments — for its contributor or a curator; anyone else gets 404.',
 		access: 'contributor',
 		pathParams: {
 			id: {
@@ -621,6 +626,74 @@ export const OPERATIONS: readonly ApiOperation[] = [
 			example: EXAMPLES.submissionView
 		},
 		errors: [403, 404]
+	},
+	{
+		operationId: 'attachToSubmission',
+		method: 'post',
+		path: '/submissions/{id}/attachments',
+		tag: 'Contributors',
+		summary: 'Attach a file to a submission',
+		description:
+			'An image of a spectrum, voltammogram or titration (PNG, JPEG, GIF, BMP, TIFF), optionally with the numbers it was drawn from (two-column text/CSV), or the numbers alone — attached to a version of your own draft or returned submission (a submitted one is frozen until a curator returns it). The type is read from the file’s bytes; SVG, HTML, scripts, archives and polyglots are refused (415), as are damaged images, images over the pixel budget and numbers that cannot be plotted (422). The request’s Content-Length is checked before the body is read: at most ATTACHMENT_MAX_BYTES (10 MB by default) for the image, 1 MB for the numbers, and 64 KiB for the rest, else 413. Conditions are flat fields; those that do not apply to the kind are refused. A version carries at most 12 files (409). Someone else’s submission answers 404.',
+		access: 'contributor',
+		pathParams: {
+			id: {
+				schema: z.number().int().min(1).max(9_999_999_999),
+				description: 'The submission’s number.',
+				example: 57
+			}
+		},
+		example: { id: 57 },
+		body: {
+			mediaType: 'multipart/form-data',
+			schema: attachmentMultipartSchema,
+			description:
+				'The file or files, what they show, a caption, and the conditions that matter for the kind.',
+			example: {
+				kind: 'epr_spectrum',
+				caption: 'X-band EPR of the reduced protein, 15 K',
+				temperature: '15',
+				microwaveFrequencyGHz: '9.40',
+				microwavePowerMw: '2',
+				modulationAmplitudeMt: '1',
+				file: 'spectrum.png',
+				numbers: 'spectrum.csv'
+			},
+			encoding: { file: { contentType: 'image/png' }, numbers: { contentType: 'text/csv' } }
+		},
+		success: {
+			status: 201,
+			description: 'The attachment, with the URLs of its files.',
+			schema: 'Attachment',
+			example: ATTACHMENT_EXAMPLE,
+			headers: { Location: 'The original file.' }
+		},
+		errors: [400, 403, 404, 409, 413, 415, 422, 503]
+	},
+	{
+		operationId: 'detachFromSubmission',
+		method: 'delete',
+		path: '/submissions/{id}/attachments/{attachmentId}',
+		tag: 'Contributors',
+		summary: 'Remove a file from a submission',
+		description:
+			'Takes an attachment off the version of your own draft or returned submission that lists it. A proposed change starts with the files of the version it changes: removing one here leaves the approved version as it was.',
+		access: 'contributor',
+		pathParams: {
+			id: {
+				schema: z.number().int().min(1).max(9_999_999_999),
+				description: 'The submission’s number.',
+				example: 57
+			},
+			attachmentId: {
+				schema: z.number().int().min(1).max(9_999_999_999),
+				description: 'The attachment’s number (`id` in its answer).',
+				example: 31
+			}
+		},
+		example: { id: 57, attachmentId: 31 },
+		success: { status: 204, description: 'Removed.', schema: null },
+		errors: [403, 404, 409]
 	},
 	{
 		operationId: 'checkUpload',

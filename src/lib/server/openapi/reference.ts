@@ -18,17 +18,19 @@ import type {
 type Document = OpenApiDocument;
 type Operation = OpenApiOperation;
 
-const METHODS: readonly HttpMethod[] = ['get', 'post'];
+type Upper = 'GET' | 'POST' | 'DELETE';
+const UPPER: Record<HttpMethod, Upper> = { get: 'GET', post: 'POST', delete: 'DELETE' };
+const METHODS: readonly HttpMethod[] = ['get', 'post', 'delete'];
 
 /** The operations of the document in its order, with their full paths. */
-function operations(doc: Document): { method: 'GET' | 'POST'; path: string; op: Operation }[] {
+function operations(doc: Document): { method: Upper; path: string; op: Operation }[] {
 	const base = new URL(doc.servers[0]?.url ?? 'http://localhost/api/v1').pathname;
-	const list: { method: 'GET' | 'POST'; path: string; op: Operation }[] = [];
+	const list: { method: Upper; path: string; op: Operation }[] = [];
 	for (const [path, item] of Object.entries(doc.paths)) {
 		for (const method of METHODS) {
 			const op = item[method];
 			if (op) {
-				const upper = method === 'get' ? 'GET' : 'POST';
+				const upper = UPPER[method];
 				list.push({ method: upper, path: base + (path === '/' ? '' : path), op });
 			}
 		}

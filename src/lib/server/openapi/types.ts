@@ -48,7 +48,7 @@ export interface OpenApiOperation {
 	'x-codeSamples': CodeSample[];
 }
 
-export type HttpMethod = 'get' | 'post';
+export type HttpMethod = 'get' | 'post' | 'delete';
 
 export type SecurityScheme =
 	| { type: 'http'; scheme: 'bearer'; description: string }

@@ -15,12 +15,17 @@ import { batchForPage } from '$lib/server/http/batchPage';
 import { postComment } from '$lib/server/http/commentAction';
 import { fillFromDoi } from '$lib/server/http/doiLookup';
 import { orNotFound, toFormFailure } from '$lib/server/http/failures';
+import { withAttachments } from '$lib/server/attachments/submissionAttachments';
+import { attachAction, attachFormData, detachAction } from './attachActions';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'contributor');
 	const id = Number(event.params.id);
-	const view = await orNotFound(loadSubmissionView(db, user, id), `no submission ${id} of yours`);
+	const view = await withAttachments(
+		db,
+		await orNotFound(loadSubmissionView(db, user, id), `no submission ${id} of yours`)
+	);
 	const first = view.versions[0];
 	const batch = view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null;
 	return {
@@ -33,13 +38,18 @@ export const load: PageServerLoad = async (event) => {
 		values: first
 			? valuesOfVersion(first.kind, first.data, first.requestedVisibility, first.changeNote)
 			: {},
-		notice: event.url.searchParams.has('uploaded')
-			? 'Uploaded and submitted for review. The curators have been told.'
-			: event.url.searchParams.has('submitted')
-				? 'Submitted for review. The curators have been told.'
-				: event.url.searchParams.has('saved')
-					? 'Draft saved. Only you and the curators can see it.'
-					: null
+		attachForm: attachFormData(),
+		notice: event.url.searchParams.has('attached')
+			? 'File attached.'
+			: event.url.searchParams.has('detached')
+				? 'File removed from this submission.'
+				: event.url.searchParams.has('uploaded')
+					? 'Uploaded and submitted for review. The curators have been told.'
+					: event.url.searchParams.has('submitted')
+						? 'Submitted for review. The curators have been told.'
+						: event.url.searchParams.has('saved')
+							? 'Draft saved. Only you and the curators can see it.'
+							: null
 	};
 };
 
@@ -113,5 +123,7 @@ export const actions: Actions = {
 	comment: async (event) => {
 		const user = requireRole(event, 'contributor');
 		return postComment(event, user, Number(event.params.id));
-	}
+	},
+	attach: attachAction,
+	detach: detachAction
 };

@@ -3,13 +3,17 @@ import { publicFieldName, toPublicFields } from '$lib/kinds/publicNames';
 import { assertRole } from '$lib/server/auth/roles';
 import { apiHandler } from '$lib/server/api/handler';
 import { db } from '$lib/server/db';
+import { withAttachments } from '$lib/server/attachments/submissionAttachments';
 import { loadSubmissionView } from '$lib/server/curation/submissionView';
 import type { RequestHandler } from './$types';
 
-/** GET /api/v1/submissions/{id} — a submission with its versions, warnings, reviews and comments (its contributor or a curator). */
+/** GET /api/v1/submissions/{id} — a submission with its versions (and their files), warnings, reviews and comments (its contributor or a curator). */
 export const GET: RequestHandler = apiHandler(async (event) => {
 	assertRole(event.locals.user, 'contributor');
-	const view = await loadSubmissionView(db, event.locals.user, Number(event.params.id));
+	const view = await withAttachments(
+		db,
+		await loadSubmissionView(db, event.locals.user, Number(event.params.id))
+	);
 	// Stored field names are mapped to their public ones (kinds/publicNames.ts).
 	return json({
 		...view,
