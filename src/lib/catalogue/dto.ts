@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { attachmentAnswerSchema, type AttachmentAnswer } from '$lib/schemas/attachmentResponse';
 import { REFERENCE_ELECTRODES } from '$lib/science/referenceElectrodes';
 import { POTENTIAL_UNITS } from '$lib/science/units';
 import {
@@ -236,46 +237,12 @@ const permalinkUrl = z.string().describe('The versioned permalink (absolute URL)
 export const linkedReferenceSchema = pinnedReferenceSchema.extend({ permalink: permalinkUrl });
 export type LinkedReference = z.infer<typeof linkedReferenceSchema>;
 
-const sha256 = z
-	.string()
-	.regex(/^[0-9a-f]{64}$/)
-	.describe('SHA-256 of the file, lower-case hexadecimal.');
-const fileUrl = z.string().describe('Absolute URL of the file (the entry’s visibility applies).');
-
 /**
  * A file listed by a version (an EPR spectrum, a voltammogram …, its numbers, a structure file):
- * part of the frozen version, in the version's order.
+ * part of the frozen version, in the version's order. One schema with the submission API's.
  */
-export const entryAttachmentSchema = z.strictObject({
-	id: z.number().int().min(1),
-	kind: z.enum(ATTACHMENT_KINDS).describe('What the file shows.'),
-	role: z
-		.enum(ATTACHMENT_ROLES)
-		.describe(
-			'image: a figure with preview and thumbnail; data: a numbers file alone; structure: a structure file (download only).'
-		),
-	caption: z.string(),
-	conditions: attachmentConditionsSchema.describe(
-		'Acquisition conditions as stated by the contributor (null: not stated).'
-	),
-	fileName: z.string().describe('The original file’s name.'),
-	mediaType: z.string().describe('The type detected from the original file’s bytes.'),
-	byteSize: z.number().int().min(0).describe('Size of the original file in bytes.'),
-	sha256: sha256.describe('SHA-256 of the original file, lower-case hexadecimal.'),
-	width: z.number().int().min(1).nullable().describe('Pixels, for an image.'),
-	height: z.number().int().min(1).nullable().describe('Pixels, for an image.'),
-	urls: z.strictObject({
-		original: fileUrl.describe('The file as uploaded (downloaded as an attachment).'),
-		preview: fileUrl.nullable().describe('An image re-encoded at most 1280 px wide, no metadata.'),
-		thumbnail: fileUrl.nullable().describe('An image re-encoded at most 320 px wide.'),
-		data: fileUrl.nullable().describe('The spectrum’s numbers (two-column text), when given.')
-	}),
-	numbers: z
-		.strictObject({ fileName: z.string(), byteSize: z.number().int().min(0), sha256 })
-		.nullable()
-		.describe('The spectrum’s numbers file (served at urls.data), when given.')
-});
-export type EntryAttachment = z.infer<typeof entryAttachmentSchema>;
+export const entryAttachmentSchema = attachmentAnswerSchema;
+export type EntryAttachment = AttachmentAnswer;
 
 /**
  * An entry at a version as GET /api/v1/entries/{accession} sends it: the frozen version with

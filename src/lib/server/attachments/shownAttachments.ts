@@ -8,8 +8,9 @@ import { readSpectrumData, type SpectrumData } from '$lib/schemas/spectrumData';
 import { REFERENCE_ELECTRODE_LABELS } from '$lib/science/referenceElectrodes';
 import { formatKelvin, formatNumber } from '$lib/format';
 import { thinnedIndices, type SpectrumConditions } from '$lib/components/spectrumPlot';
-import type { EntryAttachment } from '$lib/catalogue/dto';
+import type { AttachmentAnswer } from '$lib/schemas/attachmentResponse';
 import type { Database } from '../db/schema';
+import { attachmentAnswer, attachmentUrls, type AttachmentUrls } from './attachmentAnswer';
 import { attachmentsOfVersion, type AttachmentDto } from './attachments';
 import type { BlobStore } from './storage';
 
@@ -22,13 +23,6 @@ import type { BlobStore } from './storage';
 
 /** Most points handed to a plot: enough to zoom into a sweep, peaks kept (thinnedIndices). */
 export const PLOTTED_POINTS_MAX = 4000;
-
-export interface AttachmentUrls {
-	original: string;
-	preview: string | null;
-	thumbnail: string | null;
-	data: string | null;
-}
 
 export interface ShownAttachment {
 	id: number;
@@ -54,17 +48,6 @@ export interface ShownAttachment {
 		  }
 		| { problem: string }
 		| null;
-}
-
-/** The file URLs of an attachment (root-relative; the API makes them absolute). */
-export function attachmentUrls(a: AttachmentDto): AttachmentUrls {
-	const base = `/files/${a.id}`;
-	return {
-		original: `${base}/original`,
-		preview: a.preview ? `${base}/preview` : null,
-		thumbnail: a.thumbnail ? `${base}/thumbnail` : null,
-		data: a.numbers ? `${base}/data` : null
-	};
 }
 
 /** A file size for people: "812 B", "19 kB", "2.4 MB" (decimal units). */
@@ -190,42 +173,14 @@ export async function approvedVersionId(
 	return row?.id ?? null;
 }
 
-/** One attachment as the entry API lists it, its URLs absolute against `base` (as permalinks). */
-export function attachmentForApi(a: AttachmentDto, base: URL): EntryAttachment {
-	const urls = attachmentUrls(a);
-	const absolute = (path: string | null) => (path === null ? null : new URL(path, base).href);
-	return {
-		id: a.id,
-		kind: a.kind,
-		role: a.role,
-		caption: a.caption,
-		conditions: attachmentConditionsSchema.parse(storedConditions(a)),
-		fileName: a.fileName,
-		mediaType: a.mediaType,
-		byteSize: a.byteSize,
-		sha256: a.sha256,
-		width: a.width,
-		height: a.height,
-		urls: {
-			original: new URL(urls.original, base).href,
-			preview: absolute(urls.preview),
-			thumbnail: absolute(urls.thumbnail),
-			data: absolute(urls.data)
-		},
-		numbers: a.numbers
-			? { fileName: a.numbers.fileName, byteSize: a.numbers.byteSize, sha256: a.numbers.sha256 }
-			: null
-	};
-}
-
 /** The attachments of an approved version, as the entry API lists them (none: an empty list). */
 export async function apiAttachmentsOfVersion(
 	db: Kysely<Database>,
 	accession: string,
 	version: number,
 	base: URL
-): Promise<EntryAttachment[]> {
+): Promise<AttachmentAnswer[]> {
 	const id = await approvedVersionId(db, accession, version);
 	if (id === null) return [];
-	return (await attachmentsOfVersion(db, id)).map((a) => attachmentForApi(a, base));
+	return (await attachmentsOfVersion(db, id)).map((a) => attachmentAnswer(a, base));
 }

@@ -315,13 +315,16 @@ export class AttachmentNotFoundError extends DomainError {
 /** A submission's view with each version's attachments, in their order (pages and the API). */
 export async function withAttachments(
 	db: Kysely<Database>,
-	view: SubmissionView
+	view: SubmissionView,
+	base: URL
 ): Promise<SubmissionWithFiles> {
 	const versions = [];
 	for (const v of view.versions)
 		versions.push({
 			...v,
-			attachments: (await attachmentsOfVersion(db, v.versionId)).map(attachmentAnswer)
+			attachments: (await attachmentsOfVersion(db, v.versionId)).map((a) =>
+				attachmentAnswer(a, base)
+			)
 		});
 	return { ...view, versions };
 }

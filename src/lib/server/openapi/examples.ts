@@ -101,10 +101,10 @@ export const ATTACHMENT_EXAMPLE: AttachmentAnswer = {
 	thumbnail: { mediaType: 'image/png', width: 320, height: 200, sha256: sha('c') },
 	numbers: { fileName: 'spectrum.csv', byteSize: 20480, sha256: sha('d') },
 	urls: {
-		original: '/files/31/original',
-		preview: '/files/31/preview',
-		thumbnail: '/files/31/thumbnail',
-		data: '/files/31/data'
+		original: 'https://hopline.example/files/31/original',
+		preview: 'https://hopline.example/files/31/preview',
+		thumbnail: 'https://hopline.example/files/31/thumbnail',
+		data: 'https://hopline.example/files/31/data'
 	}
 };
 
@@ -255,6 +255,18 @@ export const EXAMPLES = {
 				sha256: '3f1c0b9e6d2a4f8e7b5c1d0a9e8f7a6b5c4d3e2f1a0b9c8d7e6f5a4b3c2d1e0f',
 				width: 900,
 				height: 560,
+				preview: {
+					mediaType: 'image/png',
+					width: 900,
+					height: 560,
+					sha256: '5e0d4c3b2a19f8e7d6c5b4a39281706f5e4d3c2b1a09f8e7d6c5b4a392817060'
+				},
+				thumbnail: {
+					mediaType: 'image/png',
+					width: 320,
+					height: 199,
+					sha256: '7c6b5a4938271605f4e3d2c1b0a9f8e7d6c5b4a3928170615e4d3c2b1a09f8e7'
+				},
 				urls: {
 					original: 'https://hopline.example/files/7/original',
 					preview: 'https://hopline.example/files/7/preview',

@@ -24,7 +24,8 @@ export const load: PageServerLoad = async (event) => {
 	const id = Number(event.params.id);
 	const view = await withAttachments(
 		db,
-		await orNotFound(loadSubmissionView(db, user, id), `no submission ${id} of yours`)
+		await orNotFound(loadSubmissionView(db, user, id), `no submission ${id} of yours`),
+		event.url
 	);
 	const first = view.versions[0];
 	const batch = view.submission.channel === 'csv' ? await batchForPage(db, event.url, id) : null;

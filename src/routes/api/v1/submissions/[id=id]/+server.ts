@@ -12,7 +12,8 @@ export const GET: RequestHandler = apiHandler(async (event) => {
 	assertRole(event.locals.user, 'contributor');
 	const view = await withAttachments(
 		db,
-		await loadSubmissionView(db, event.locals.user, Number(event.params.id))
+		await loadSubmissionView(db, event.locals.user, Number(event.params.id)),
+		event.url
 	);
 	// Stored field names are mapped to their public ones (kinds/publicNames.ts).
 	return json({

@@ -52,7 +52,7 @@ export const POST: RequestHandler = apiHandler(async (event) => {
 			read.errors
 		);
 	const { attachment } = await attachToSubmission(db, appAttachmentDeps(), user, id, read.input);
-	return json(attachmentAnswer(attachment), {
+	return json(attachmentAnswer(attachment, event.url), {
 		status: 201,
 		headers: { location: `/files/${attachment.id}/original` }
 	});
