@@ -17,7 +17,6 @@ import { relatedRecords } from '$lib/server/catalogue/related';
 import { entryCitation } from '$lib/server/citations/citable';
 import { negotiateEntryRepresentation } from '$lib/server/citations/negotiate';
 import { db } from '$lib/server/db';
-import { loadProteinForStructure } from '$lib/server/structures/structureDistances';
 import { orNotFound, queryError } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
 import { presentEntry } from './presentEntry';
@@ -84,11 +83,6 @@ export const load: PageServerLoad = async ({
 		view.kind === 'potential'
 			? await conflictFlagsOfPotential(db, view.accession, locals.viewer)
 			: await conflictFlags(db, related?.potentials.items ?? [], locals.viewer);
-	// The protein's current distances as a matrix (live data, shown apart from the version).
-	const matrixData =
-		view.kind === 'protein'
-			? await loadProteinForStructure(db, view.accession, locals.viewer)
-			: null;
 	const citation = await entryCitation(db, view, url.origin);
 	const words = presentEntry(view.kind, view.data);
 	return {
@@ -98,7 +92,10 @@ export const load: PageServerLoad = async ({
 		cite: pageCitation(citation.record),
 		related: related ? shownRelated(related) : null,
 		ladder,
-		distanceMatrix: matrixData ? distanceMatrix(matrixData.centres, matrixData.distances) : null,
+		// The protein's current distances as a matrix, from the ladder's (live data, apart from the version).
+		distanceMatrix: ladderData?.ok
+			? distanceMatrix(ladderData.centres, ladderData.distances)
+			: null,
 		ladderDrawings: ladder ? drawLadders(ladder) : null,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
 		chain: chain.estimate,
