@@ -1,3 +1,7 @@
+import { createHash } from 'node:crypto';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import type { Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
@@ -9,6 +13,7 @@ import { planFromForm, proteinOr404, readUpload } from '$lib/server/structures/f
 import { attachmentForReader } from '$lib/server/attachments/attachments';
 import { attachmentStore } from '$lib/server/attachments/store';
 import { listOnSubmission } from '$lib/server/structures/structureFile';
+import { moveLegacyStructureFiles } from '$lib/server/structures/legacyFolder';
 import { loadDemoScenario } from '$seed/load';
 import { createTempDatabase } from '../support/tempDb';
 import { insertSessionUser } from '../support/users';
@@ -270,6 +275,68 @@ describe('distances from an uploaded structure', () => {
 		expect(none.ok ? '' : none.errors['match.1']![0]).toBe(
 			`HL999999 is not a centre of ${protein.name}`
 		);
+	});
+
+	it('moves files of the old structures folder onto the distances still under review', async () => {
+		const protein = await proteinOr404(db, hylAccession, contributor);
+		const gz = gzipSync(bytes(STRUCTURE_PDB.replace('REMARK', 'REMARK legacy')));
+		const read = await readUpload(db, contributor, protein, gz, 'old.pdb.gz');
+		const values: Record<string, string> = {
+			attachment: String(read.file.attachmentId),
+			structureId: 'OLD-1',
+			method: 'crystal_structure',
+			'match.0': await centreAccession('Proximal'),
+			'match.2': await centreAccession('Distal')
+		};
+		const r = await planFromForm(db, contributor, protein, values, null);
+		if (!r.ok) throw new Error(JSON.stringify(r.errors));
+		// Committed as before attachments: the note names the SHA-256, nothing is listed.
+		const { submissionId } = await db.transaction().execute((trx) =>
+			commitUpload(trx, contributor, r.plan.check, {
+				filename: 'old.pdb.gz',
+				visibility: PUBLIC,
+				changeNote: null,
+				origin: 'http://hopline.test',
+				pendingRowsMax: 1000
+			})
+		);
+		const folder = mkdtempSync(join(tmpdir(), 'hopline-old-structures-'));
+		writeFileSync(join(folder, read.file.sha256), gz);
+		writeFileSync(join(folder, 'b'.repeat(64)), 'not what the name says');
+		writeFileSync(join(folder, 'c'.repeat(64)), 'named by no version');
+		writeFileSync(
+			join(folder, createHash('sha256').update('named by no version').digest('hex')),
+			'named by no version'
+		);
+		const store = attachmentStore();
+		const report = await moveLegacyStructureFiles(db, store, folder);
+		expect(report).toMatchObject({
+			files: 2,
+			listed: 1,
+			skipped: ['b'.repeat(64), 'c'.repeat(64)]
+		});
+		expect(report.leftInFolder).toHaveLength(1);
+		const listed = await db
+			.selectFrom('entry_version as v')
+			.innerJoin('entry_version_attachment as l', 'l.entry_version_id', 'v.id')
+			.innerJoin('attachment as a', 'a.id', 'l.attachment_id')
+			.select(['a.entry_id', 'v.entry_id as version_entry', 'a.file_name', 'a.original_sha256'])
+			.where('v.submission_id', '=', submissionId)
+			.execute();
+		expect(listed).toEqual([
+			{
+				entry_id: listed[0]!.version_entry,
+				version_entry: listed[0]!.version_entry,
+				file_name: 'old.pdb.gz',
+				original_sha256: read.file.sha256
+			}
+		]);
+		// Run again: nothing is listed twice.
+		expect((await moveLegacyStructureFiles(db, store, folder)).listed).toBe(0);
+		expect(await moveLegacyStructureFiles(db, store, join(folder, 'none'))).toMatchObject({
+			files: 0
+		});
+		rmSync(folder, { recursive: true, force: true });
 	});
 
 	it('answers bad files and forms with a clear 4xx reason', async () => {

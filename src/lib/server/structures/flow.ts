@@ -108,7 +108,7 @@ export async function readUpload(
 		return { file, reading: await readGroupsOffThread(file.text, protein) };
 	});
 	const kept = await keepStructureFile(db, {
-		proteinEntryId: protein.entryId,
+		entryId: protein.entryId,
 		bytes,
 		fileName: filename,
 		uploadedBy: user.id

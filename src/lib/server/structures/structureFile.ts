@@ -29,10 +29,13 @@ export interface StructureFileRef {
 
 const store = (): BlobStore => attachmentStore();
 
-/** Stores the bytes (already read through by readStructureFile) as the protein's unlisted attachment. */
+/**
+ * Stores the bytes (already read through by readStructureFile) as an unlisted attachment of the
+ * entry (the protein, in the structure flow).
+ */
 export async function keepStructureFile(
 	db: Kysely<Database>,
-	input: { proteinEntryId: number; bytes: Uint8Array; fileName: string; uploadedBy: string },
+	input: { entryId: number; bytes: Uint8Array; fileName: string; uploadedBy: string },
 	blobs: BlobStore = store()
 ): Promise<StructureFileRef> {
 	const a = await createAttachment(
@@ -43,7 +46,7 @@ export async function keepStructureFile(
 			render: () => Promise.reject(new Error('a structure file is never rendered'))
 		},
 		{
-			entryId: input.proteinEntryId,
+			entryId: input.entryId,
 			role: 'structure',
 			meta: { kind: 'structure', caption: 'Structure file the distances were measured in' },
 			fileName: input.fileName,
