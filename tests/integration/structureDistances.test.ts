@@ -155,7 +155,7 @@ describe('distances from an uploaded structure', () => {
 				pendingRowsMax: 1000,
 				title: 'two distances from a structure'
 			});
-			expect(await listOnSubmission(trx, only.file, committed.submissionId)).toBe(2);
+			expect(await listOnSubmission(trx, only.file, committed.submissionId, 'DS-HYL-02')).toBe(2);
 			return committed;
 		});
 		const submission = await db
@@ -197,7 +197,10 @@ describe('distances from an uploaded structure', () => {
 		expect(listed).toHaveLength(2);
 		for (const l of listed) {
 			expect(l).toMatchObject({ entry_id: l.version_entry, original_sha256: read.file.sha256 });
-			expect(await attachmentForReader(db, l.id, null)).toMatchObject({ role: 'structure' });
+			expect(await attachmentForReader(db, l.id, null)).toMatchObject({
+				role: 'structure',
+				caption: 'Structure DS-HYL-02 as uploaded, in which this distance was measured'
+			});
 		}
 	});
 

@@ -6,7 +6,7 @@ import type { Database } from '../db/schema';
 import { readJson } from '../db/json';
 import { listOnVersion } from '../attachments/attachments';
 import type { BlobStore } from '../attachments/storage';
-import { keepStructureFile } from './structureFile';
+import { distanceCaption, keepStructureFile } from './structureFile';
 
 /*
  * Structure files kept before they were attachments: `<data folder>/structures/<SHA-256>`, named
@@ -78,11 +78,18 @@ export async function moveLegacyStructureFiles(
 			.execute();
 		let listedHere = 0;
 		for (const v of open) {
-			const note = readJson<{ note?: string | null }>(v.data).note ?? '';
+			const data = readJson<{ note?: string | null; structureId?: string }>(v.data);
+			const note = data.note ?? '';
 			const fileName = /uploaded structure file (.+) \(SHA-256 /.exec(note)?.[1] ?? 'structure';
 			const kept = await keepStructureFile(
 				db,
-				{ entryId: v.entry_id, bytes, fileName, uploadedBy: v.created_by as string },
+				{
+					entryId: v.entry_id,
+					bytes,
+					fileName,
+					uploadedBy: v.created_by as string,
+					caption: distanceCaption(data.structureId ?? 'file')
+				},
 				store
 			);
 			await listOnVersion(db, v.id, [kept.attachmentId]);

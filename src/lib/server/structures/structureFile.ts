@@ -29,13 +29,23 @@ export interface StructureFileRef {
 
 const store = (): BlobStore => attachmentStore();
 
+/** The caption of the file as a distance's evidence. */
+export const distanceCaption = (structureId: string) =>
+	`Structure ${structureId} as uploaded, in which this distance was measured`;
+
 /**
  * Stores the bytes (already read through by readStructureFile) as an unlisted attachment of the
  * entry (the protein, in the structure flow).
  */
 export async function keepStructureFile(
 	db: Kysely<Database>,
-	input: { entryId: number; bytes: Uint8Array; fileName: string; uploadedBy: string },
+	input: {
+		entryId: number;
+		bytes: Uint8Array;
+		fileName: string;
+		uploadedBy: string;
+		caption?: string;
+	},
 	blobs: BlobStore = store()
 ): Promise<StructureFileRef> {
 	const a = await createAttachment(
@@ -48,7 +58,10 @@ export async function keepStructureFile(
 		{
 			entryId: input.entryId,
 			role: 'structure',
-			meta: { kind: 'structure', caption: 'Structure file the distances were measured in' },
+			meta: {
+				kind: 'structure',
+				caption: input.caption ?? 'Structure file the distances were measured in'
+			},
 			fileName: input.fileName,
 			bytes: input.bytes,
 			uploadedBy: input.uploadedBy
@@ -105,19 +118,12 @@ export function structureBytes(
 export async function listOnSubmission(
 	trx: Kysely<Database>,
 	from: StructureFileRef,
-	submissionId: number
+	submissionId: number,
+	structureId: string
 ): Promise<number> {
 	const source = await trx
 		.selectFrom('attachment')
-		.select([
-			'kind',
-			'role',
-			'caption',
-			'conditions',
-			'file_name',
-			'original_sha256',
-			'uploaded_by'
-		])
+		.select(['kind', 'role', 'conditions', 'file_name', 'original_sha256', 'uploaded_by'])
 		.where('id', '=', from.attachmentId)
 		.executeTakeFirstOrThrow();
 	const versions = await trx
@@ -129,7 +135,11 @@ export async function listOnSubmission(
 	for (const v of versions) {
 		const { id } = await trx
 			.insertInto('attachment')
-			.values({ ...source, entry_id: v.entry_id })
+			.values({
+				...source,
+				caption: distanceCaption(structureId),
+				entry_id: v.entry_id
+			})
 			.returning('id')
 			.executeTakeFirstOrThrow();
 		await listOnVersion(trx, v.id, [id]);

@@ -153,7 +153,7 @@ export const actions: Actions = {
 					title: `${r.plan.check.entries.length} distance(s) of ${p.name} from structure ${r.form.structureId} (${r.file.fileName})`
 				});
 				// Each distance's evidence: the file it was measured in, in the same transaction.
-				await listOnSubmission(trx, r.file, committed.submissionId);
+				await listOnSubmission(trx, r.file, committed.submissionId, r.form.structureId);
 				return committed;
 			});
 		} catch (e) {
