@@ -78,11 +78,18 @@ describe('distances from an uploaded structure, end to end', () => {
 		expect(await contributor.getByTestId('proposed-distance').count()).toBe(6);
 		const first = await contributor.getByTestId('proposed-distance').first().textContent();
 		// Hand computation (fixture): Proximal–Medial 9.00 Å between S1 and S1, centres 10.00 Å;
-		// the demo records 9.8 Å in DS-HYL-02 (seed/demo.ts): a duplicate and a conflict.
+		// the demo records 9.8 Å in DS-HYL-02 (seed/demo.ts): a conflict, said once and unticked.
 		expect(first).toContain('9.00 Å');
 		expect(first).toMatch(/SF4 S301\sS1 – F3S S302A\sS1/);
-		expect(first).toMatch(/already in the registry as HL\d{6}/);
-		expect(first).toMatch(/conflicts with HL\d{6}: 9.8 Å/);
+		expect(first).toMatch(/HL\d{6}: 9.8 Å in DS-HYL-02\s+— conflicts: same structure/);
+		expect(first).not.toContain('already in the registry');
+		expect(first?.match(/HL\d{6}/g)).toHaveLength(1);
+		expect(await contributor.getByLabel('Submit Proximal – Medial').isChecked()).toBe(false);
+		// The four pairs the demo records in DS-HYL-02 unticked, the two new ones ticked.
+		const ticked = await contributor
+			.locator('[data-testid=proposed-distance] input[name=pair]')
+			.evaluateAll((els) => els.map((e) => (e as HTMLInputElement).checked));
+		expect(ticked).toEqual([false, false, false, false, true, true]);
 		await contributor.screenshot({
 			path: 'test-results/structure-proposed-1366.png',
 			fullPage: true
@@ -96,9 +103,7 @@ describe('distances from an uploaded structure, end to end', () => {
 
 		await contributor.getByLabel('Structure identifier').fill('SYN-E2E-1');
 		await contributor.getByRole('button', { name: 'Measure again' }).click();
-		await contributor.waitForFunction(
-			() => !document.body.textContent?.includes('already in the registry')
-		);
+		await contributor.waitForFunction(() => !document.body.textContent?.includes('left unticked'));
 		await contributor.getByLabel('Submit Medial – Heme b1').uncheck();
 		await contributor.getByRole('button', { name: 'Submit ticked distances for review' }).click();
 		await contributor.waitForURL(/\/submissions\/\d+\?uploaded/);

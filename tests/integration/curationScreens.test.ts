@@ -260,7 +260,7 @@ describe('requests for contributor access', () => {
 		expect(mails[0]?.subject).toBe('Request for contributor access from Ada Reader');
 		expect(mails[0]?.text).toContain('We measure ferredoxins.');
 		expect(mails[0]?.text).toContain(`${origin}/admin/users`);
-		expect((await openAccessRequests(db)).map((r) => r.email)).toEqual(['reader@lab.test']);
+		expect((await openAccessRequests(db)).items.map((r) => r.email)).toEqual(['reader@lab.test']);
 
 		await expect(ask(reader, new Date('2032-03-05T09:00:00Z'))).rejects.toMatchObject({
 			code: 'conflict'
@@ -270,7 +270,7 @@ describe('requests for contributor access', () => {
 
 	it('closes the request when an admin gives the role, or dismisses it; then waits before a new one', async () => {
 		await tx((trx) => closeAccessRequests(trx, admin.id, reader.id, 'dismissed'));
-		expect(await openAccessRequests(db)).toEqual([]);
+		expect((await openAccessRequests(db)).items).toEqual([]);
 		// Dismissed one hour after a request made at 09:00: a new one only from 09:00 next day.
 		await expect(ask(reader, new Date('2032-03-01T20:00:00Z'))).rejects.toMatchObject({
 			code: 'too_many_requests'
@@ -278,7 +278,7 @@ describe('requests for contributor access', () => {
 		await ask(reader, new Date('2032-03-02T09:00:01Z'));
 		const r = await tx((trx) => setUserRole(trx, admin.id, reader.id, 'contributor'));
 		expect(r).toEqual({ name: 'Ada Reader', from: 'reader', to: 'contributor' });
-		expect(await openAccessRequests(db)).toEqual([]);
+		expect((await openAccessRequests(db)).items).toEqual([]);
 		const statuses = await db
 			.selectFrom('access_request')
 			.select('status')
@@ -287,6 +287,27 @@ describe('requests for contributor access', () => {
 			.execute();
 		expect(statuses.map((s) => s.status)).toEqual(['dismissed', 'granted']);
 		await tx((trx) => setUserRole(trx, admin.id, reader.id, 'reader'));
+	});
+
+	it('lists the open requests a page at a time, oldest first', async () => {
+		const readers = await Promise.all(
+			[1, 2, 3, 4, 5].map((n) => insertSessionUser(db, 'reader', `asker${n}@lab.test`))
+		);
+		for (const [n, r] of readers.entries()) await ask(r, new Date(`2032-04-0${n + 1}T09:00:00Z`));
+		const emails = async (page: number) =>
+			(await openAccessRequests(db, { page, pageSize: 2 })).items.map((r) => r.email);
+		expect(await emails(1)).toEqual(['asker1@lab.test', 'asker2@lab.test']);
+		expect(await emails(3)).toEqual(['asker5@lab.test']);
+		expect(await openAccessRequests(db, { page: 3, pageSize: 2 })).toMatchObject({
+			total: 5,
+			page: 3,
+			pageCount: 3
+		});
+		// Past the end (requests closed meanwhile): the last page, not an empty one.
+		expect(await emails(9)).toEqual(['asker5@lab.test']);
+		expect((await openAccessRequests(db)).items).toHaveLength(5);
+		for (const r of readers)
+			await tx((trx) => closeAccessRequests(trx, admin.id, r.id, 'dismissed'));
 	});
 
 	it('keeps one open request per user in the database itself', async () => {

@@ -6,6 +6,7 @@ import type { Database } from '$lib/server/db/schema';
 import { checkUpload } from '$lib/server/uploads/checkUpload';
 import { commitUpload, UploadHasErrorsError } from '$lib/server/uploads/commitUpload';
 import { decideBatch } from '$lib/server/curation/reviews';
+import { loadSubmissionView } from '$lib/server/curation/submissionView';
 import { CsvLimitError } from '$lib/catalogue/csvRecords';
 import { uploadCsvLimits } from '$lib/server/uploads/readCsv';
 import { loadDemoScenario } from '$seed/load';
@@ -309,17 +310,16 @@ describe('committing and reviewing a batch', () => {
 					decideBatch(trx, curator, result.submissionId, { returnRows: [4], comment: '' }, origin)
 				)
 		).rejects.toThrow(/say what needs changing/);
-		const outcome = await db
-			.transaction()
-			.execute((trx) =>
-				decideBatch(
-					trx,
-					curator,
-					result.submissionId,
-					{ returnRows: [4], comment: 'Cluster C: check the ligation' },
-					origin
-				)
-			);
+		const outcome = await db.transaction().execute((trx) =>
+			decideBatch(
+				trx,
+				curator,
+				result.submissionId,
+				// Begins with the row, as curators often write it: not prefixed a second time.
+				{ returnRows: [4], comment: 'Row 4: Cluster C, check the ligation' },
+				origin
+			)
+		);
 		expect(outcome.approved).toHaveLength(3);
 		expect(outcome.returned).toBe(1);
 		const submission = await db
@@ -335,24 +335,47 @@ describe('committing and reviewing a batch', () => {
 			.where('centre.label', '=', 'U2')
 			.executeTakeFirstOrThrow();
 		expect(centre.accession).toBe(versions[2]?.accession);
-		expect(outcome.mails[0]?.text).toContain('row 4: Cluster C: check the ligation');
+		expect(outcome.mails[0]?.text).toContain('  Row 4: Cluster C, check the ligation\n');
+		expect(outcome.mails[0]?.text).not.toContain('Row 4: Row 4');
 		const returnedComment = await db
 			.selectFrom('submission_comment')
 			.select(['entry_version_id', 'body'])
 			.where('submission_id', '=', result.submissionId)
 			.execute();
 		expect(returnedComment).toHaveLength(1);
+		const view = await loadSubmissionView(db, contributor, result.submissionId);
+		expect(view.comments.map((c) => c.body)).toEqual(['Row 4: Cluster C, check the ligation']);
 	});
 });
 
 describe('row comments of a batch decision', () => {
+	it('say their row once, however the curator began the comment', async () => {
+		const { withRowPrefix } = await import('$lib/server/curation/rowComment');
+		expect(withRowPrefix(3, 'check the units')).toBe('Row 3: check the units');
+		expect(withRowPrefix(3, 'Row 3: check the units')).toBe('Row 3: check the units');
+		expect(withRowPrefix(3, 'row 3 - check the units')).toBe('row 3 - check the units');
+		// Another row's number is part of the comment: this row is still named.
+		expect(withRowPrefix(3, 'Row 4: same as here')).toBe('Row 3: Row 4: same as here');
+		expect(withRowPrefix(3, 'Row 30: no')).toBe('Row 3: Row 30: no');
+	});
+
 	it('read "row: comment" lines, ranges included, and name a bad line', async () => {
 		const { batchDecisionSchema } = await import('$lib/schemas/submission');
 		expect(
-			batchDecisionSchema.parse({ returnRows: '2, 5-6', rowComments: '3: buffer?\n7-8) sign' })
+			batchDecisionSchema.parse({
+				returnRows: '2, 5-6',
+				rowComments: '3: buffer?\n7-8) sign\nRow 9: units?\nrows 10-11: which pH?'
+			})
 		).toEqual({
 			returnRows: [2, 5, 6],
-			rowComments: { 3: 'buffer?', 7: 'sign', 8: 'sign' },
+			rowComments: {
+				3: 'buffer?',
+				7: 'sign',
+				8: 'sign',
+				9: 'units?',
+				10: 'which pH?',
+				11: 'which pH?'
+			},
 			comment: ''
 		});
 		const bad = batchDecisionSchema.safeParse({ rowComments: 'row four: sign' });

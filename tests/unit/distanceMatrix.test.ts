@@ -3,11 +3,11 @@ import { distanceMatrix, reachBin } from '$lib/catalogue/distanceMatrix';
 
 describe('distanceMatrix', () => {
 	const centres = ['A', 'B', 'C', 'D'].map((l) => ({ accession: `HL00000${l}`, label: l }));
-	const d = (a: string, b: string, edgeToEdgeA: number, structureId = 'S1') => ({
+	const d = (a: string, b: string, edgeToEdgeAngstrom: number, structureId = 'S1') => ({
 		accession: `D${a}${b}${structureId}`,
-		centreA: `HL00000${a}`,
-		centreB: `HL00000${b}`,
-		edgeToEdgeA,
+		centreA: { accession: `HL00000${a}` },
+		centreB: { accession: `HL00000${b}` },
+		edgeToEdgeAngstrom,
 		structureId
 	});
 	const m = distanceMatrix(centres, [d('A', 'B', 9.8), d('B', 'A', 9.1, 'S2'), d('B', 'C', 14.2)]);

@@ -1,8 +1,14 @@
+import type { DistanceDto } from './dto';
+
 /*
  * A protein's edge-to-edge distances as a matrix of its centres: the shortest approved value of
  * each pair (over structures), binned for the colour scale, pairs within 14 Å marked as plausible
  * tunnelling hops (Page, Moser, Chen & Dutton, Nature 402 (1999) 47–52: ≈ 14 Å is the longest
  * physiological single hop). Client-safe: the page only draws what this returns.
+ *
+ * Drawn from the distances the protein page already reads for its energy ladder
+ * (server/catalogue/ladderInputs.ts: the viewer's visible distances, at most 1000), so the
+ * matrix costs no query of its own.
  */
 export const HOP_LIMIT_A = 14;
 /** Upper edges of the colour bins, Å; the last bin is everything beyond. */
@@ -17,6 +23,12 @@ export interface MatrixCell {
 	/** 1 (nearest) … 5 (beyond the last bin edge). */
 	bin: 1 | 2 | 3 | 4 | 5;
 }
+
+/** The fields of a listed distance (catalogue DTO) that the matrix uses. */
+export type MatrixDistance = Pick<
+	DistanceDto,
+	'accession' | 'edgeToEdgeAngstrom' | 'structureId'
+> & { centreA: { accession: string }; centreB: { accession: string } };
 
 export interface DistanceMatrix {
 	centres: { accession: string; label: string }[];
@@ -35,30 +47,27 @@ export function reachBin(edgeA: number): MatrixCell['bin'] {
  */
 export function distanceMatrix(
 	centres: { accession: string; label: string }[],
-	distances: {
-		accession: string;
-		centreA: string;
-		centreB: string;
-		edgeToEdgeA: number;
-		structureId: string;
-	}[]
+	distances: readonly MatrixDistance[]
 ): DistanceMatrix {
-	const withDistance = new Set(distances.flatMap((d) => [d.centreA, d.centreB]));
+	const withDistance = new Set(
+		distances.flatMap((d) => [d.centreA.accession, d.centreB.accession])
+	);
 	const shown = centres.filter((c) => withDistance.has(c.accession));
 	const index = new Map(shown.map((c, i) => [c.accession, i]));
 	const cells: (MatrixCell | null)[][] = shown.map(() => shown.map(() => null));
 	for (const d of distances) {
-		const i = index.get(d.centreA);
-		const j = index.get(d.centreB);
+		const i = index.get(d.centreA.accession);
+		const j = index.get(d.centreB.accession);
 		if (i === undefined || j === undefined || i === j) continue;
+		const edgeA = d.edgeToEdgeAngstrom;
 		const current = cells[i]![j];
-		if (current && current.edgeToEdgeA <= d.edgeToEdgeA) continue;
+		if (current && current.edgeToEdgeA <= edgeA) continue;
 		const cell: MatrixCell = {
-			edgeToEdgeA: d.edgeToEdgeA,
+			edgeToEdgeA: edgeA,
 			accession: d.accession,
 			structureId: d.structureId,
-			hop: d.edgeToEdgeA <= HOP_LIMIT_A,
-			bin: reachBin(d.edgeToEdgeA)
+			hop: edgeA <= HOP_LIMIT_A,
+			bin: reachBin(edgeA)
 		};
 		cells[i]![j] = cell;
 		cells[j]![i] = cell;

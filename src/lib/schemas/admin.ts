@@ -46,3 +46,13 @@ export const accessRequestForm = z.object({
 export const dismissAccessRequestForm = z.object({
 	userId: z.string().min(1, 'choose a request')
 });
+
+/** /admin/users?requests=N: the page of open access requests shown (other parameters ignored). */
+export const accessRequestsQuerySchema = z.object({
+	requests: z.coerce
+		.number({ error: 'a page number' })
+		.int('a page number')
+		.min(1, 'pages start at 1')
+		.max(100_000, 'at most page 100000')
+		.default(1)
+});

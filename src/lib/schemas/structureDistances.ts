@@ -3,17 +3,15 @@ import { structureIdField } from './fields';
 import { DISTANCE_METHODS } from './vocabulary';
 
 /*
- * The form fields of the structure steps after the upload: which stored file, how the distances
+ * The form fields of the structure steps after the upload: which kept file, how the distances
  * are labelled, the cutoff, and the centre confirmed for each group (`match.N`, '' for none).
  */
 export const structurePlanSchema = z.object({
-	sha256: z.string().regex(/^[0-9a-f]{64}$/, 'upload the structure file again'),
-	filename: z
-		.string()
-		.trim()
-		.min(1)
-		.max(120)
-		.regex(/^[^\r\n]*$/, 'a file name on one line'),
+	/** The kept structure file: the attachment id the upload step answered with. */
+	attachment: z.coerce
+		.number({ error: 'upload the structure file again' })
+		.int('upload the structure file again')
+		.positive('upload the structure file again'),
 	structureId: structureIdField,
 	method: z.enum(DISTANCE_METHODS, { error: `expected one of ${DISTANCE_METHODS.join(', ')}` }),
 	cutoffA: z.coerce

@@ -232,7 +232,8 @@ export const rowCommentsField = z
 		const comments: Record<number, string> = {};
 		for (const [index, line] of text.split(/\r?\n/).entries()) {
 			if (!line.trim()) continue;
-			const m = /^\s*(\d+)(?:\s*-\s*(\d+))?\s*[:.)]\s*(.+)$/.exec(line);
+			// "Row 4: …" is read as "4: …" (curators write it both ways).
+			const m = /^\s*(?:rows?\s*)?(\d+)(?:\s*-\s*(\d+))?\s*[:.)]\s*(.+)$/i.exec(line);
 			const from = Number(m?.[1]);
 			const to = m?.[2] === undefined ? from : Number(m[2]);
 			if (!m || to < from) {

@@ -117,8 +117,35 @@ export async function requestContributorAccess(
 	};
 }
 
-/** Open requests, oldest first, for admins. */
-export async function openAccessRequests(db: Kysely<Database>): Promise<AccessRequestView[]> {
+/** Open requests listed per page on /admin/users. */
+export const ACCESS_REQUESTS_PAGE_SIZE = 25;
+
+export interface AccessRequestPage {
+	items: AccessRequestView[];
+	total: number;
+	/** 1-based; past the last page it is the last page (a request closed meanwhile). */
+	page: number;
+	pageCount: number;
+	pageSize: number;
+}
+
+/**
+ * One page of the open requests, oldest first, for admins. Paged because anyone signed in may
+ * ask: the list is as long as the crowd of readers, and the page must stay small however long.
+ */
+export async function openAccessRequests(
+	db: Kysely<Database>,
+	options: { page?: number; pageSize?: number } = {}
+): Promise<AccessRequestPage> {
+	const pageSize = options.pageSize ?? ACCESS_REQUESTS_PAGE_SIZE;
+	const counted = await db
+		.selectFrom('access_request')
+		.select((eb) => eb.fn.countAll<number>().as('n'))
+		.where('status', '=', 'open')
+		.executeTakeFirstOrThrow();
+	const total = Number(counted.n);
+	const pageCount = Math.max(1, Math.ceil(total / pageSize));
+	const page = Math.min(Math.max(1, options.page ?? 1), pageCount);
 	const rows = await db
 		.selectFrom('access_request')
 		.innerJoin('User', 'User.id', 'access_request.user_id')
@@ -134,8 +161,10 @@ export async function openAccessRequests(db: Kysely<Database>): Promise<AccessRe
 		.where('access_request.status', '=', 'open')
 		.orderBy('access_request.created_at')
 		.orderBy('access_request.id')
+		.limit(pageSize)
+		.offset((page - 1) * pageSize)
 		.execute();
-	return rows;
+	return { items: rows, total, page, pageCount, pageSize };
 }
 
 /** Closes a user's open request (given the role, or dismissed); false when none was open. */

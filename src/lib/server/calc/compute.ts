@@ -49,7 +49,8 @@ const INPUT_FIELD: Record<CalcKind, string> = {
 	titration: 'points',
 	tunnelling: 'potential',
 	chain: 'input',
-	structure: 'file'
+	structure: 'file',
+	structurePairs: 'cutoffA'
 };
 
 /**

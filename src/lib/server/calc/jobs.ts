@@ -1,6 +1,9 @@
 import {
 	fitNernst,
+	pairsWithinCutoff,
 	readStructureText,
+	type CofactorGroup,
+	type StructurePair,
 	type StructureCentre,
 	type StructureReading,
 	type FitOptions,
@@ -20,7 +23,8 @@ export type CalcJob =
 	| { kind: 'titration'; points: TitrationPoint[]; options: FitOptions }
 	| { kind: 'tunnelling'; request: TunnellingRequest }
 	| { kind: 'chain'; input: LadderChainInput }
-	| { kind: 'structure'; text: string; centres: StructureCentre[] };
+	| { kind: 'structure'; text: string; centres: StructureCentre[] }
+	| { kind: 'structurePairs'; groups: CofactorGroup[]; cutoffA: number };
 
 /** The result of each kind of job. */
 export interface CalcResults {
@@ -28,6 +32,7 @@ export interface CalcResults {
 	tunnelling: TunnellingResult;
 	chain: ChainEstimate;
 	structure: StructureReading;
+	structurePairs: StructurePair[];
 }
 
 export type CalcKind = CalcJob['kind'];
@@ -42,5 +47,7 @@ export function runCalcJob(job: CalcJob): CalcResults[CalcKind] {
 			return estimateChain(job.input);
 		case 'structure':
 			return readStructureText(job.text, job.centres);
+		case 'structurePairs':
+			return pairsWithinCutoff(job.groups, { cutoffA: job.cutoffA });
 	}
 }

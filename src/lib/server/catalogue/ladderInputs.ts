@@ -1,8 +1,7 @@
 import { sql, type Kysely } from 'kysely';
 import type { ListedPotential } from '$lib/catalogue/conflicts';
 import { DEFAULT_CHAIN_CONDITIONS, type ChainConditions } from '$lib/schemas/chainConditions';
-import type { CentreDto } from '$lib/catalogue/dto';
-import type { LadderDistance } from '$lib/catalogue/ladder';
+import type { CentreDto, DistanceDto } from '$lib/catalogue/dto';
 import type { Database } from '../db/schema';
 import { listCentres } from '../kinds/centre';
 import { listDistances } from '../kinds/distance';
@@ -28,7 +27,8 @@ export type LadderInputs =
 			ok: true;
 			centres: Pick<CentreDto, 'accession' | 'label' | 'cofactorKind'>[];
 			potentials: ListedPotential[];
-			distances: LadderDistance[];
+			/** Also what the protein page's distance matrix is drawn from (catalogue/distanceMatrix.ts). */
+			distances: DistanceDto[];
 	  }
 	| { ok: false; reason: string };
 

@@ -16,6 +16,7 @@ import type { OutgoingMail } from './outbox';
 import { setSubmissionStatus } from './submissions';
 import { setImmediate } from 'node:timers/promises';
 import { nextStatus, type SubmissionAction } from './transitions';
+import { withRowPrefix } from './rowComment';
 import { duringBulkWrite } from '../db/revision';
 
 /*
@@ -420,7 +421,8 @@ export async function decideBatch(
 		});
 		const perRow = returned
 			.map(
-				(v) => `  row ${v.row_number}: ${rowComments[v.row_number as number] ?? decision.comment}`
+				(v) =>
+					`  ${withRowPrefix(v.row_number as number, rowComments[v.row_number as number] ?? decision.comment)}`
 			)
 			.join('\n');
 		const comment =

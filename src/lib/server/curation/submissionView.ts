@@ -9,6 +9,7 @@ import type { Database } from '../db/schema';
 import { viewerOf } from '../catalogue/visibility';
 import { warningsForVersion, type WarningAudience } from './checks';
 import { SubmissionNotFoundError } from './errors';
+import { withRowPrefix } from './rowComment';
 
 /*
  * One submission as its contributor or a curator reads it: its versions with the differences
@@ -164,7 +165,7 @@ export async function loadSubmissionView(
 		comments: comments.map((c) => ({
 			id: c.id,
 			// A comment on one row of a CSV batch says which row.
-			body: c.row_number === null ? c.body : `Row ${c.row_number}: ${c.body}`,
+			body: c.row_number === null ? c.body : withRowPrefix(c.row_number, c.body),
 			at: c.created_at,
 			author: c.name ?? c.email ?? 'unknown',
 			role: c.role

@@ -7,7 +7,13 @@ import type { SessionUser } from '../auth/roles';
 import { config } from '../config';
 import type { Database } from '../db/schema';
 import { readStructureFile } from './readStructureFile';
-import { loadStructureBytes, saveStructureBytes } from './store';
+import { cachedReading, rememberReading } from './readingCache';
+import {
+	keepStructureFile,
+	ownStructureFile,
+	structureBytes,
+	type StructureFileRef
+} from './structureFile';
 import {
 	loadProteinForStructure,
 	planDistances,
@@ -19,8 +25,9 @@ import { calculate } from '../calc/compute';
 
 /*
  * The three steps of distances from a structure, as services the route calls: read the upload
- * (store it, list the groups, propose a match), plan the distances from a confirmed match, and
- * (in the route) commit the ticked ones through the CSV batch commit.
+ * (keep it as an unlisted attachment, list the groups, propose a match), plan the distances from
+ * a confirmed match, and (in the route) commit the ticked ones through the CSV batch commit and
+ * list the file on every distance of the batch (structureFile.ts).
  */
 export const structureLimits = () => ({
 	maxBytes: config.STRUCTURE_MAX_BYTES,
@@ -82,14 +89,16 @@ async function readGroupsOffThread(
 }
 
 export interface ReadResult {
-	sha256: string;
-	filename: string;
+	/** The kept file: its attachment id is what the next steps post. */
+	file: StructureFileRef;
 	gzipped: boolean;
 	reading: StructureReading;
 }
 
-/** Reads, checks and stores an uploaded file; the groups and a proposed match. */
+/** Reads and checks an uploaded file, keeps it as an attachment; the groups and a proposed match. */
 export async function readUpload(
+	db: Kysely<Database>,
+	user: Pick<SessionUser, 'id'>,
 	protein: ProteinForStructure,
 	bytes: Uint8Array,
 	filename: string
@@ -98,27 +107,41 @@ export async function readUpload(
 		const file = await readStructureFile(bytes, structureLimits());
 		return { file, reading: await readGroupsOffThread(file.text, protein) };
 	});
-	await saveStructureBytes(file.sha256, bytes);
-	return {
-		sha256: file.sha256,
-		filename: cleanName(filename),
-		gzipped: file.gzipped,
-		reading
-	};
+	const kept = await keepStructureFile(db, {
+		entryId: protein.entryId,
+		bytes,
+		fileName: filename,
+		uploadedBy: user.id
+	});
+	rememberReading(kept.attachmentId, reading);
+	return { file: kept, gzipped: file.gzipped, reading };
 }
 
-/** A file name fit for a note: one line, no path, at most 120 characters. */
-export function cleanName(name: string): string {
-	const base = name.split(/[\\/]/).pop() ?? '';
-	// eslint-disable-next-line no-control-regex
-	const clean = base.replace(/[\u0000-\u001f\u007f]/g, '').trim();
-	return (clean || 'structure').slice(0, 120);
+/**
+ * The groups of a kept file: from the cache when this process read it lately, otherwise read
+ * again from the store in the worker pool. Null when the store no longer has the bytes.
+ */
+async function readingOf(
+	file: StructureFileRef,
+	protein: ProteinForStructure
+): Promise<StructureReading | null> {
+	const cached = cachedReading(file.attachmentId);
+	if (cached) return cached;
+	const reading = await oneReadAtATime(async () => {
+		const bytes = await structureBytes(file);
+		if (!bytes) return null;
+		const text = await readStructureFile(bytes, structureLimits());
+		return readGroupsOffThread(text.text, protein);
+	});
+	if (reading) rememberReading(file.attachmentId, reading);
+	return reading;
 }
 
 export type PlanResult =
 	| {
 			ok: true;
 			form: StructurePlanForm;
+			file: StructureFileRef;
 			reading: StructureReading;
 			matches: string[];
 			plan: DistancePlan;
@@ -136,17 +159,15 @@ export async function planFromForm(
 	const parsed = structurePlanSchema.safeParse(values);
 	if (!parsed.success) return { ok: false, status: 400, errors: fieldErrors(parsed.error) };
 	const form = parsed.data;
-	const reading = await oneReadAtATime(async () => {
-		const bytes = await loadStructureBytes(form.sha256);
-		if (!bytes) return null;
-		const file = await readStructureFile(bytes, structureLimits());
-		return readGroupsOffThread(file.text, protein);
-	});
-	if (!reading)
+	// Only the user's own unlisted file of this protein; any other id gets the answer a missing
+	// file gets, so an id tells nothing about someone else's upload.
+	const file = await ownStructureFile(db, form.attachment, user, protein.entryId);
+	const reading = file ? await readingOf(file, protein) : null;
+	if (!file || !reading)
 		return {
 			ok: false,
 			status: 404,
-			errors: { file: ['the structure file is no longer stored: upload it again'] }
+			errors: { file: ['the structure file is no longer kept: upload it again'] }
 		};
 	const visible = new Set(protein.centres.map((c) => c.accession));
 	const errors: FieldErrors = {};
@@ -183,11 +204,11 @@ export async function planFromForm(
 		structureId: form.structureId,
 		method: form.method,
 		cutoffA: form.cutoffA,
-		sha256: form.sha256,
-		filename: form.filename,
+		sha256: file.sha256,
+		filename: file.fileName,
 		only,
 		viewer: { groupIds: user.groupIds },
 		uploaderId: user.id
 	});
-	return { ok: true, form, reading, matches, plan };
+	return { ok: true, form, file, reading, matches, plan };
 }

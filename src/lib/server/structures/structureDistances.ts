@@ -1,12 +1,14 @@
 import type { Kysely } from 'kysely';
 import Papa from 'papaparse';
-import { pairsWithinCutoff, type StructureReading } from '$lib/science';
+import type { StructureReading } from '$lib/science';
 import type { CofactorKind, DistanceMethod } from '$lib/schemas/vocabulary';
+import { warningText } from '$lib/catalogue/warningText';
 import { readJson } from '../db/json';
 import type { Database } from '../db/schema';
 import { entryIsVisible, type Viewer } from '../catalogue/visibility';
 import { uploadCsvLimits } from '../uploads/readCsv';
 import { checkUpload, type UploadCheck } from '../uploads/checkUpload';
+import { calculate } from '../calc/compute';
 
 /*
  * Distances proposed from an uploaded structure: its cofactor groups, the match of groups to the
@@ -124,10 +126,19 @@ export interface ProposedDistance {
 	edgeToEdgeA: number;
 	atoms: string;
 	centreToCentreA: number;
+	/**
+	 * The batch check's warnings other than "already recorded" for a distance listed in
+	 * `existing`: that one is said once, on its line there.
+	 */
 	warnings: string[];
 	errors: string[];
 	/** Approved distances of the same pair (any structure), shown beside the new one. */
 	existing: (ExistingDistance & { sameStructure: boolean; conflict: boolean })[];
+	/**
+	 * Ticked when the page shows the plan: not when it has errors, nor when the pair is already
+	 * recorded for the same structure (a conflict or a repeat) — the contributor may tick it.
+	 */
+	preselected: boolean;
 }
 
 /** A difference in edge-to-edge distance above which the same pair and structure conflict, Å. */
@@ -167,7 +178,13 @@ export async function planDistances(
 	const matchedIndexes = input.matches.flatMap((m, i) => (m ? [i] : []));
 	const matchedGroups = matchedIndexes.map((i) => reading.groups[i]!);
 	const centreByAccession = new Map(protein.centres.map((c) => [c.accession, c]));
-	const pairs = pairsWithinCutoff(matchedGroups, { cutoffA: input.cutoffA }).map((p) => ({
+	// The geometry (every heavy atom of a group against every one of the other, for each pair)
+	// runs in the calculation pool, like the reading, never on the request thread.
+	const found = await calculate(
+		{ kind: 'structurePairs', groups: matchedGroups, cutoffA: input.cutoffA },
+		null
+	);
+	const pairs = found.map((p) => ({
 		...p,
 		a: matchedIndexes[p.a]!,
 		b: matchedIndexes[p.b]!
@@ -209,6 +226,7 @@ export async function planDistances(
 	check.previousUpload = null;
 	// Row 1 is the header: the n-th distance is row n + 1.
 	const keyOfRow = new Map(kept.map((p, n) => [n + 2, `${p.a}-${p.b}`]));
+	const entryOfRow = new Map(check.entries.map((e) => [e.row, e]));
 	const issuesOf = (row: number, severity: 'error' | 'warning') =>
 		check.issues.filter((i) => i.row === row && i.severity === severity).map((i) => i.message);
 	const proposed = kept.map((p, n): ProposedDistance => {
@@ -229,12 +247,15 @@ export async function planDistances(
 					conflict: sameStructure && Math.abs(d.edgeToEdgeA - edgeToEdgeA) > CONFLICT_A
 				};
 			});
-		const conflicts = existing
-			.filter((d) => d.conflict)
-			.map(
-				(d) =>
-					`conflicts with ${d.accession}: ${d.edgeToEdgeA} Å edge-to-edge in the same structure`
-			);
+		// The check's "already in the registry as X" for an X listed beside the distance is said
+		// there, once, with its value and whether it conflicts.
+		const listed = new Set(existing.map((d) => d.accession));
+		const sayAgain = new Set(
+			(entryOfRow.get(n + 2)?.warnings ?? [])
+				.filter((w) => w.kind === 'duplicate' && w.accession && listed.has(w.accession))
+				.map(warningText)
+		);
+		const errors = issuesOf(n + 2, 'error');
 		return {
 			existing,
 			key: `${p.a}-${p.b}`,
@@ -243,8 +264,9 @@ export async function planDistances(
 			edgeToEdgeA,
 			atoms: `${p.edge.atomA.name}–${p.edge.atomB.name}`,
 			centreToCentreA: round2(p.centreToCentreA),
-			warnings: [...issuesOf(n + 2, 'warning'), ...conflicts],
-			errors: issuesOf(n + 2, 'error')
+			warnings: issuesOf(n + 2, 'warning').filter((w) => !sayAgain.has(w)),
+			errors,
+			preselected: errors.length === 0 && !existing.some((d) => d.sameStructure)
 		};
 	});
 	return { proposed, check, keyOfRow };

@@ -1,4 +1,10 @@
-import { dismissAccessRequestForm, setDisabledForm, setRoleForm } from '$lib/schemas/admin';
+import {
+	accessRequestsQuerySchema,
+	dismissAccessRequestForm,
+	setDisabledForm,
+	setRoleForm
+} from '$lib/schemas/admin';
+import { parseSearchParams } from '$lib/schemas/searchParams';
 import { closeAccessRequests, openAccessRequests } from '$lib/server/admin/accessRequests';
 import {
 	AdminRuleError,
@@ -11,12 +17,18 @@ import { ROLES } from '$lib/roles';
 import { requireRole } from '$lib/server/auth/guards';
 import { db } from '$lib/server/db';
 import { parseForm } from '$lib/server/http/forms';
-import { toFormFailure } from '$lib/server/http/failures';
+import { queryError, toFormFailure } from '$lib/server/http/failures';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'admin');
-	return { users: await listUsers(db), requests: await openAccessRequests(db), roles: ROLES };
+	const query = parseSearchParams(accessRequestsQuerySchema, event.url.searchParams);
+	if (!query.ok) queryError(query.fields);
+	return {
+		users: await listUsers(db),
+		requests: await openAccessRequests(db, { page: query.data.requests }),
+		roles: ROLES
+	};
 };
 
 export const actions: Actions = {

@@ -22,7 +22,6 @@ import {
 	shownAttachmentsOfVersion
 } from '$lib/server/attachments/shownAttachments';
 import { attachmentStore } from '$lib/server/attachments/store';
-import { loadProteinForStructure } from '$lib/server/structures/structureDistances';
 import { orNotFound, queryError } from '$lib/server/http/failures';
 import type { PageServerLoad } from './$types';
 import { presentEntry } from './presentEntry';
@@ -89,11 +88,6 @@ export const load: PageServerLoad = async ({
 		view.kind === 'potential'
 			? await conflictFlagsOfPotential(db, view.accession, locals.viewer)
 			: await conflictFlags(db, related?.potentials.items ?? [], locals.viewer);
-	// The protein's current distances as a matrix (live data, shown apart from the version).
-	const matrixData =
-		view.kind === 'protein'
-			? await loadProteinForStructure(db, view.accession, locals.viewer)
-			: null;
 	// The version's own attachment list, frozen with it at approval.
 	const versionId = await approvedVersionId(db, view.accession, view.version);
 	const attachments =
@@ -107,7 +101,10 @@ export const load: PageServerLoad = async ({
 		cite: pageCitation(citation.record),
 		related: related ? shownRelated(related) : null,
 		ladder,
-		distanceMatrix: matrixData ? distanceMatrix(matrixData.centres, matrixData.distances) : null,
+		// The protein's current distances as a matrix, from the ladder's (live data, apart from the version).
+		distanceMatrix: ladderData?.ok
+			? distanceMatrix(ladderData.centres, ladderData.distances)
+			: null,
 		ladderDrawings: ladder ? drawLadders(ladder) : null,
 		ladderNote: ladderData?.ok === false ? ladderData.reason : null,
 		chain: chain.estimate,

@@ -12,11 +12,14 @@ import { runCurationAction } from '$lib/server/curation/outbox';
 import { toFormFailure } from '$lib/server/http/failures';
 import { commitUpload } from '$lib/server/uploads/commitUpload';
 import { planFromForm, proteinOr404, readUpload } from '$lib/server/structures/flow';
+import { listOnSubmission } from '$lib/server/structures/structureFile';
+import { CONFLICT_A } from '$lib/server/structures/structureDistances';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 /*
  * Distances from a structure file, for contributors: upload (read), confirm the match (plan),
- * untick and submit (submit). The stored file is found again by its SHA-256.
+ * untick and submit (submit). The file is kept as the contributor's unlisted attachment; the next
+ * steps post its id, and submitting lists it on every distance of the batch.
  */
 const MULTIPART_OVERHEAD = 64 * 1024;
 
@@ -43,6 +46,7 @@ export const load: PageServerLoad = async (event) => {
 		})),
 		methods: DISTANCE_METHODS.map((m) => ({ value: m, label: DISTANCE_METHOD_LABELS[m] })),
 		cutoffA: DEFAULT_CUTOFF_A,
+		conflictA: CONFLICT_A,
 		maxBytes: config.STRUCTURE_MAX_BYTES,
 		groups: await groupsForSharing(db, user)
 	};
@@ -57,9 +61,9 @@ async function formValues(event: RequestEvent) {
 }
 
 export const actions: Actions = {
-	/** Step 1: read the file, store it, list its groups and propose a match. */
+	/** Step 1: read the file, keep it, list its groups and propose a match. */
 	read: async (event) => {
-		const { protein: p } = await protein(event);
+		const { user, protein: p } = await protein(event);
 		const length = Number(event.request.headers.get('content-length') ?? 0);
 		const limitMb = (config.STRUCTURE_MAX_BYTES / 1024 / 1024).toFixed(1);
 		if (length > config.STRUCTURE_MAX_BYTES + MULTIPART_OVERHEAD)
@@ -74,11 +78,18 @@ export const actions: Actions = {
 		if (!(file instanceof File) || file.size === 0)
 			return fail(400, { errors: { file: ['choose a PDB or mmCIF file (.pdb, .cif, or .gz)'] } });
 		try {
-			const read = await readUpload(p, new Uint8Array(await file.arrayBuffer()), file.name);
+			const read = await readUpload(
+				db,
+				user,
+				p,
+				new Uint8Array(await file.arrayBuffer()),
+				file.name
+			);
 			return {
 				step: 'match' as const,
-				sha256: read.sha256,
-				filename: read.filename,
+				attachment: read.file.attachmentId,
+				sha256: read.file.sha256,
+				filename: read.file.fileName,
 				groups: read.reading.rows,
 				proposals: read.reading.proposals
 			};
@@ -100,8 +111,9 @@ export const actions: Actions = {
 		return {
 			step: 'pick' as const,
 			values,
-			sha256: r.form.sha256,
-			filename: r.form.filename,
+			attachment: r.file.attachmentId,
+			sha256: r.file.sha256,
+			filename: r.file.fileName,
 			groups: r.reading.rows,
 			matches: r.matches,
 			proposed: r.plan.proposed
@@ -131,16 +143,19 @@ export const actions: Actions = {
 			});
 		let result;
 		try {
-			result = await runCurationAction(db, (trx) =>
-				commitUpload(trx, user, r.plan.check, {
-					filename: r.form.filename,
+			result = await runCurationAction(db, async (trx) => {
+				const committed = await commitUpload(trx, user, r.plan.check, {
+					filename: r.file.fileName,
 					visibility: visibility.visibility,
 					changeNote: null,
 					origin: event.url.origin,
 					pendingRowsMax: config.PENDING_ROWS_MAX,
-					title: `${r.plan.check.entries.length} distance(s) of ${p.name} from structure ${r.form.structureId} (${r.form.filename})`
-				})
-			);
+					title: `${r.plan.check.entries.length} distance(s) of ${p.name} from structure ${r.form.structureId} (${r.file.fileName})`
+				});
+				// Each distance's evidence: the file it was measured in, in the same transaction.
+				await listOnSubmission(trx, r.file, committed.submissionId, r.form.structureId);
+				return committed;
+			});
 		} catch (e) {
 			return toFormFailure(e, event, values);
 		}
