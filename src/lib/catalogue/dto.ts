@@ -10,11 +10,6 @@ import {
 	VISIBILITIES
 } from '$lib/schemas/vocabulary';
 import { ENTRY_KINDS } from '$lib/kinds';
-import {
-	ATTACHMENT_KINDS,
-	ATTACHMENT_ROLES,
-	attachmentConditionsSchema
-} from '$lib/schemas/attachment';
 
 /*
  * The shapes the catalogue hands to pages and API clients (camelCase, units in the names).
