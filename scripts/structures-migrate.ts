@@ -1,4 +1,4 @@
-// `npx tsx scripts/structures-migrate.ts`: moves structure files kept before they were attachments
+// `npm run structures:migrate`: moves structure files kept before they were attachments
 // (`<data folder>/structures/<SHA-256>`) into the attachment store, listed on the distances still
 // under review whose note names them (src/lib/server/structures/legacyFolder.ts). Approved
 // versions are frozen, so files only they name stay in the folder; nothing is deleted.
