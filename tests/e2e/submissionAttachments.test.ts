@@ -374,9 +374,13 @@ describe('the submission page in Chromium', () => {
 		await page.getByTestId('notice').getByText('File attached.').waitFor();
 		const list = page.getByTestId('attachments');
 		await expect(list.getByText('X-band EPR, reduced with dithionite').count()).resolves.toBe(1);
-		await expect(list.getByText('15 K · 9.4 GHz · 2 mW · modulation 0.5 mT').count()).resolves.toBe(
-			1
-		);
+		await expect(
+			list
+				.getByText(
+					'temperature 15\u00a0K · microwave frequency 9.4\u00a0GHz · microwave power 2\u00a0mW · modulation amplitude 0.5\u00a0mT'
+				)
+				.count()
+		).resolves.toBe(1);
 		await expect(list.getByRole('link', { name: 'spectrum.csv' }).count()).resolves.toBe(1);
 		const img = list.locator('img');
 		await expect(img.getAttribute('src')).resolves.toMatch(

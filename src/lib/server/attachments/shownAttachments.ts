@@ -5,8 +5,7 @@ import {
 	type AttachmentConditions
 } from '$lib/schemas/attachment';
 import { readSpectrumData, type SpectrumData } from '$lib/schemas/spectrumData';
-import { REFERENCE_ELECTRODE_LABELS } from '$lib/science/referenceElectrodes';
-import { formatKelvin, formatNumber } from '$lib/format';
+import { conditionWords, formatByteSize } from '$lib/format/attachments';
 import { thinnedIndices, type SpectrumConditions } from '$lib/components/spectrumPlot';
 import type { AttachmentAnswer } from '$lib/schemas/attachmentResponse';
 import type { Database } from '../db/schema';
@@ -48,36 +47,6 @@ export interface ShownAttachment {
 		  }
 		| { problem: string }
 		| null;
-}
-
-/** A file size for people: "812 B", "19 kB", "2.4 MB" (decimal units). */
-export function formatByteSize(bytes: number): string {
-	if (bytes < 1000) return `${bytes}\u00a0B`;
-	if (bytes < 1_000_000) return `${Math.round(bytes / 1000)}\u00a0kB`;
-	return `${(bytes / 1_000_000).toFixed(1)}\u00a0MB`;
-}
-
-/** The stated conditions in words, each with its unit. */
-export function conditionWords(
-	c: Partial<AttachmentConditions>
-): { label: string; text: string }[] {
-	const out: { label: string; text: string }[] = [];
-	const add = (label: string, value: number | null | undefined, unit: string) => {
-		if (value !== null && value !== undefined)
-			out.push({ label, text: `${formatNumber(value)}\u00a0${unit}` });
-	};
-	if (c.temperatureK !== null && c.temperatureK !== undefined)
-		out.push({ label: 'Temperature', text: formatKelvin(c.temperatureK) });
-	add('Microwave frequency', c.microwaveFrequencyGHz, 'GHz');
-	add('Microwave power', c.microwavePowerMw, 'mW');
-	add('Modulation amplitude', c.modulationAmplitudeMt, 'mT');
-	add('Scan rate', c.scanRateMvPerS, 'mV/s');
-	if (c.referenceElectrode)
-		out.push({
-			label: 'Reference electrode',
-			text: REFERENCE_ELECTRODE_LABELS[c.referenceElectrode]
-		});
-	return out;
 }
 
 /** The conditions as stored (checked by the schema on upload; none if that ever fails). */
