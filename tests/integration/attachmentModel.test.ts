@@ -347,4 +347,34 @@ describe('attachments as rows and files', () => {
 		).rejects.toMatchObject({ status: 422, code: 'unreadable_numbers' });
 		expect(await db.selectFrom('attachment').select('id').execute()).toEqual(before);
 	});
+	it('refuses numbers whose header a spreadsheet would run as a formula, and cleans captions', async () => {
+		const p = await proteinDraft('public');
+		// OWASP, "CSV Injection": cells starting with = + - @ (or tab, CR) are formulas to a spreadsheet.
+		for (const header of [
+			"=cmd|' /C calc'!A0 (mT),y",
+			'Field (mT),@SUM(1+1)',
+			'x,+HYPERLINK("http://example.org")'
+		]) {
+			await expect(
+				createAttachment(db, deps, {
+					entryId: p.entryId,
+					meta: { ...meta, kind: 'other', conditions: {} },
+					fileName: 'n.csv',
+					bytes: new TextEncoder().encode(`${header}\n1,2\n3,4\n`),
+					role: 'data',
+					uploadedBy: contributor.id
+				})
+			).rejects.toMatchObject({ status: 422, code: 'unreadable_numbers' });
+		}
+		// Negative numbers and a header of names are not formulas.
+		const fine = await createAttachment(db, deps, {
+			entryId: p.entryId,
+			meta: { kind: 'other', caption: 'A\u202egnp.exe \u200bcaption', conditions: {} },
+			fileName: 'n.csv',
+			bytes: new TextEncoder().encode('-1,-2\n-3,4\n'),
+			role: 'data',
+			uploadedBy: contributor.id
+		});
+		expect(fine.caption).toBe('Agnp.exe caption');
+	});
 });

@@ -72,14 +72,28 @@ export const attachmentConditionsSchema = z
 	.strict();
 export type AttachmentConditions = z.infer<typeof attachmentConditionsSchema>;
 
+/**
+ * What a caption loses: direction overrides and isolates (they can make a caption read
+ * differently from what it says), zero-width spaces and the BOM, and control characters other
+ * than line breaks and tabs. Joiners stay: some scripts and emoji need them.
+ */
+const CAPTION_INVISIBLE =
+	// eslint-disable-next-line no-control-regex -- control characters are what is removed
+	/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f\u200b\u202a-\u202e\u2066-\u2069\ufeff]/g;
+
 export const attachmentMetaSchema = z
 	.object({
 		kind: z.enum(ATTACHMENT_KINDS, { message: 'choose what the file shows' }),
 		caption: z
 			.string()
-			.trim()
-			.min(1, 'write a caption')
-			.max(1000, 'a caption is at most 1000 characters'),
+			.transform((text) => text.replace(CAPTION_INVISIBLE, ''))
+			.pipe(
+				z
+					.string()
+					.trim()
+					.min(1, 'write a caption')
+					.max(1000, 'a caption is at most 1000 characters')
+			),
 		conditions: attachmentConditionsSchema.default(attachmentConditionsSchema.parse({}))
 	})
 	.superRefine((meta, ctx) => {

@@ -65,6 +65,14 @@ function chosen(v: FormDataEntryValue | null): File | null {
 	return v instanceof File && (v.size > 0 || v.name !== '') ? v : null;
 }
 
+/**
+ * More parts than any honest form sends (each field once, a few framework fields beside them):
+ * past it the form is refused whole, so the answer stays short however many parts arrive.
+ */
+export const ATTACHMENT_FORM_MAX_PARTS = 32;
+/** Unknown field names quoted in the answer, at most (each cut to 40 characters). */
+const UNKNOWN_NAMES_SHOWN = 5;
+
 /** Reads and checks the fields; file bytes are read only once every other field is valid. */
 export async function readAttachmentForm(
 	form: FormData,
@@ -73,18 +81,37 @@ export async function readAttachmentForm(
 	const values: AttachmentFormValues = {};
 	const errors: FieldErrors = {};
 	const add = (field: string, message: string) => (errors[field] ??= []).push(message);
+	const allFields = [...ATTACHMENT_TEXT_FIELDS, ...FILE_FIELDS].join(', ');
+	const unknown: string[] = [];
+	let parts = 0;
 	for (const [key, value] of form) {
+		if (++parts > ATTACHMENT_FORM_MAX_PARTS)
+			return {
+				ok: false,
+				status: 400,
+				errors: {
+					form: [
+						`the form has more than ${ATTACHMENT_FORM_MAX_PARTS} parts; send each of these at most once: ${allFields}`
+					]
+				},
+				values: {}
+			};
 		if ((ATTACHMENT_TEXT_FIELDS as readonly string[]).includes(key)) {
 			if (typeof value !== 'string') add(key, 'send this field as text, not a file');
 			else if (value.trim() !== '') values[key as keyof AttachmentFormValues] = value.trim();
 		} else if (!(FILE_FIELDS as readonly string[]).includes(key)) {
-			add(
-				key,
-				`unknown field; the fields are ${[...ATTACHMENT_TEXT_FIELDS, ...FILE_FIELDS].join(', ')}`
-			);
+			unknown.push(key);
 		} else if (typeof value === 'string' && value !== '') {
 			add(key, 'send a file here (multipart/form-data), not text');
 		}
+	}
+	if (unknown.length > 0) {
+		const shown = unknown.slice(0, UNKNOWN_NAMES_SHOWN).map((k) => JSON.stringify(k.slice(0, 40)));
+		const more = unknown.length - shown.length;
+		add(
+			'form',
+			`unknown field${unknown.length > 1 ? 's' : ''} ${shown.join(', ')}${more > 0 ? ` and ${more} more` : ''}; the fields are ${allFields}`
+		);
 	}
 
 	let accession: string | null = null;

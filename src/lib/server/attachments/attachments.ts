@@ -75,12 +75,36 @@ function numbersAxis(kind: AttachmentKind): SpectrumAxis {
 }
 
 /**
+ * A header cell a spreadsheet would take for a formula (OWASP's list: = + - @, tab, CR), or null.
+ * The original is served byte for byte, so such a file is refused rather than altered. Only the
+ * first line holding anything is looked at: every other line was read as two numbers.
+ */
+function formulaCell(bytes: Uint8Array): string | null {
+	const text = new TextDecoder().decode(bytes.subarray(0, 4096)).replace(/^\uFEFF/, '');
+	const first = text.split(/\r\n|\n|\r/).find((line) => !/^[\s,;]*$/.test(line)) ?? '';
+	for (const cell of first.split(/[,;\t]/)) {
+		const t = cell.replace(/^[\s"']+/, '');
+		if (/^[=+\-@]/.test(t) && !/^[+-]?(\d|\.\d)/.test(t)) return t;
+	}
+	return null;
+}
+
+/**
  * Refuses a numbers file the plot could not draw, naming its first problems (rows by line).
  * Called after inspectAttachment has ruled out binary files, markup and archives.
  */
 function checkNumbers(bytes: Uint8Array, kind: AttachmentKind): void {
 	const reading = readSpectrumData(bytes, { xAxis: numbersAxis(kind) });
-	if (reading.ok) return;
+	if (reading.ok) {
+		const formula = formulaCell(bytes);
+		if (formula !== null)
+			throw new AttachmentRejectedError(
+				422,
+				'unreadable_numbers',
+				`The numbers file's first line has a cell starting with "${formula.slice(0, 1)}" (${JSON.stringify(formula.slice(0, 40))}), which a spreadsheet would run as a formula when the file is downloaded and opened; rename the column (e.g. "Field (mT)").`
+			);
+		return;
+	}
 	const shown = reading.problems.slice(0, 5);
 	const more = reading.problems.length - shown.length;
 	throw new AttachmentRejectedError(

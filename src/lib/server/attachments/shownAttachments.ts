@@ -4,7 +4,8 @@ import {
 	attachmentConditionsSchema,
 	type AttachmentConditions
 } from '$lib/schemas/attachment';
-import { readSpectrumData, type SpectrumData } from '$lib/schemas/spectrumData';
+import { LRUCache } from 'lru-cache';
+import { readSpectrumData, type SpectrumAxis, type SpectrumData } from '$lib/schemas/spectrumData';
 import { conditionWords, formatByteSize } from '$lib/format/attachments';
 import { thinnedIndices, type SpectrumConditions } from '$lib/components/spectrumPlot';
 import type { AttachmentAnswer } from '$lib/schemas/attachmentResponse';
@@ -67,29 +68,61 @@ function plotConditions(a: AttachmentDto): SpectrumConditions {
 }
 
 /** The numbers of an attachment, read from the store and thinned for drawing. */
-async function plotOf(store: BlobStore, a: AttachmentDto): Promise<ShownAttachment['plot']> {
-	if (!a.numbers || a.role === 'structure') return null;
-	const bytes = await store.get(a.numbers.sha256);
+/**
+ * Readings of numbers files, thinned for drawing, by file SHA-256 and axis. A file never
+ * changes under its SHA-256, so an entry can be re-rendered (signed-in readers and query
+ * strings skip the page cache) without reading and parsing its files again. Bounded by points.
+ */
+const readings = new LRUCache<string, { data: SpectrumData; total: number } | { problem: string }>({
+	maxSize: 30 * PLOTTED_POINTS_MAX,
+	sizeCalculation: (r) => ('data' in r ? Math.max(1, r.data.points.length) : 1)
+});
+
+async function readingOf(
+	store: BlobStore,
+	sha256: string,
+	axis: SpectrumAxis
+): Promise<{ data: SpectrumData; total: number } | { problem: string }> {
+	const key = `${sha256}:${axis}`;
+	const cached = readings.get(key);
+	if (cached) return cached;
+	const bytes = await store.get(sha256);
+	// Not cached: the file may be restored to the store.
 	if (!bytes) return { problem: 'The numbers file is missing from the file store.' };
-	const axis =
-		a.kind === 'epr_spectrum' ? 'field' : a.kind === 'voltammogram' ? 'potential' : 'any';
 	const reading = readSpectrumData(bytes, { xAxis: axis });
 	// Checked on upload; a file the reader now refuses (a stricter rule) is said so, not drawn.
-	if (!reading.ok) return { problem: `The numbers cannot be plotted: ${reading.problems[0]}.` };
-	const all = reading.data.points;
-	const kept =
-		all.length > PLOTTED_POINTS_MAX
-			? thinnedIndices(
-					all.map((p) => p[1]),
-					PLOTTED_POINTS_MAX
-				).map((i) => all[i] as [number, number])
-			: all;
+	const result = reading.ok
+		? {
+				data: { ...reading.data, points: thinned(reading.data.points) },
+				total: reading.data.points.length
+			}
+		: { problem: `The numbers cannot be plotted: ${reading.problems[0]}.` };
+	readings.set(key, result);
+	return result;
+}
+
+function thinned(all: [number, number][]): [number, number][] {
+	return all.length > PLOTTED_POINTS_MAX
+		? thinnedIndices(
+				all.map((p) => p[1]),
+				PLOTTED_POINTS_MAX
+			).map((i) => all[i] as [number, number])
+		: all;
+}
+
+async function plotOf(store: BlobStore, a: AttachmentDto): Promise<ShownAttachment['plot']> {
+	if (!a.numbers || a.role === 'structure') return null;
+	const axis =
+		a.kind === 'epr_spectrum' ? 'field' : a.kind === 'voltammogram' ? 'potential' : 'any';
+	const reading = await readingOf(store, a.numbers.sha256, axis);
+	if ('problem' in reading) return reading;
+	const kept = reading.data.points.length;
 	return {
-		data: { ...reading.data, points: kept },
+		data: reading.data,
 		conditions: plotConditions(a),
 		note:
-			kept.length < all.length
-				? `Drawn from ${kept.length} of the file's ${all.length} points (the highest and lowest of each run kept); the data file has them all.`
+			kept < reading.total
+				? `Drawn from ${kept} of the file's ${reading.total} points (the highest and lowest of each run kept); the data file has them all.`
 				: null
 	};
 }

@@ -104,7 +104,7 @@ export async function editableVersion(
 ): Promise<AttachmentTarget> {
 	const submission = await db
 		.selectFrom('submission')
-		.select(['id', 'status', 'submitted_by'])
+		.select(['id', 'status', 'submitted_by', 'channel'])
 		.where('id', '=', submissionId)
 		.executeTakeFirst();
 	if (!submission) throw new SubmissionNotFoundError(submissionId);
@@ -112,6 +112,12 @@ export async function editableVersion(
 		if (!roleAtLeast(user.role, 'curator')) throw new SubmissionNotFoundError(submissionId);
 		throw new SubmissionAccessError('only its contributor can attach files to a submission');
 	}
+	// A CSV batch is reviewed row by row, with no place to show a file beside a row: a file is
+	// evidence a curator must see before approving, so batches carry none.
+	if (submission.channel === 'csv')
+		throw new SubmissionStateError(
+			`submission ${submissionId} is a CSV batch, which carries no files; attach evidence to an entry submitted with a form, or propose a change to it once approved`
+		);
 	nextStatus(submission.status, 'edit', submissionId);
 	let query = db
 		.selectFrom('entry_version')

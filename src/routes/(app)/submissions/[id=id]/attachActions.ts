@@ -81,7 +81,15 @@ export async function attachAction(event: RequestEvent) {
 export async function detachAction(event: RequestEvent) {
 	const user = requireRole(event, 'contributor');
 	const id = Number(event.params.id);
-	const attachment = Number((await event.request.formData()).get('attachment'));
+	let form: FormData;
+	try {
+		form = await event.request.formData();
+	} catch {
+		return fail(400, {
+			detach: { errors: { form: ['send the form as a form (urlencoded or multipart)'] } }
+		});
+	}
+	const attachment = Number(form.get('attachment'));
 	if (!Number.isInteger(attachment) || attachment < 1)
 		return fail(400, { detach: { errors: { form: ['name the file to remove'] } } });
 	try {
