@@ -28,12 +28,12 @@ let token = '';
 let cookie = '';
 let curator = '';
 
-function manyFields(n: number): Uint8Array {
+function manyFields(n: number): string {
 	const parts = Array.from(
 		{ length: n },
 		(_, i) => `--XX\r\nContent-Disposition: form-data; name="x${i}"\r\n\r\n\r\n`
 	);
-	return new TextEncoder().encode(parts.join('') + '--XX--\r\n');
+	return parts.join('') + '--XX--\r\n';
 }
 
 beforeAll(async () => {
@@ -80,7 +80,7 @@ describe('attachment paths under abuse', () => {
 		expect((await fetch(`${base}/api/v1/facets`)).status).toBe(200);
 	}, 60_000);
 
-	it("shows the curator every file of a CSV batch's versions before approval", async () => {
+	it("refuses files on a CSV batch's versions, which a curator would never see (409)", async () => {
 		const csv =
 			'proteinAccession,label,cofactorKind,ligation,chainId,residues,coordinatesAngstrom,note,proteinName,organism,uniprot,structureIds\n' +
 			'HL000007,RX1,fe4s4,Cys4,B,45 48 51 83,10.1 -4.2 33.0,batch,,,,\n' +
@@ -121,7 +121,11 @@ describe('attachment paths under abuse', () => {
 		attach.append('entry', accession);
 		attach.append('kind', 'other');
 		attach.append('caption', 'A figure the curator should see');
-		attach.append('file', new Blob([await pngOf(300, 200)], { type: 'image/png' }), 'p.png');
+		attach.append(
+			'file',
+			new Blob([new Uint8Array(await pngOf(300, 200))], { type: 'image/png' }),
+			'p.png'
+		);
 		const res = await fetch(`${base}/api/v1/submissions/${id}/attachments`, {
 			method: 'POST',
 			headers: { authorization: `Bearer ${token}` },
