@@ -147,10 +147,11 @@ describe('password guessing through Auth.js is limited like the form', () => {
 		const codes = answers.map((r) => /code=(\w+)/.exec(r.headers.get('location') ?? '')?.[1]);
 		expect(codes.filter((c) => c === 'wrong')).toHaveLength(6);
 		expect(codes.filter((c) => c === 'busy')).toHaveLength(10);
-		// 2 × 128 MiB of scrypt on top of the server itself; 4 at once (the unqueued thread pool)
-		// went past 600 MB.
+		// 2 × 128 MiB of scrypt on top of the server itself (about 220–230 MB at rest); 4 at once
+		// (the unqueued thread pool) went past 600 MB. The bound sits between the two: at 480 it
+		// was met by half a megabyte once the server held the attachment modules.
 		console.log(`server RSS peak during 16 concurrent guesses: ${peak.toFixed(0)} MB`);
-		expect(peak).toBeLessThan(480);
+		expect(peak).toBeLessThan(540);
 		// And a real sign-in works right after.
 		const cookie = await signInCookie(
 			base,
