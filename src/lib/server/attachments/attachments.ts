@@ -12,7 +12,7 @@ import type { Database } from '../db/schema';
 import { readJson } from '../db/json';
 import type { SessionUser } from '../auth/roles';
 import { findVisibleEntry } from '../catalogue/visibleEntry';
-import { inspectAttachment, type InspectLimits } from './inspect';
+import { inspectAttachment, type Inspected, type InspectLimits } from './inspect';
 import type { Renditions } from './renditions';
 import type { BlobStore } from './storage';
 import { AttachmentRejectedError } from './errors';
@@ -140,8 +140,16 @@ export async function createAttachment(
 	if (inspected.role === 'data') checkNumbers(input.bytes, meta.kind);
 	let numbers: { sha256: string; bytes: Uint8Array; fileName: string; mime: string } | null = null;
 	if (input.numbers) {
-		const checked = await inspectAttachment(input.numbers.bytes, 'data', deps.limits);
-		checkNumbers(input.numbers.bytes, meta.kind);
+		let checked: Inspected;
+		try {
+			checked = await inspectAttachment(input.numbers.bytes, 'data', deps.limits);
+			checkNumbers(input.numbers.bytes, meta.kind);
+		} catch (e) {
+			// Said of the numbers file, so that a form shows it beside that field.
+			throw e instanceof AttachmentRejectedError
+				? new AttachmentRejectedError(e.status, e.code, e.message, 'numbers')
+				: e;
+		}
 		numbers = {
 			sha256: sha256(input.numbers.bytes),
 			bytes: input.numbers.bytes,

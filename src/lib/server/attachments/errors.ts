@@ -18,7 +18,9 @@ export class AttachmentRejectedError extends Error {
 			| 'decode_failed'
 			| 'decode_time_limit'
 			| 'unreadable_numbers',
-		message: string
+		message: string,
+		/** Which of the files sent was refused: the attachment's own, or an image's numbers. */
+		readonly part: 'file' | 'numbers' = 'file'
 	) {
 		super(message);
 	}

@@ -20,7 +20,6 @@ import {
 import { attachmentAnswer } from './attachmentAnswer';
 import { AttachmentRejectedError } from './errors';
 import { renderImage } from './imaging';
-import { inspectAttachment } from './inspect';
 import { attachmentStore } from './store';
 import {
 	SubmissionAccessError,
@@ -222,13 +221,6 @@ export async function attachToSubmission(
 		throw new SubmissionInvalidError({
 			numbers: ['a numbers-only attachment is one file: send the numbers as `file`']
 		});
-	// The file alone first (cheap: its header), so that a refusal from createAttachment can be
-	// told apart: past this point it is about the numbers file unless decoding failed.
-	try {
-		await inspectAttachment(input.file.bytes, role, deps.limits);
-	} catch (e) {
-		throw asFileError(e, 'file');
-	}
 	let attachment: AttachmentDto;
 	try {
 		attachment = await createAttachment(db, deps, {
@@ -241,11 +233,9 @@ export async function attachToSubmission(
 			uploadedBy: user.id
 		});
 	} catch (e) {
-		const onFile =
-			role === 'data' ||
-			(e instanceof AttachmentRejectedError &&
-				(e.code === 'decode_failed' || e.code === 'decode_time_limit'));
-		throw asFileError(e, onFile ? 'file' : 'numbers');
+		throw e instanceof AttachmentRejectedError
+			? new AttachmentFileError(e.part, e.code, e.status, e.message)
+			: e;
 	}
 	await db.transaction().execute(async (trx) => {
 		// Checked again: the submission may have been sent for review meanwhile.
@@ -261,12 +251,6 @@ export async function attachToSubmission(
 		});
 	});
 	return { target, attachment };
-}
-
-function asFileError(e: unknown, field: 'file' | 'numbers'): unknown {
-	return e instanceof AttachmentRejectedError
-		? new AttachmentFileError(field, e.code, e.status, e.message)
-		: e;
 }
 
 /**
