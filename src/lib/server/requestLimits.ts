@@ -26,14 +26,6 @@ export function uploadTooLargeMessage(requestBytes: number): string | null {
 		: null;
 }
 
-export function bodyLimitFor(pathname: string): { bytes: number; upload: boolean } {
-	const upload = UPLOAD_PATHS.some((p) => pathname.startsWith(p));
-	return {
-		bytes: upload ? config.UPLOAD_MAX_BYTES + MULTIPART_OVERHEAD : config.BODY_MAX_BYTES,
-		upload
-	};
-}
-
 /**
  * Where files are attached to a submission: the submission page's `attach` action and the API.
  * One request carries an image (ATTACHMENT_MAX_BYTES), its numbers file (SPECTRUM_MAX_BYTES) and
@@ -61,35 +53,52 @@ export function attachRequestLimit(): number {
  * names the limits of both files.
  */
 export function attachTooLargeMessage(requestBytes: number): string | null {
-	// Not attachments/inspect.ts's checkDeclaredSize: that folder sits above uploads, which
-	// imports this file (DEVELOPERS.md, "Import layers").
 	if (requestBytes <= attachRequestLimit()) return null;
 	return `The upload is ${megabytes(requestBytes)}; the limit is ${megabytes(config.ATTACHMENT_MAX_BYTES)} for the image and ${megabytes(SPECTRUM_MAX_BYTES)} for its numbers file.`;
+}
+
+/** What a request may weigh, by where it goes, and how a heavier one is refused. */
+export interface BodyLimit {
+	bytes: number;
+	/** The refusal's words for a request of `length` bytes. */
+	message: (length: number) => string;
+	/** A page action that says the refusal beside its own file field (still unread). */
+	pageAnswers: boolean;
+	/** The field an API refusal is said of, if one. */
+	field: string | null;
+}
+
+export function bodyLimitFor(url: URL): BodyLimit {
+	const page = !url.pathname.startsWith('/api/');
+	if (isAttachRequest(url))
+		return {
+			bytes: attachRequestLimit(),
+			message: (length) => attachTooLargeMessage(length) as string,
+			pageAnswers: page,
+			field: 'file'
+		};
+	if (UPLOAD_PATHS.some((p) => url.pathname.startsWith(p)))
+		return {
+			bytes: config.UPLOAD_MAX_BYTES + MULTIPART_OVERHEAD,
+			message: uploadLimitMessage,
+			pageAnswers: page,
+			field: null
+		};
+	return {
+		bytes: config.BODY_MAX_BYTES,
+		message: (length) =>
+			`The request is ${megabytes(length)}; the limit is ${megabytes(config.BODY_MAX_BYTES)}.`,
+		pageAnswers: false,
+		field: null
+	};
 }
 
 export const limitRequestSize: Handle = async ({ event, resolve }) => {
 	const method = event.request.method;
 	if (method === 'GET' || method === 'HEAD' || method === 'OPTIONS') return resolve(event);
+	const limit = bodyLimitFor(event.url);
 	const header = event.request.headers.get('content-length');
 	const length = header === null ? null : Number(header);
-	if (isAttachRequest(event.url)) {
-		if (length === null && event.request.body !== null)
-			return Response.json(
-				{
-					error: { code: 'length_required', message: 'Send a Content-Length header with the body.' }
-				},
-				{ status: 411 }
-			);
-		const message = length === null ? null : attachTooLargeMessage(length);
-		if (message === null) return resolve(event);
-		// The page's action answers beside its file field, still without reading the body.
-		if (!event.url.pathname.startsWith('/api/')) return resolve(event);
-		return Response.json(
-			{ error: { code: 'payload_too_large', message, fields: { file: [message] } } },
-			{ status: 413 }
-		);
-	}
-	const limit = bodyLimitFor(event.url.pathname);
 	if (length === null && event.request.body !== null) {
 		return Response.json(
 			{
@@ -99,13 +108,19 @@ export const limitRequestSize: Handle = async ({ event, resolve }) => {
 		);
 	}
 	if (length !== null && length > limit.bytes) {
-		const message = limit.upload
-			? (uploadTooLargeMessage(length) as string)
-			: `The request is ${megabytes(length)}; the limit is ${megabytes(config.BODY_MAX_BYTES)}.`;
-		// The upload page's own action answers this beside its file field, before reading the body.
-		if (limit.upload && !event.url.pathname.startsWith('/api/')) return resolve(event);
+		if (limit.pageAnswers) return resolve(event);
+		const message = limit.message(length);
 		return event.url.pathname.startsWith('/api/')
-			? Response.json({ error: { code: 'payload_too_large', message } }, { status: 413 })
+			? Response.json(
+					{
+						error: {
+							code: 'payload_too_large',
+							message,
+							...(limit.field ? { fields: { [limit.field]: [message] } } : {})
+						}
+					},
+					{ status: 413 }
+				)
 			: new Response(message, {
 					status: 413,
 					headers: { 'content-type': 'text/plain; charset=utf-8' }
