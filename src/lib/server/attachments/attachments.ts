@@ -70,7 +70,7 @@ export interface NewAttachment {
 }
 
 /** The x axis a kind's numbers must have, so that the plot can convert it (spectra.ts). */
-function numbersAxis(kind: AttachmentKind): SpectrumAxis {
+export function numbersAxis(kind: AttachmentKind): SpectrumAxis {
 	return kind === 'epr_spectrum' ? 'field' : kind === 'voltammogram' ? 'potential' : 'any';
 }
 

@@ -11,7 +11,7 @@ import { thinnedIndices, type SpectrumConditions } from '$lib/components/spectru
 import type { AttachmentAnswer } from '$lib/schemas/attachmentResponse';
 import type { Database } from '../db/schema';
 import { attachmentAnswer, attachmentUrls, type AttachmentUrls } from './attachmentAnswer';
-import { attachmentsOfVersion, type AttachmentDto } from './attachments';
+import { attachmentsOfVersion, numbersAxis, type AttachmentDto } from './attachments';
 import type { BlobStore } from './storage';
 
 /*
@@ -112,9 +112,7 @@ function thinned(all: [number, number][]): [number, number][] {
 
 async function plotOf(store: BlobStore, a: AttachmentDto): Promise<ShownAttachment['plot']> {
 	if (!a.numbers || a.role === 'structure') return null;
-	const axis =
-		a.kind === 'epr_spectrum' ? 'field' : a.kind === 'voltammogram' ? 'potential' : 'any';
-	const reading = await readingOf(store, a.numbers.sha256, axis);
+	const reading = await readingOf(store, a.numbers.sha256, numbersAxis(a.kind));
 	if ('problem' in reading) return reading;
 	const kept = reading.data.points.length;
 	return {
